@@ -1,0 +1,33 @@
+import { useState } from "react";
+import { signInSchema, type SignInInput } from "../../lib/schemas/auth";
+import { Field, postJson, useZodForm } from "../forms/form";
+
+export default function SignInForm({ next }: { next: string }) {
+  const { register, handleSubmit, formState } = useZodForm<SignInInput>(signInSchema);
+  const [problem, setProblem] = useState<string | null>(null);
+
+  const onSubmit = handleSubmit(async (values) => {
+    setProblem(null);
+    try {
+      await postJson("/api/auth/sign-in", values);
+      window.location.assign(next);
+    } catch (error) {
+      setProblem(error instanceof Error ? error.message : String(error));
+    }
+  });
+
+  return (
+    <form onSubmit={onSubmit} noValidate className="flex flex-col gap-4" aria-label="Sign in">
+      <Field label="E-mail address" type="email" autoComplete="username" registration={register("email")} error={formState.errors.email?.message} />
+      <Field label="Password" type="password" autoComplete="current-password" registration={register("password")} error={formState.errors.password?.message} />
+      {problem && (
+        <p className="notice notice-danger" role="alert">
+          {problem}
+        </p>
+      )}
+      <button className="btn justify-center" type="submit" disabled={formState.isSubmitting}>
+        {formState.isSubmitting ? "Signing in…" : "Sign in"}
+      </button>
+    </form>
+  );
+}

@@ -1,0 +1,42 @@
+import { zodResolver } from "@hookform/resolvers/zod";
+import { useId, type InputHTMLAttributes, type ReactNode } from "react";
+import { useForm, type FieldValues, type UseFormProps, type UseFormRegisterReturn } from "react-hook-form";
+import type { ZodType, ZodTypeDef } from "zod";
+
+/** react-hook-form bound to the same zod schema the API route parses with. */
+export function useZodForm<T extends FieldValues>(schema: ZodType<T, ZodTypeDef, unknown>, options: Omit<UseFormProps<T>, "resolver"> = {}) {
+  return useForm<T>({ ...options, resolver: zodResolver(schema) as never, mode: "onTouched" });
+}
+
+interface FieldProps extends InputHTMLAttributes<HTMLInputElement> {
+  label: string;
+  registration: UseFormRegisterReturn;
+  error?: string | undefined;
+  hint?: ReactNode;
+}
+
+/** A labelled input with its error announced to assistive technology. */
+export function Field({ label, registration, error, hint, ...input }: FieldProps) {
+  const id = useId();
+  return (
+    <div className="field">
+      <label htmlFor={id}>{label}</label>
+      <input id={id} className="input" aria-invalid={error ? true : undefined} aria-describedby={error ? `${id}-error` : undefined} {...input} {...registration} />
+      {hint && !error && <p className="text-xs text-[var(--color-muted)]">{hint}</p>}
+      {error && (
+        <p id={`${id}-error`} className="field-error" role="alert">
+          {error}
+        </p>
+      )}
+    </div>
+  );
+}
+
+/** Posts JSON to an API route; throws with the route's message on failure. */
+export async function postJson<T = unknown>(url: string, body: unknown, method = "POST"): Promise<T> {
+  const response = await fetch(url, { method, headers: { "content-type": "application/json" }, body: JSON.stringify(body) });
+  if (response.status === 204) return undefined as T;
+  const data = (await response.json().catch(() => ({}))) as { error?: string };
+  if (!response.ok) throw new Error(data.error ?? `The request failed (${response.status}).`);
+  return data as T;
+}

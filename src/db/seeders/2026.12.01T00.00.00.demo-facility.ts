@@ -1,0 +1,266 @@
+// Demo data: an invented analytical core facility, its people, clients and three months of work.
+// Every name here is invented; numbers are illustrative, not reference values.
+import type { QueryInterface } from "sequelize";
+import type { MigrationParams } from "umzug";
+import { hashPassword } from "../../lib/server/auth/password";
+
+const DAY = 86_400_000;
+
+/** Small deterministic generator so every fresh seed looks the same. */
+function prng(seed: number) {
+  let s = seed >>> 0;
+  return () => {
+    s = (s * 1664525 + 1013904223) >>> 0;
+    return s / 2 ** 32;
+  };
+}
+
+const stamp = (d: Date) => ({ created_at: d, updated_at: d });
+
+export const DEMO_PASSWORD = "decant-demo";
+
+export async function up({ context: qi }: MigrationParams<QueryInterface>) {
+  const now = new Date();
+  const at = (daysAgo: number, hour = 9) => {
+    const d = new Date(now.getTime() - daysAgo * DAY);
+    d.setUTCHours(hour, 0, 0, 0);
+    return d;
+  };
+  const t0 = at(100);
+
+  await qi.bulkInsert("clients", [
+    { id: 1, name: "Plant Metabolomics Group", kind: "internal", cost_centre: "CC-4102", currency: "EUR", ...stamp(t0) },
+    { id: 2, name: "Protein Chemistry Group", kind: "internal", cost_centre: "CC-4217", currency: "EUR", ...stamp(t0) },
+    { id: 3, name: "Environmental Trace Analysis Group", kind: "internal", cost_centre: "CC-4330", currency: "EUR", ...stamp(t0) },
+    { id: 4, name: "Quillfeather Therapeutics", kind: "external", billing_email: "accounts@quillfeather.test", currency: "EUR", ...stamp(t0) },
+    { id: 5, name: "Tarnbrook Agritech", kind: "external", billing_email: "payables@tarnbrook.test", currency: "EUR", ...stamp(t0) },
+  ]);
+
+  const passwordHash = await hashPassword(DEMO_PASSWORD);
+  await qi.bulkInsert("users", [
+    { id: 1, email: "admin@demo.test", name: "Alex Morrow", role: "admin", password_hash: passwordHash, ...stamp(t0) },
+    { id: 2, email: "manager@demo.test", name: "Priya Castellan", role: "manager", password_hash: passwordHash, ...stamp(t0) },
+    { id: 3, email: "tech@demo.test", name: "Rowan Ellery", role: "technician", password_hash: passwordHash, ...stamp(t0) },
+    { id: 4, email: "safety@demo.test", name: "Tomasz Werne", role: "safety", password_hash: passwordHash, ...stamp(t0) },
+    { id: 5, email: "client@demo.test", name: "Jun Okabe", role: "client", client_id: 4, password_hash: passwordHash, ...stamp(t0) },
+    { id: 6, email: "ines.halvorsen@demo.test", name: "Ines Halvorsen", role: "technician", password_hash: passwordHash, ...stamp(t0) },
+  ]);
+
+  await qi.bulkInsert("projects", [
+    { id: 1, code: "PMG-ROOT-26", name: "Root exudate profiling", client_id: 1, contact_name: "Dr. Amara Nkem", contact_email: "a.nkem@veldmoor.test", ...stamp(t0) },
+    { id: 2, code: "PCG-MASS-26", name: "Intact mass QC of expressed constructs", client_id: 2, contact_name: "Dr. Lukas Brenner", contact_email: "l.brenner@veldmoor.test", ...stamp(t0) },
+    { id: 3, code: "ETA-RIVR-26", name: "River water screening, spring campaign", client_id: 3, contact_name: "Dr. Sofia Marrow", contact_email: "s.marrow@veldmoor.test", ...stamp(t0) },
+    { id: 4, code: "QFT-IMP-014", name: "Impurity profiling, lead series QF-14", client_id: 4, contact_name: "Jun Okabe", contact_email: "client@demo.test", ...stamp(t0) },
+    { id: 5, code: "QFT-STB-015", name: "Forced-degradation study QF-15", client_id: 4, contact_name: "Jun Okabe", contact_email: "client@demo.test", ...stamp(t0) },
+    { id: 6, code: "TBA-RES-007", name: "Residue panel, cereal extracts", client_id: 5, contact_name: "Mireille Aubart", contact_email: "m.aubart@tarnbrook.test", ...stamp(t0) },
+  ]);
+
+  // Common-practice defaults; the safety officer edits them to the institution's rules.
+  await qi.bulkInsert("waste_streams", [
+    { id: "aqueous", name: "Aqueous", description: "Organic-free buffers and salt solutions; local discharge limits apply.", restrictiveness: 1, ...stamp(t0) },
+    { id: "non-halogenated-organic", name: "Non-halogenated organic", description: "Acetonitrile, methanol, ethanol, 2-propanol, THF and their aqueous mixes.", restrictiveness: 2, ...stamp(t0) },
+    { id: "acidic-corrosive", name: "Acidic / corrosive", description: "Concentrated acids and bases.", restrictiveness: 3, ...stamp(t0) },
+    { id: "halogenated-organic", name: "Halogenated organic", description: "Chlorinated solvents; TFA-containing waste at some sites.", restrictiveness: 4, ...stamp(t0) },
+  ]);
+
+  await qi.bulkInsert("waste_containers", [
+    { id: 1, code: "WC-0101", stream_id: "non-halogenated-organic", capacity_ml: 20_000, estimated_volume_ml: 0, room: "B2.14", location_kind: "instrument", location_note: "Under Wren", accumulation_started_at: at(40), ...stamp(at(40)) },
+    { id: 2, code: "WC-0102", stream_id: "non-halogenated-organic", capacity_ml: 20_000, estimated_volume_ml: 0, room: "B2.14", location_kind: "instrument", location_note: "Under Kestrel", accumulation_started_at: at(24), ...stamp(at(24)) },
+    { id: 3, code: "WC-0103", stream_id: "halogenated-organic", capacity_ml: 10_000, estimated_volume_ml: 0, room: "B2.16", location_kind: "instrument", location_note: "Under Heron", accumulation_started_at: at(70), ...stamp(at(70)) },
+    { id: 4, code: "WC-0104", stream_id: "aqueous", capacity_ml: 10_000, estimated_volume_ml: 0, room: "B2.16", location_kind: "satellite_area", location_note: "Satellite area, bench 3", accumulation_started_at: at(30), ...stamp(at(30)) },
+  ]);
+
+  await qi.bulkInsert("instruments", [
+    { id: 1, name: "Wren", kind: "UHPLC, binary pump, diode-array detector", room: "B2.14", channels: JSON.stringify(["A", "B"]), waste_container_id: 1, ...stamp(t0) },
+    { id: 2, name: "Kestrel", kind: "HPLC, quaternary pump, UV detector", room: "B2.14", channels: JSON.stringify(["A", "B", "C", "D"]), waste_container_id: 2, ...stamp(t0) },
+    { id: 3, name: "Heron", kind: "UHPLC with single-quadrupole MS", room: "B2.16", channels: JSON.stringify(["A", "B"]), waste_container_id: 3, ...stamp(t0) },
+  ]);
+
+  const reagents: [string, string, "mL" | "g", string, boolean][] = [
+    ["water", "Water", "mL", "aqueous", false],
+    ["acetonitrile", "Acetonitrile", "mL", "non-halogenated-organic", true],
+    ["methanol", "Methanol", "mL", "non-halogenated-organic", true],
+    ["isopropanol", "2-Propanol", "mL", "non-halogenated-organic", true],
+    ["formic-acid", "Formic acid", "mL", "acidic-corrosive", false],
+    ["trifluoroacetic-acid", "Trifluoroacetic acid", "mL", "halogenated-organic", false],
+    ["phosphoric-acid", "Phosphoric acid 85 %", "mL", "acidic-corrosive", false],
+    ["ammonium-formate", "Ammonium formate", "g", "aqueous", false],
+    ["ammonium-acetate", "Ammonium acetate", "g", "aqueous", false],
+    ["potassium-dihydrogen-phosphate", "Potassium dihydrogen phosphate", "g", "aqueous", false],
+    ["dipotassium-hydrogen-phosphate", "Dipotassium hydrogen phosphate", "g", "aqueous", false],
+  ];
+  await qi.bulkInsert(
+    "reagents",
+    reagents.map(([id, name, unit, stream, flammable]) => ({
+      id,
+      name,
+      unit,
+      grades: JSON.stringify(unit === "mL" && flammable ? ["HPLC", "LC-MS"] : ["analytical", "LC-MS"]),
+      waste_stream_id: stream,
+      flammable,
+      ...stamp(t0),
+    })),
+  );
+
+  await qi.bulkInsert("stock_lots", [
+    { id: 1, reagent_id: "acetonitrile", lot_number: "AN-58213", supplier: "Northfold Chemicals", grade: "HPLC", received_on: at(60), opened_on: at(50), expires_on: at(-600), quantity: 10_000, remaining: 3_400, room: "B2.14", ...stamp(at(60)) },
+    { id: 2, reagent_id: "methanol", lot_number: "ME-11907", supplier: "Northfold Chemicals", grade: "HPLC", received_on: at(80), opened_on: at(75), expires_on: at(-500), quantity: 4_000, remaining: 2_100, room: "B2.14", ...stamp(at(80)) },
+    { id: 3, reagent_id: "formic-acid", lot_number: "FA-2290", supplier: "Pellworth Reagents", grade: "LC-MS", received_on: at(90), opened_on: at(88), expires_on: at(-300), quantity: 100, remaining: 64, room: "B2.14", ...stamp(at(90)) },
+    { id: 4, reagent_id: "potassium-dihydrogen-phosphate", lot_number: "KP-7731", supplier: "Pellworth Reagents", grade: "analytical", received_on: at(200), opened_on: at(190), expires_on: at(5), quantity: 500, remaining: 310, room: "B2.16", ...stamp(at(200)) },
+    { id: 5, reagent_id: "ammonium-formate", lot_number: "AF-0418", supplier: "Northfold Chemicals", grade: "LC-MS", received_on: at(45), opened_on: at(40), expires_on: at(-700), quantity: 250, remaining: 236, room: "B2.16", ...stamp(at(45)) },
+    { id: 6, reagent_id: "water", lot_number: "UPW-SYSTEM", supplier: "In-house purification", grade: "LC-MS", received_on: at(100), expires_on: at(-3650), quantity: 1_000_000, remaining: 1_000_000, room: "B2.14", ...stamp(at(100)) },
+  ]);
+
+  const program = (points: [number, number, number][]) =>
+    JSON.stringify(points.map(([time_min, flow_mL_min, b]) => ({ time_min, flow_mL_min, composition: { A: 100 - b, B: b } })));
+  await qi.bulkInsert("methods", [
+    { id: 1, name: "Scout gradient 5–95 % B, 12 min", description: "Generic reversed-phase scouting gradient, 2.1 mm column.", program: program([[0, 0.4, 5], [10, 0.4, 95], [11, 0.4, 95], [11.1, 0.4, 5], [15, 0.4, 5]]), re_equilibration_min: 3.9, run_time_min: 15, ...stamp(t0) },
+    { id: 2, name: "Impurity method 10–60 % B, 25 min", description: "Shallow gradient, 4.6 mm column.", program: program([[0, 1.0, 10], [25, 1.0, 60], [27, 1.0, 90], [27.5, 1.0, 10], [33, 1.0, 10]]), re_equilibration_min: 5.5, run_time_min: 33, ...stamp(t0) },
+    { id: 3, name: "Isocratic 40 % B", description: "Isocratic assay.", program: program([[0, 1.0, 40], [8, 1.0, 40]]), re_equilibration_min: 0, run_time_min: 8, ...stamp(t0) },
+  ]);
+
+  const spec = (s: object) => JSON.stringify(s);
+  await qi.bulkInsert("recipes", [
+    { id: 1, code: "MP-FA-W", name: "0.1 % formic acid in water", channel: "A", status: "approved", created_by: 3, ...stamp(t0) },
+    { id: 2, code: "MP-FA-ACN", name: "0.1 % formic acid in acetonitrile", channel: "B", status: "approved", created_by: 3, ...stamp(t0) },
+    { id: 3, code: "MP-PHOS-30", name: "25 mM potassium phosphate, pH 3.0", channel: "A", status: "approved", created_by: 3, ...stamp(t0) },
+    { id: 4, code: "MP-AMF-35", name: "10 mM ammonium formate, pH 3.5", channel: "A", status: "draft", created_by: 6, ...stamp(at(10)) },
+  ]);
+  await qi.bulkInsert("recipe_versions", [
+    { id: 1, recipe_id: 1, version: 1, spec: spec({ solvents: [{ reagent: "water", percent: 100 }], additives: [{ reagent: "formic-acid", amount: 0.1, unit: "%v/v" }] }), detection_nm: 254, storage: "Room temperature, capped", created_by: 3, approved_by: 2, approved_at: t0, created_at: t0 },
+    { id: 2, recipe_id: 2, version: 1, spec: spec({ solvents: [{ reagent: "acetonitrile", percent: 100 }], additives: [{ reagent: "formic-acid", amount: 0.1, unit: "%v/v" }] }), detection_nm: 254, storage: "Flammables cabinet", created_by: 3, approved_by: 2, approved_at: t0, created_at: t0 },
+    { id: 3, recipe_id: 3, version: 1, spec: spec({ solvents: [{ reagent: "water", percent: 100 }], buffer: { reagents: ["potassium-dihydrogen-phosphate", "phosphoric-acid"], targetPH: 3.0, concentration_mM: 25, basis: "first", temperature_C: 25 } }), detection_nm: 210, storage: "2–8 °C, use within 7 days", created_by: 3, approved_by: 2, approved_at: t0, created_at: t0 },
+    { id: 4, recipe_id: 4, version: 1, spec: spec({ solvents: [{ reagent: "water", percent: 100 }], buffer: { reagents: ["ammonium-formate", "formic-acid"], targetPH: 3.5, concentration_mM: 10, basis: "first", temperature_C: 25 } }), detection_nm: 220, storage: "Room temperature, 48 h", created_by: 6, created_at: at(10) },
+  ]);
+
+  // Batches: a few current ones and older ones already used up.
+  const batches = [
+    { id: 1, code: "B26-0901", recipe_version_id: 1, days: 75, volume: 2000, remaining: 0, status: "empty", life: 30 },
+    { id: 2, code: "B26-0902", recipe_version_id: 2, days: 75, volume: 2000, remaining: 0, status: "empty", life: 30 },
+    { id: 3, code: "B26-1014", recipe_version_id: 3, days: 40, volume: 1000, remaining: 0, status: "discarded", life: 7 },
+    { id: 4, code: "B26-1103", recipe_version_id: 1, days: 12, volume: 4000, remaining: 2650, status: "in_use", life: 30 },
+    { id: 5, code: "B26-1104", recipe_version_id: 2, days: 12, volume: 4000, remaining: 2890, status: "in_use", life: 30 },
+    { id: 6, code: "B26-1120", recipe_version_id: 3, days: 2, volume: 1000, remaining: 1000, status: "ready", life: 7 },
+  ];
+  await qi.bulkInsert(
+    "batches",
+    batches.map((b) => ({
+      id: b.id,
+      code: b.code,
+      recipe_version_id: b.recipe_version_id,
+      spec_snapshot: JSON.stringify({ recipeVersionId: b.recipe_version_id }),
+      volume_ml: b.volume,
+      remaining_ml: b.remaining,
+      bottles: b.volume / 1000,
+      bottle_size_ml: 1000,
+      temperature_c: 22,
+      measured_ph: b.recipe_version_id === 3 ? 3.02 : null,
+      prepared_by: b.id % 2 ? 3 : 6,
+      prepared_at: at(b.days, 8),
+      expires_at: new Date(at(b.days, 8).getTime() + b.life * DAY),
+      status: b.status,
+      ...stamp(at(b.days, 8)),
+    })),
+  );
+  await qi.bulkInsert("batch_components", [
+    { batch_id: 4, reagent_id: "water", stock_lot_id: 6, role: "solvent", unit: "mL", target_amount: 4000, actual_amount: 4000 },
+    { batch_id: 4, reagent_id: "formic-acid", stock_lot_id: 3, role: "additive", unit: "mL", target_amount: 4, actual_amount: 4 },
+    { batch_id: 5, reagent_id: "acetonitrile", stock_lot_id: 1, role: "solvent", unit: "mL", target_amount: 4000, actual_amount: 4000 },
+    { batch_id: 5, reagent_id: "formic-acid", stock_lot_id: 3, role: "additive", unit: "mL", target_amount: 4, actual_amount: 4 },
+    { batch_id: 6, reagent_id: "water", stock_lot_id: 6, role: "solvent", unit: "mL", target_amount: 1000, actual_amount: 1000 },
+    { batch_id: 6, reagent_id: "potassium-dihydrogen-phosphate", stock_lot_id: 4, role: "buffer", unit: "g", target_amount: 3.4021, actual_amount: 3.4050 },
+  ]);
+
+  // Three months of runs with their ledger entries (invented, illustrative volumes).
+  const random = prng(20261201);
+  const runs: object[] = [];
+  const ledger: object[] = [];
+  const projectsByInstrument: Record<number, number[]> = { 1: [1, 2, 4], 2: [4, 5, 6], 3: [3, 6, 2] };
+  const perInjection: Record<number, { A: number; B: number }> = { 1: { A: 3.38, B: 2.62 }, 2: { A: 20.1, B: 12.9 }, 3: { A: 4.8, B: 3.2 } };
+  const waste: Record<number, { stream: string; container: number }> = {
+    1: { stream: "non-halogenated-organic", container: 1 },
+    2: { stream: "non-halogenated-organic", container: 2 },
+    3: { stream: "halogenated-organic", container: 3 },
+  };
+  let runId = 0;
+  for (let daysAgo = 90; daysAgo >= 1; daysAgo--) {
+    const day = at(daysAgo);
+    if (day.getUTCDay() === 0 || day.getUTCDay() === 6) continue;
+    for (const instrumentId of [1, 2, 3]) {
+      if (random() < 0.45) continue;
+      runId++;
+      const projectId = projectsByInstrument[instrumentId]![Math.floor(random() * 3)]!;
+      const methodId = instrumentId === 2 ? 2 : random() < 0.8 ? 1 : 3;
+      const injections = 8 + Math.floor(random() * 40);
+      const use = perInjection[methodId]!;
+      const volumes = { A: +(use.A * injections).toFixed(2), B: +(use.B * injections).toFixed(2) };
+      const startedAt = new Date(day.getTime() + Math.floor(random() * 6) * 3_600_000);
+      const [batchA, batchB] = daysAgo > 12 ? [1, 2] : [4, 5];
+      runs.push({
+        id: runId,
+        instrument_id: instrumentId,
+        method_id: methodId,
+        project_id: projectId,
+        operator_id: random() < 0.6 ? 3 : 6,
+        reference: `SEQ-${instrumentId}-${String(runId).padStart(4, "0")}`,
+        started_at: startedAt,
+        injections,
+        channel_batches: JSON.stringify({ A: batchA, B: batchB }),
+        channel_volumes: JSON.stringify(volumes),
+        ...stamp(startedAt),
+      });
+      const { stream, container } = waste[instrumentId]!;
+      const entry = (batchId: number, reagentId: string, volume_ml: number) => ({
+        occurred_at: startedAt,
+        project_id: projectId,
+        kind: "run",
+        batch_id: batchId,
+        reagent_id: reagentId,
+        volume_ml: +volume_ml.toFixed(4),
+        waste_stream_id: stream,
+        waste_container_id: container,
+        source_kind: "seed",
+        source_id: `run:${runId}`,
+        author_id: 3,
+        created_at: startedAt,
+      });
+      // 0.1 % v/v formic acid in each channel; the rest is water (A) or acetonitrile (B).
+      ledger.push(entry(batchA, "water", volumes.A * 0.999), entry(batchA, "formic-acid", volumes.A * 0.001));
+      ledger.push(entry(batchB, "acetonitrile", volumes.B * 0.999), entry(batchB, "formic-acid", volumes.B * 0.001));
+    }
+  }
+  await qi.bulkInsert("runs", runs);
+  await qi.bulkInsert("ledger_entries", ledger);
+  await qi.sequelize.query(`
+    UPDATE waste_containers c SET estimated_volume_ml = (
+      SELECT COALESCE(SUM(l.volume_ml), 0) FROM ledger_entries l
+      WHERE l.waste_container_id = c.id AND l.occurred_at >= c.accumulation_started_at)`);
+
+  const rate = (kind: string, reagent: string | null, list: string, unit: string, amount: number) => ({
+    kind, reagent_id: reagent, price_list: list, unit, amount_minor: amount, currency: "EUR", effective_from: at(365), created_by: 2, created_at: t0,
+  });
+  await qi.bulkInsert("rates", [
+    rate("reagent", "acetonitrile", "internal", "L", 4_200), rate("reagent", "acetonitrile", "external", "L", 7_900),
+    rate("reagent", "methanol", "internal", "L", 1_900), rate("reagent", "methanol", "external", "L", 3_600),
+    rate("reagent", "water", "internal", "L", 150), rate("reagent", "water", "external", "L", 400),
+    rate("reagent", "formic-acid", "internal", "L", 21_000), rate("reagent", "formic-acid", "external", "L", 38_000),
+    rate("preparation_fee", null, "internal", "batch", 1_200), rate("preparation_fee", null, "external", "batch", 2_500),
+    rate("injection_fee", null, "internal", "injection", 0), rate("injection_fee", null, "external", "injection", 150),
+  ]);
+
+  await qi.bulkInsert("settings", [
+    { key: "facility.name", value: JSON.stringify("Veldmoor Separation Science Core"), updated_at: t0 },
+    { key: "expiry.aqueousBuffer_h", value: JSON.stringify(48), updated_at: t0 },
+    { key: "expiry.organicMix_days", value: JSON.stringify(30), updated_at: t0 },
+    { key: "waste.fullThreshold_percent", value: JSON.stringify(80), updated_at: t0 },
+    { key: "waste.accumulationLimit_days", value: JSON.stringify(180), updated_at: t0 },
+    { key: "flammables.roomLimit_L", value: JSON.stringify({ "B2.14": 50, "B2.16": 25 }), updated_at: t0 },
+    { key: "invoices.daysUntilDue", value: JSON.stringify(30), updated_at: t0 },
+  ]);
+}
+
+export async function down({ context: qi }: MigrationParams<QueryInterface>) {
+  // The ledger refuses DELETE by design, so the demo data goes with the schema: `npm run db:reset`.
+  void qi;
+  throw new Error("The demo data cannot be unloaded row by row; use npm run db:reset to start from an empty database.");
+}

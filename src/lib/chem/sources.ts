@@ -1,0 +1,45 @@
+/**
+ * Citation keys used beside every reference value in the library.
+ *
+ * `confidence` follows the project's check-value key: `C` seen in the source,
+ * `D` derived from confirmed inputs, `M` from memory (not seen in the source
+ * when entered: verify before relying on it), `CP` common practice.
+ */
+export type Confidence = 'C' | 'D' | 'M' | 'CP';
+
+export interface Source {
+  citation: string;
+  confidence: Confidence;
+}
+
+export const SOURCES = {
+  CIAAW21: { citation: 'CIAAW, Standard atomic weights 2021 (abridged/conventional values for interval elements); molar masses computed in code', confidence: 'C' },
+  GKL02: { citation: 'Goldberg, Kishore, Lennen, J. Phys. Chem. Ref. Data 31, 231 (2002)', confidence: 'M' },
+  Harris: { citation: 'Harris, Quantitative Chemical Analysis, App. G (NIST SRD 46 data)', confidence: 'C' },
+  CRCpKa: { citation: 'CRC Handbook of Chemistry and Physics, dissociation constants of organic acids', confidence: 'M' },
+  HPA45: { citation: 'Hamer, Pinching, Acree, J. Res. NBS 35, 381 and 539 (1945), phthalic acid', confidence: 'M' },
+  Dalton94: { citation: 'J. Chem. Soc. Dalton Trans. 1994, 2729 (log beta 4.36, 7.36); ECHA dossier 2.98/4.34', confidence: 'C' },
+  Bowden96: { citation: 'Bowden et al., Chemosphere 32, 405 (1996); TFA treated as a strong acid', confidence: 'C' },
+  Davies62: { citation: 'Davies, Ion Association, Butterworths (1962): log g = -A z^2 [sqrt(I)/(1+sqrt(I)) - 0.3 I]', confidence: 'M' },
+  CRP94: { citation: 'Debye-Hueckel A (log10, molal) derived from A_phi of Clegg, Rard, Pitzer, J. Chem. Soc. Faraday Trans. 90, 1875 (1994), as coded in pytzer', confidence: 'D' },
+  Tanaka01: { citation: 'Tanaka et al., Metrologia 38, 301 (2001), density of water', confidence: 'D' },
+  HR40: { citation: 'Harned, Robinson, Trans. Faraday Soc. 36, 973 (1940): pKw = 4470.99/T - 6.0875 + 0.01706 T', confidence: 'M' },
+  CRCconc: { citation: 'CRC Handbook 102nd ed., Concentrative properties of aqueous solutions (20 C), as transcribed in amosonabike/CRC-Solution-Properties-', confidence: 'C' },
+  Merck: { citation: 'Merck Index monographs (densities d20, d25; boiling and flash points)', confidence: 'C' },
+  MerckM: { citation: 'Merck Index / CRC Handbook physical constants', confidence: 'M' },
+  SolventData: { citation: 'solvent data page (20 C density of acetonitrile); ECHA registration dossier', confidence: 'C' },
+  Montgomery: { citation: 'Aminabhavi & Patil (1998), in the Montgomery handbook (THF density)', confidence: 'C' },
+  SKD10: { citation: 'Snyder, Kirkland, Dolan, Introduction to Modern Liquid Chromatography, 3rd ed., Wiley (2010), App. I', confidence: 'M' },
+  Snyder78: { citation: 'Snyder, J. Chromatogr. Sci. 16, 223 (1978), polarity index P prime', confidence: 'M' },
+  lcqc: { citation: 'Water-organic viscosity tables (25 C) compiled from SKD10, Thompson-Kaiser-Jorgenson 2006, Teutenberg 2009, Wohlfarth 2001; as in github.com/Deniz-Koseoglu/lcqc', confidence: 'C' },
+  CLP: { citation: 'Regulation (EC) 1272/2008 (CLP) Annex VI / C&L inventory aggregate pages', confidence: 'C' },
+  CLPM: { citation: 'CLP Annex VI or typical supplier SDS classification', confidence: 'M' },
+  GisChem: { citation: 'GisChem THF datasheet', confidence: 'C' },
+  CLH21: { citation: 'Formic acid CLH consultation report (2021); Annex VI entry H314', confidence: 'C' },
+  SDG79: { citation: 'Snyder, Dolan, Gant, J. Chromatogr. 165, 3 (1979), linear-solvent-strength model', confidence: 'M' },
+  SD07: { citation: 'Snyder, Dolan, High-Performance Gradient Elution, Wiley (2007)', confidence: 'M' },
+  CPwaste: { citation: 'Common practice for laboratory waste segregation; follow local rules', confidence: 'CP' },
+  CPms: { citation: 'Common practice: non-volatile buffers foul mass-spectrometer sources', confidence: 'CP' },
+} as const satisfies Record<string, Source>;
+
+export type SourceKey = keyof typeof SOURCES;

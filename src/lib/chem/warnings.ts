@@ -1,0 +1,89 @@
+/**
+ * Warnings that a technician must see, and the error type for input the
+ * library cannot compute with. Each warning is a code (stable, for the UI and
+ * for tests) plus one plain sentence.
+ */
+
+export const WARNING_CODES = [
+  /** Target pH more than 1 unit from every pKa of the buffer system: little buffer capacity. */
+  'ph-far-from-pka',
+  /** Phosphate, citrate, borate, Tris, alkali salts: not volatile, unsuitable for MS detection (common practice). */
+  'non-volatile-buffer',
+  /** A buffer salt in a mix with more than about 50 % organic solvent: it may precipitate (common practice). */
+  'precipitation-risk',
+  /** A component absorbs above the detection wavelength. */
+  'uv-cutoff',
+  /** Ionic strength above the range where the Davies equation is good (about 0.1–0.2 mol/L). */
+  'ionic-strength-high',
+  /** A concentrated acid or base: add it to water, never water to it. */
+  'concentrated-reagent',
+  /** A flammable liquid. */
+  'flammable',
+  /** No published volume-of-mixing data for these solvents: the final volume assumes ideal mixing. */
+  'no-contraction-data',
+  /** No published viscosity table for this mix at this temperature. */
+  'no-viscosity-data',
+  /** Temperature outside the range of the activity and pKa data (0–50 °C). */
+  'temperature-out-of-range',
+  /** No density for a liquid reagent: only its mass can be given. */
+  'no-density-data',
+] as const;
+
+export type WarningCode = (typeof WARNING_CODES)[number];
+
+export interface ChemWarning {
+  code: WarningCode;
+  /** One plain sentence a technician can act on. */
+  message: string;
+  /** The reagent the warning is about, when there is one. */
+  reagent?: string;
+}
+
+export const ERROR_CODES = [
+  'unknown-reagent',
+  'invalid-input',
+  'not-aqueous-solute',
+  'composition-not-100',
+  'target-unreachable',
+  'no-shared-acid-system',
+  'unsupported-unit',
+] as const;
+
+export type ChemErrorCode = (typeof ERROR_CODES)[number];
+
+/** Input the chemistry cannot work with; `field` names the offending input. */
+export class ChemInputError extends Error {
+  readonly code: ChemErrorCode;
+  readonly field: string | undefined;
+  constructor(code: ChemErrorCode, message: string, field?: string) {
+    super(message);
+    this.name = 'ChemInputError';
+    this.code = code;
+    this.field = field;
+  }
+}
+
+/** Adds a warning unless one with the same code and reagent is already there. */
+export function pushWarning(list: ChemWarning[], warning: ChemWarning): void {
+  for (const w of list) {
+    if (w.code === warning.code && w.reagent === warning.reagent) return;
+  }
+  list.push(warning);
+}
+
+export function requireFinite(value: number, field: string, { min, positive }: { min?: number; positive?: boolean } = {}): void {
+  if (typeof value !== 'number' || !Number.isFinite(value)) {
+    throw new ChemInputError('invalid-input', `${field} must be a finite number.`, field);
+  }
+  if (positive === true && !(value > 0)) {
+    throw new ChemInputError('invalid-input', `${field} must be greater than zero.`, field);
+  }
+  if (min !== undefined && value < min) {
+    throw new ChemInputError('invalid-input', `${field} must be at least ${min}.`, field);
+  }
+}
+
+/** True for arrays; deliberately not a type guard, so that typed lists keep their element type. */
+export function isList(value: unknown): boolean {
+  return Array.isArray(value);
+}

@@ -1,0 +1,62 @@
+import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from "sequelize";
+
+export class Client extends Model<InferAttributes<Client>, InferCreationAttributes<Client>> {
+  declare id: CreationOptional<number>;
+  declare name: string;
+  declare kind: "internal" | "external";
+  /** Internal clients are charged back to a cost centre. */
+  declare costCentre: string | null;
+  /** External clients are invoiced at this address. */
+  declare billingEmail: string | null;
+  declare paymentsCustomerId: string | null;
+  declare currency: CreationOptional<string>;
+  declare active: CreationOptional<boolean>;
+  declare createdAt: CreationOptional<Date>;
+  declare updatedAt: CreationOptional<Date>;
+}
+
+export class Project extends Model<InferAttributes<Project>, InferCreationAttributes<Project>> {
+  declare id: CreationOptional<number>;
+  declare code: string;
+  declare name: string;
+  declare clientId: number;
+  declare contactName: string | null;
+  declare contactEmail: string | null;
+  declare status: CreationOptional<"active" | "paused" | "closed">;
+  declare createdAt: CreationOptional<Date>;
+  declare updatedAt: CreationOptional<Date>;
+}
+
+export function initOrganisationModels(sequelize: Sequelize) {
+  Client.init(
+    {
+      id: { type: DataTypes.INTEGER.UNSIGNED, autoIncrement: true, primaryKey: true },
+      name: { type: DataTypes.STRING(160), allowNull: false, unique: true },
+      kind: { type: DataTypes.ENUM("internal", "external"), allowNull: false },
+      costCentre: { type: DataTypes.STRING(40), allowNull: true },
+      billingEmail: { type: DataTypes.STRING(254), allowNull: true },
+      paymentsCustomerId: { type: DataTypes.STRING(64), allowNull: true },
+      currency: { type: DataTypes.CHAR(3), allowNull: false, defaultValue: "EUR" },
+      active: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: true },
+      createdAt: DataTypes.DATE(3),
+      updatedAt: DataTypes.DATE(3),
+    },
+    { sequelize, tableName: "clients", modelName: "Client" },
+  );
+  Project.init(
+    {
+      id: { type: DataTypes.INTEGER.UNSIGNED, autoIncrement: true, primaryKey: true },
+      code: { type: DataTypes.STRING(32), allowNull: false, unique: true },
+      name: { type: DataTypes.STRING(200), allowNull: false },
+      clientId: { type: DataTypes.INTEGER.UNSIGNED, allowNull: false },
+      contactName: { type: DataTypes.STRING(120), allowNull: true },
+      contactEmail: { type: DataTypes.STRING(254), allowNull: true },
+      status: { type: DataTypes.ENUM("active", "paused", "closed"), allowNull: false, defaultValue: "active" },
+      createdAt: DataTypes.DATE(3),
+      updatedAt: DataTypes.DATE(3),
+    },
+    { sequelize, tableName: "projects", modelName: "Project" },
+  );
+  Client.hasMany(Project, { foreignKey: "clientId" });
+  Project.belongsTo(Client, { foreignKey: "clientId" });
+}

@@ -1,0 +1,141 @@
+import fc from 'fast-check';
+import { unit } from 'mathjs';
+import { describe, expect, it } from 'vitest';
+import { ChemInputError, getReagent, mixMobilePhase } from '../../../src/lib/chem';
+import { CONTRACTION_TABLES, volumeRatio } from '../../../src/lib/chem/excess-volume';
+
+const SOLVENTS = ['water', 'acetonitrile', 'methanol', 'ethanol', 'isopropanol', 'tetrahydrofuran'];
+
+describe('solvent volumes', () => {
+  it('sum to the total for any split (fast-check)', () => {
+    fc.assert(
+      fc.property(
+        fc.double({ min: 1, max: 20000, noNaN: true }),
+        fc.uniqueArray(fc.constantFrom(...SOLVENTS), { minLength: 1, maxLength: 4 }),
+        fc.array(fc.double({ min: 0.01, max: 1, noNaN: true }), { minLength: 4, maxLength: 4 }),
+        (total, ids, weights) => {
+          const w = ids.map((_, i) => weights[i] ?? 1);
+          const sum = w.reduce((a, b) => a + b, 0);
+          const pct = w.map((x) => (100 * x) / sum);
+          const drift = 100 - pct.reduce((a, b) => a + b, 0);
+          pct[0] = (pct[0] ?? 0) + drift;
+          const r = mixMobilePhase({ total_mL: total, solvents: ids.map((reagent, i) => ({ reagent, percent: pct[i] ?? 0 })) });
+          const v = r.components.reduce((a, c) => a + (c.volume_mL ?? 0), 0);
+          expect(v).toBeCloseTo(total, 6);
+          expect(r.finalVolume_mL).toBeLessThanOrEqual(total * (1 + 1e-12));
+          expect(r.finalVolume_mL).toBeGreaterThan(total * 0.95);
+        },
+      ),
+      { numRuns: 200 },
+    );
+  });
+
+  it('rejects percentages that do not add up to 100', () => {
+    expect(() => mixMobilePhase({ total_mL: 1000, solvents: [{ reagent: 'water', percent: 60 }, { reagent: 'methanol', percent: 30 }] })).toThrow(ChemInputError);
+  });
+});
+
+describe('volume contraction', () => {
+  it('50 mL methanol + 50 mL water at 25 °C gives about 96.3–96.6 mL (check-values §6, D from Merck Index densities)', () => {
+    const r = mixMobilePhase({ total_mL: 100, solvents: [{ reagent: 'water', percent: 50 }, { reagent: 'methanol', percent: 50 }] });
+    expect(r.finalVolume_mL).toBeGreaterThan(96.2);
+    expect(r.finalVolume_mL).toBeLessThan(96.7);
+    expect(r.warnings.map((w) => w.code)).not.toContain('no-contraction-data');
+  });
+
+  it('the 50/50 methanol mix weighs 89.18 g, 44.1 % w/w methanol (check-values §6, D)', () => {
+    const m = 50 * 0.7866 + 50 * 0.997047;
+    expect(m).toBeCloseTo(89.18, 2);
+    expect((50 * 0.7866) / m).toBeCloseTo(0.441, 3);
+  });
+
+  it('reproduces the CRC table density it was built from at a table row (consistency)', () => {
+    // CRC concentrative properties, methanol 40 % w/w at 20 °C: 0.9347 g/mL.
+    const t = CONTRACTION_TABLES.methanol;
+    if (t === undefined) throw new Error('no table');
+    const w = 0.4;
+    const ideal = w / 0.7917 + (1 - w) / 0.998207;
+    expect(1 / (volumeRatio(t, w) * ideal)).toBeCloseTo(0.9347, 4);
+  });
+
+  it('is largest near the middle and vanishes at the ends (methanol and ethanol)', () => {
+    for (const id of ['methanol', 'ethanol']) {
+      const t = CONTRACTION_TABLES[id];
+      if (t === undefined) throw new Error(id);
+      expect(volumeRatio(t, 0)).toBeCloseTo(1, 10);
+      expect(volumeRatio(t, 1)).toBeCloseTo(1, 10);
+      expect(volumeRatio(t, 0.5)).toBeLessThan(0.97);
+    }
+  });
+
+  it('says when no data exist (acetonitrile–water, ternary mixes) and assumes ideal mixing', () => {
+    const r = mixMobilePhase({ total_mL: 1000, solvents: [{ reagent: 'water', percent: 50 }, { reagent: 'acetonitrile', percent: 50 }] });
+    expect(r.finalVolume_mL).toBeCloseTo(1000, 9);
+    expect(r.warnings.find((w) => w.code === 'no-contraction-data')?.message).toMatch(/ideal mixing/);
+  });
+});
+
+describe('additives (per litre of the final mix)', () => {
+  it('0.1 % v/v formic acid is 1.22 g/L = 26.5 mmol/L at 20 °C (check-values §4 additive check, D, density 1.220)', () => {
+    const r = mixMobilePhase({ total_mL: 1000, temperature_C: 20, solvents: [{ reagent: 'water', percent: 100 }], additives: [{ reagent: 'formic-acid', amount: 0.1, unit: '%v/v' }] });
+    const fa = r.components.find((c) => c.reagent === 'formic-acid');
+    expect(fa?.volume_mL).toBeCloseTo(1, 9);
+    expect((fa?.amount_mol ?? 0) * 1000).toBeCloseTo(26.5, 1);
+    expect(r.finalVolume_mL).toBeCloseTo(1001, 6);
+  });
+
+  it.each([
+    // [unit, amount, expected mass g for 1 L of water]; mathjs converts the unit as a second opinion.
+    ['g/L', 2.5, unit(2.5, 'g').toNumber('g')],
+    ['mg/L', 250, unit(250, 'mg').toNumber('g')],
+    ['%w/v', 0.25, unit(0.25, 'g').toNumber('g') * unit(1, 'L').toNumber('mL') / 100],
+  ] as const)('%s of ammonium acetate', (u, amount, expectedMass) => {
+    const r = mixMobilePhase({ total_mL: 1000, solvents: [{ reagent: 'water', percent: 100 }], additives: [{ reagent: 'ammonium-acetate', amount, unit: u }] });
+    const c = r.components.find((x) => x.reagent === 'ammonium-acetate');
+    expect(c?.mass_g).toBeCloseTo(expectedMass, 9);
+    expect(c?.amount_mol).toBeCloseTo(expectedMass / (getReagent('ammonium-acetate')?.molarMass_g_mol ?? 1), 9);
+  });
+
+  it('10 mM ammonium formate in 500 mL of water is 5 mmol, 0.315 g (hand calculation, M = 63.056)', () => {
+    const r = mixMobilePhase({ total_mL: 500, solvents: [{ reagent: 'water', percent: 100 }], additives: [{ reagent: 'ammonium-formate', amount: 10, unit: 'mM' }] });
+    const c = r.components.find((x) => x.reagent === 'ammonium-formate');
+    expect(c?.amount_mol).toBeCloseTo(0.005, 12);
+    expect(c?.mass_g).toBeCloseTo(0.31528, 4);
+  });
+
+  it('1 mL/L phosphoric acid 85 %: substance amount through density and purity', () => {
+    const r = mixMobilePhase({ total_mL: 1000, solvents: [{ reagent: 'water', percent: 100 }], additives: [{ reagent: 'phosphoric-acid', amount: 1, unit: 'mL/L' }] });
+    const c = r.components.find((x) => x.reagent === 'phosphoric-acid');
+    // 1 mL × 1.685 g/mL × 0.85 / 97.994 g/mol = 14.6 mmol (hand calculation)
+    expect((c?.amount_mol ?? 0) * 1000).toBeCloseTo((1.685 * 0.85 * 1000) / 97.994, 2);
+  });
+
+  it('rejects a volume unit for a solid', () => {
+    expect(() => mixMobilePhase({ total_mL: 1000, solvents: [{ reagent: 'water', percent: 100 }], additives: [{ reagent: 'ammonium-acetate', amount: 1, unit: 'mL/L' }] })).toThrow(/solid/);
+  });
+});
+
+describe('warnings', () => {
+  const codes = (r: ReturnType<typeof mixMobilePhase>) => r.warnings.map((w) => w.code);
+
+  it('flags buffer salt with more than 50 % organic (precipitation risk, common practice)', () => {
+    const high = mixMobilePhase({ total_mL: 1000, solvents: [{ reagent: 'water', percent: 30 }, { reagent: 'acetonitrile', percent: 70 }], additives: [{ reagent: 'potassium-dihydrogen-phosphate', amount: 20, unit: 'mM' }] });
+    expect(codes(high)).toContain('precipitation-risk');
+    const low = mixMobilePhase({ total_mL: 1000, solvents: [{ reagent: 'water', percent: 70 }, { reagent: 'acetonitrile', percent: 30 }], additives: [{ reagent: 'potassium-dihydrogen-phosphate', amount: 20, unit: 'mM' }] });
+    expect(codes(low)).not.toContain('precipitation-risk');
+    expect(codes(low)).toContain('non-volatile-buffer');
+  });
+
+  it('names flammable solvents and defers to the SOP', () => {
+    const r = mixMobilePhase({ total_mL: 1000, solvents: [{ reagent: 'water', percent: 50 }, { reagent: 'methanol', percent: 50 }] });
+    const w = r.warnings.find((x) => x.code === 'flammable');
+    expect(w?.reagent).toBe('methanol');
+    expect(w?.message).toMatch(/SOP/);
+    expect(codes(mixMobilePhase({ total_mL: 1000, solvents: [{ reagent: 'water', percent: 100 }] }))).toEqual([]);
+  });
+
+  it('flags UV cutoffs above the detection wavelength', () => {
+    const r = mixMobilePhase({ total_mL: 1000, solvents: [{ reagent: 'water', percent: 50 }, { reagent: 'methanol', percent: 50 }], detectionWavelength_nm: 200 });
+    expect(r.warnings.find((w) => w.code === 'uv-cutoff')?.reagent).toBe('methanol');
+  });
+});

@@ -1,0 +1,228 @@
+import fc from 'fast-check';
+import { evaluate, type Unit } from 'mathjs';
+import { describe, expect, it } from 'vitest';
+import { ChemInputError, pKaAtTemperature, solutionPH } from '../../../src/lib/chem';
+import { ACID_SYSTEMS, R_J_K_MOL } from '../../../src/lib/chem/acid-systems';
+import { daviesLog10Gamma, debyeHuckelA_molal } from '../../../src/lib/chem/activity';
+import { pKw, waterDensity_g_mL } from '../../../src/lib/chem/water';
+
+/** A physical constant from mathjs (CODATA 2018), as a number in the given units. */
+const constant = (name: string, units: string): number => (evaluate(name) as Unit).toNumber(units);
+
+/** mol/kg → mol/L for a dilute solution: c ≈ m·ρ(water). The difference is under 0.5 % (check-values §1). */
+const molar = (m_mol_kg: number, t_C: number) => m_mol_kg * waterDensity_g_mL(t_C);
+const comp = (reagent: string, m: number, t = 25) => ({ reagent, concentration_mol_L: molar(m, t) });
+
+describe('IUPAC primary pH standards at 25 °C (Buck et al. 2002, Pure Appl. Chem. 74, 2169) within ±0.02', () => {
+  it.each([
+    // 0.05 mol/kg potassium hydrogen phthalate: 4.005 (Hamer, Pinching, Acree 1946; Buck et al. 2002)
+    ['KHP 0.05 mol/kg', [comp('potassium-hydrogen-phthalate', 0.05)], 4.005],
+    // 0.025 + 0.025 mol/kg KH2PO4/Na2HPO4: 6.865 (Partanen & Minkkinen 1996; Buck et al. 2002)
+    ['phosphate 0.025/0.025 mol/kg', [comp('potassium-dihydrogen-phosphate', 0.025), comp('disodium-hydrogen-phosphate', 0.025)], 6.865],
+    // 0.01 mol/kg borax: 9.180 (Staples & Bates 1969; Buck et al. 2002)
+    ['borax 0.01 mol/kg', [comp('sodium-tetraborate-decahydrate', 0.01)], 9.18],
+  ])('%s gives pH %s', (_name, components, expected) => {
+    expect(Math.abs(solutionPH({ components }).pH - expected)).toBeLessThanOrEqual(0.02);
+  });
+});
+
+describe('further standards and temperatures (values from memory of the IUPAC 2002 / NIST tables: verify)', () => {
+  it.each([
+    // Equimolal-ratio phosphate 0.008695 + 0.03043 mol/kg: 7.413 at 25 °C (from memory)
+    ['phosphate 1:3.5, 25 °C', [comp('potassium-dihydrogen-phosphate', 0.008695), comp('disodium-hydrogen-phosphate', 0.03043)], 25, 7.413, 0.02],
+    // 0.025 + 0.025 mol/kg NaHCO3/Na2CO3: 10.012 at 25 °C (from memory)
+    ['carbonate 0.025/0.025, 25 °C', [comp('sodium-bicarbonate', 0.025), comp('sodium-carbonate', 0.025)], 25, 10.012, 0.02],
+    // 0.05 mol/kg potassium dihydrogen citrate: 3.776 at 25 °C (from memory)
+    ['KH2 citrate 0.05, 25 °C', [comp('potassium-dihydrogen-citrate', 0.05)], 25, 3.776, 0.02],
+    // Saturated (0.0341 mol/kg) potassium hydrogen tartrate: 3.557 at 25 °C (from memory).
+    // Wider tolerance: tartaric pKa values in the sources differ by 0.06 (2.98–3.04, 4.34–4.37).
+    ['KH tartrate sat., 25 °C', [comp('potassium-hydrogen-tartrate', 0.0341)], 25, 3.557, 0.03],
+    // Phosphate 0.025/0.025 at 20 °C 6.881 and 37 °C 6.840 (from memory)
+    ['phosphate 0.025/0.025, 20 °C', [comp('potassium-dihydrogen-phosphate', 0.025, 20), comp('disodium-hydrogen-phosphate', 0.025, 20)], 20, 6.881, 0.02],
+    ['phosphate 0.025/0.025, 37 °C', [comp('potassium-dihydrogen-phosphate', 0.025, 37), comp('disodium-hydrogen-phosphate', 0.025, 37)], 37, 6.84, 0.02],
+    // Borax 0.01 mol/kg at 20 °C 9.225 and 37 °C 9.087 (from memory)
+    ['borax, 20 °C', [comp('sodium-tetraborate-decahydrate', 0.01, 20)], 20, 9.225, 0.02],
+    ['borax, 37 °C', [comp('sodium-tetraborate-decahydrate', 0.01, 37)], 37, 9.087, 0.02],
+    // KHP at 37 °C 4.022 (from memory). Wider tolerance: no ΔH° for phthalic acid in the sources used.
+    ['KHP, 37 °C', [comp('potassium-hydrogen-phthalate', 0.05, 37)], 37, 4.022, 0.03],
+  ])('%s', (_name, components, t, expected, tol) => {
+    expect(Math.abs(solutionPH({ components, temperature_C: t }).pH - expected)).toBeLessThanOrEqual(tol);
+  });
+});
+
+describe('simple solutions against independent calculations', () => {
+  it('0.1 % v/v formic acid (26.5 mmol/L) has pH 2.68 (check-values §4 additive check, D, pKa 3.75)', () => {
+    expect(solutionPH({ components: [{ reagent: 'formic-acid', concentration_mol_L: 0.0265 }] }).pH).toBeCloseTo(2.68, 2);
+  });
+
+  it.each([1e-3, 1e-2, 5e-2])('HCl %s mol/L: pH = −log(γ c) with the Davies γ', (c) => {
+    // Strong acid, [H+] ≈ c; γ from the Davies equation at I = c, A = 0.5108 (molar, check-values §3, D).
+    const expected = -Math.log10(c) - daviesLog10Gamma(1, c, 0.5108);
+    expect(solutionPH({ components: [{ reagent: 'hydrochloric-acid', concentration_mol_L: c }] }).pH).toBeCloseTo(expected, 3);
+  });
+
+  it('pure water is neutral: pH = pKw/2', () => {
+    const r = solutionPH({ components: [] });
+    expect(r.pH).toBeCloseTo(pKw(25) / 2, 6);
+  });
+
+  it('NaOH 0.01 mol/L: pH = pKw + log(γ c)', () => {
+    const c = 0.01;
+    const expected = pKw(25) + Math.log10(c) + daviesLog10Gamma(1, c, 0.5108);
+    expect(solutionPH({ components: [{ reagent: 'sodium-hydroxide', concentration_mol_L: c }] }).pH).toBeCloseTo(expected, 3);
+  });
+});
+
+describe('water and temperature data', () => {
+  it('pKw is 13.995 at 25 °C (Marshall & Franck 1981, check-values §2, M)', () => {
+    expect(pKw(25)).toBeCloseTo(13.995, 2);
+  });
+
+  it.each([
+    [20, 0.998207], // Tanaka et al. 2001 (check-values §4, D)
+    [25, 0.997047],
+  ])('water density at %s °C is %s g/mL', (t, rho) => {
+    expect(waterDensity_g_mL(t)).toBeCloseTo(rho, 5);
+  });
+
+  it.each([
+    [0, 0.4904], // check-values §3 (D from Clegg, Rard & Pitzer 1994 via pytzer)
+    [20, 0.5058],
+    [25, 0.51],
+    [37, 0.5212],
+    [50, 0.5345],
+  ])('Debye–Hückel A at %s °C is %s', (t, A) => {
+    expect(debyeHuckelA_molal(t)).toBeCloseTo(A, 4);
+  });
+
+  it('A at 25 °C agrees with the Debye–Hückel limiting law from mathjs physical constants', () => {
+    // A = (1/ln10)·(e²/(8π ε0 εr k T))·sqrt(2 NA e² ρw/(ε0 εr k T)), molal scale.
+    // εr(25 °C) = 78.30 (Malmberg & Maryott 1956, from memory).
+    const e = constant('elementaryCharge', 'C');
+    const eps0 = constant('electricConstant', 'F/m');
+    const k = constant('boltzmann', 'J/K');
+    const NA = constant('avogadro', 'mol^-1');
+    const T = 298.15;
+    const epsr = 78.3;
+    const rho = 997.047; // kg/m³
+    const lB = (e * e) / (8 * Math.PI * eps0 * epsr * k * T);
+    const kappaPerSqrtI = Math.sqrt((2 * NA * e * e * rho) / (eps0 * epsr * k * T));
+    const A = (lB * kappaPerSqrtI) / Math.LN10;
+    expect(Math.abs(A - debyeHuckelA_molal(25)) / A).toBeLessThan(0.005);
+  });
+
+  it('uses the CODATA gas constant (mathjs second opinion)', () => {
+    expect(R_J_K_MOL).toBeCloseTo(constant('gasConstant', 'J / (K mol)'), 8);
+  });
+
+  it.each([
+    // check-values §2 (D): pK(T) from [GKL02] ΔH° and ΔCp°
+    ['phosphate', 1, 20, 7.21],
+    ['phosphate', 1, 37, 7.183],
+    ['tris', 0, 20, 8.214],
+    ['tris', 0, 37, 7.753],
+  ] as const)('%s step %s at %s °C has pKa %s', (id, step, t, expected) => {
+    const s = ACID_SYSTEMS[id];
+    const pK = pKaAtTemperature(s.pKa25[step] ?? 0, s.dH_kJ_mol[step] ?? null, s.dCp_J_K_mol[step] ?? null, t + 273.15);
+    expect(pK).toBeCloseTo(expected, 3);
+  });
+
+  it('the van \'t Hoff slope at 25 °C is −ΔH/(RT² ln10) (check-values §2: NH4+ −0.0305 /K)', () => {
+    const s = ACID_SYSTEMS.ammonium;
+    const d = (pKaAtTemperature(9.245, 51.95, 8, 298.16) - pKaAtTemperature(9.245, 51.95, 8, 298.14)) / 0.02;
+    expect(d).toBeCloseTo(-0.0305, 3);
+    expect(s.pKa25[0]).toBe(9.245);
+  });
+});
+
+describe('speciation invariants', () => {
+  const phosphate = (a: number, b: number) => [
+    { reagent: 'potassium-dihydrogen-phosphate', concentration_mol_L: a },
+    { reagent: 'disodium-hydrogen-phosphate', concentration_mol_L: b },
+  ];
+
+  it('species satisfy mass balance and charge balance', () => {
+    fc.assert(
+      fc.property(fc.double({ min: 1e-4, max: 0.05, noNaN: true }), fc.double({ min: 1e-4, max: 0.05, noNaN: true }), (a, b) => {
+        const r = solutionPH({ components: phosphate(a, b) });
+        const P = r.species.filter((s) => /PO4/.test(s.species)).reduce((x, s) => x + s.concentration_mol_L, 0);
+        expect(P).toBeCloseTo(a + b, 12);
+        const charge = r.species.reduce((x, s) => x + s.charge * s.concentration_mol_L, 0);
+        expect(Math.abs(charge)).toBeLessThan(1e-12);
+        const I = 0.5 * r.species.reduce((x, s) => x + s.charge * s.charge * s.concentration_mol_L, 0);
+        expect(r.ionicStrength_mol_L).toBeCloseTo(I, 10);
+      }),
+      { numRuns: 200 },
+    );
+  });
+
+  it('pH rises monotonically with the amount of base added to an acid', () => {
+    fc.assert(
+      fc.property(
+        fc.constantFrom('formic-acid', 'acetic-acid', 'phosphoric-acid', 'citric-acid', 'tris-hydrochloride'),
+        fc.double({ min: 1e-3, max: 0.1, noNaN: true }),
+        fc.array(fc.double({ min: 0, max: 0.3, noNaN: true }), { minLength: 2, maxLength: 8 }),
+        (acid, c, bases) => {
+          const sorted = [...bases].sort((x, y) => x - y);
+          let last = -Infinity;
+          for (const nb of sorted) {
+            const pH = solutionPH({ components: [{ reagent: acid, concentration_mol_L: c }, { reagent: 'sodium-hydroxide', concentration_mol_L: nb }] }).pH;
+            expect(pH).toBeGreaterThanOrEqual(last - 1e-9);
+            last = pH;
+          }
+        },
+      ),
+      { numRuns: 100 },
+    );
+  });
+
+  it('buffer capacity equals the slope dC_base/dpH (numerical derivative)', () => {
+    // Dilute (I ≈ 1 mM), so that the change of γ with the added base, which the analytic
+    // van Slyke value leaves out, stays below 1 %.
+    const base = (nb: number) => solutionPH({ components: [{ reagent: 'acetic-acid', concentration_mol_L: 0.002 }, { reagent: 'sodium-hydroxide', concentration_mol_L: nb }] });
+    const dn = 1e-7;
+    const r0 = base(0.001 - dn);
+    const r1 = base(0.001 + dn);
+    const numeric_mM = (2 * dn * 1000) / (r1.pH - r0.pH);
+    expect(Math.abs(base(0.001).bufferCapacity_mM_per_pH - numeric_mM) / numeric_mM).toBeLessThan(0.01);
+  });
+
+  it('a 25 mM phosphate buffer at its pKa2 has about the textbook capacity 2.303·C/4', () => {
+    // Van Slyke: β ≈ 2.303·C·α(1−α) = 14.4 mM/pH at α = 0.5 (textbook formula).
+    const r = solutionPH({ components: phosphate(0.0125, 0.0125) });
+    expect(r.bufferCapacity_mM_per_pH).toBeGreaterThan(13.5);
+    expect(r.bufferCapacity_mM_per_pH).toBeLessThan(15.5);
+  });
+});
+
+describe('input checks and warnings', () => {
+  it('rejects an unknown reagent, naming the field', () => {
+    expect(() => solutionPH({ components: [{ reagent: 'nope', concentration_mol_L: 0.01 }] })).toThrow(ChemInputError);
+    try {
+      solutionPH({ components: [{ reagent: 'nope', concentration_mol_L: 0.01 }] });
+    } catch (e) {
+      expect((e as ChemInputError).field).toBe('components[0].reagent');
+      expect((e as ChemInputError).code).toBe('unknown-reagent');
+    }
+  });
+
+  it.each([-0.1, Number.NaN, Number.POSITIVE_INFINITY])('rejects concentration %s', (c) => {
+    expect(() => solutionPH({ components: [{ reagent: 'formic-acid', concentration_mol_L: c }] })).toThrow(ChemInputError);
+  });
+
+  it('rejects an organic solvent as a solute', () => {
+    expect(() => solutionPH({ components: [{ reagent: 'acetonitrile', concentration_mol_L: 1 }] })).toThrow(/aqueous/);
+  });
+
+  it('warns above the ionic-strength range of the Davies equation', () => {
+    const r = solutionPH({ components: [{ reagent: 'disodium-hydrogen-phosphate', concentration_mol_L: 0.1 }] });
+    expect(r.ionicStrength_mol_L).toBeGreaterThan(0.2);
+    expect(r.warnings.map((w) => w.code)).toContain('ionic-strength-high');
+    expect(solutionPH({ components: [{ reagent: 'disodium-hydrogen-phosphate', concentration_mol_L: 0.01 }] }).warnings).toEqual([]);
+  });
+
+  it('warns outside 0–50 °C', () => {
+    const r = solutionPH({ components: [{ reagent: 'acetic-acid', concentration_mol_L: 0.01 }], temperature_C: 60 });
+    expect(r.warnings.map((w) => w.code)).toContain('temperature-out-of-range');
+  });
+});
