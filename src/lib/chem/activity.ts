@@ -40,7 +40,7 @@ export function debyeHuckelA_molar(temperature_C: number): number {
 /** The bracket of the Davies equation, √I/(1+√I) − 0.3·I. */
 export function daviesTerm(ionicStrength: number): number {
   const s = Math.sqrt(ionicStrength);
-  return s / (1 + s) - 0.2 * ionicStrength;
+  return s / (1 + s) - 0.3 * ionicStrength;
 }
 
 /** log10 γ for an ion of charge z by the Davies equation. */

@@ -11,10 +11,10 @@ describe('solventUse against integrals worked by hand', () => {
     ['isocratic', [pt(0, 1, 30), pt(10, 1, 30)], 10, 3],
     // Linear gradient 5→95 %B over 20 min at 0.4 mL/min: V_B = F·t·(φ1+φ2)/2 = 0.4·20·0.5 = 4 mL (check-values §7, D).
     ['gradient at constant flow', [pt(0, 0.4, 5), pt(20, 0.4, 95)], 8, 4],
-    // Flow 0.5→1.0 mL/min and B 10→90 % together over 10 min:
-    // ∫ (0.5 + 0.05 t)(0.1 + 0.08 t) dt from 0 to 10 = 0.5 + 2 + 2.5 + 13.333… … worked out:
-    // = [0.05 t + (0.04 + 0.005) t²/2 + 0.004 t³/3] from 0 to 10 = 0.5 + 2.25 + 1.3333 = 4.0833 mL
-    // (a trapezoid of the products would give 4.75 mL); total = 10·(0.5 + 1)/2 = 7.5 mL.
+    // Flow 0.5→1.0 mL/min and B 10→90 % together over 10 min (worked by hand):
+    // ∫₀¹⁰ (0.5 + 0.05 t)(0.1 + 0.08 t) dt = ∫₀¹⁰ (0.05 + 0.045 t + 0.004 t²) dt
+    //   = 0.5 + 2.25 + 1.3333 = 4.0833 mL of B
+    // (a trapezoid of the products would give 10·(0.05 + 0.9)/2 = 4.75 mL); total = 10·(0.5 + 1)/2 = 7.5 mL.
     ['flow and composition change together', [pt(0, 0.5, 10), pt(10, 1, 90)], 7.5, 4.083333333333333],
     // Gradient, hold, step back and re-equilibrate: 0–10 min 1 mL/min 10→50 %B (B 3 mL), 10–12 min hold 50 % (B 1 mL),
     // step to 10 % at 12 min, 12–17 min 10 % (B 0.5 mL): total 17 mL, B 4.5 mL.
