@@ -6,6 +6,8 @@ import tailwindcss from "@tailwindcss/vite";
 
 export default defineConfig({
   output: "server",
+  // Parallel test runs build into their own folders (scripts/test.mjs sets DECANT_OUT_DIR).
+  outDir: process.env.DECANT_OUT_DIR ?? "./dist",
   adapter: node({ mode: "standalone" }),
   integrations: [react()],
   server: { host: "127.0.0.1", port: 4321 },
@@ -13,7 +15,6 @@ export default defineConfig({
   // the Host header, because Astro's own check compares with a URL that is only right once
   // security.allowedDomains lists every host name the app is reached by.
   security: { checkOrigin: false },
-  telemetry: false,
   vite: {
     plugins: [tailwindcss()],
     ssr: {

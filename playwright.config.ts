@@ -7,7 +7,7 @@ export default defineConfig({
   workers: 1,
   retries: 0,
   timeout: 30_000,
-  outputDir: ".data/test/playwright-output",
+  outputDir: `${process.env.DECANT_TEST_DATA_DIR ?? ".data/test"}/playwright-output`,
   use: {
     baseURL: process.env.E2E_BASE_URL ?? "http://127.0.0.1:4331",
     viewport: { width: 1366, height: 900 },

@@ -43,7 +43,8 @@ for (const signal of ["SIGINT", "SIGTERM"]) {
 }
 
 const baseURL = `http://127.0.0.1:${APP_PORT}`;
-const testEnv = { ...process.env, ...env, E2E_BASE_URL: baseURL, CHROMIUM_PATH: chromium, HOST: "127.0.0.1", PORT: String(APP_PORT), NODE_ENV: "production" };
+const outDir = process.env.DECANT_OUT_DIR ?? "dist";
+const testEnv = { ...process.env, ...env, DECANT_OUT_DIR: outDir, E2E_BASE_URL: baseURL, CHROMIUM_PATH: chromium, HOST: "127.0.0.1", PORT: String(APP_PORT), NODE_ENV: "production" };
 
 function readJson(path) {
   try {
@@ -57,10 +58,20 @@ try {
   await migrate(env, { seed: true });
   await startFakes(group, env);
 
+  if (only.length === 0) {
+    log("Type-checking (astro check)…");
+    const code = await run(bin("astro"), ["check", "--minimumSeverity", "warning"], { env: testEnv, stdio: ["ignore", "ignore", "inherit"] });
+    summaries.push(`Type check: ${code === 0 ? "clean" : "errors (run npx astro check)"}`);
+    if (code !== 0) {
+      exitCode = 1;
+      totals.failed += 1;
+    }
+  }
+
   log("Building the app for the tests…");
   if ((await run(bin("astro"), ["build"], { env: testEnv, stdio: ["ignore", "ignore", "inherit"] })) !== 0) throw new Error("astro build failed");
   if (!(await portIsFree(APP_PORT))) throw new Error(`Port ${APP_PORT} for the test app is taken; set DECANT_TEST_APP_PORT to a free port.`);
-  group.spawn("test app server", process.execPath, ["dist/server/entry.mjs"], { env: testEnv, stdio: ["ignore", "ignore", "inherit"] });
+  group.spawn("test app server", process.execPath, [join(outDir, "server/entry.mjs")], { env: testEnv, stdio: ["ignore", "ignore", "inherit"] });
   await waitFor(() => portAnswers(APP_PORT), 30_000, 200);
 
   if (wants("unit") || wants("integration")) {

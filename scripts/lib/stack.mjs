@@ -1,13 +1,13 @@
 // Brings up what the app needs — private MariaDB, schema, fakes — for `npm start` and `npm test`.
 import { existsSync, mkdirSync, readdirSync } from "node:fs";
-import { join } from "node:path";
+import { join, resolve } from "node:path";
 import { startMariadb, ensureAppUser } from "./mariadb.mjs";
 import { ROOT, DATA_DIR, bin, fail, localEnv, portAnswers, portIsFree, run, waitFor } from "./util.mjs";
 
 /** Profiles keep the demo data and the test data in separate servers. */
 export const PROFILES = {
   dev: { dir: join(DATA_DIR, "dev"), dbPort: 3307, database: "decant", smtpPort: 2525, paymentsPort: 12111 },
-  test: { dir: join(DATA_DIR, "test"), dbPort: 3317, database: "decant_e2e", smtpPort: 2535, paymentsPort: 12121 },
+  test: { dir: process.env.DECANT_TEST_DATA_DIR ? resolve(process.env.DECANT_TEST_DATA_DIR) : join(DATA_DIR, "test"), dbPort: 3317, database: "decant_e2e", smtpPort: 2535, paymentsPort: 12121 },
 };
 
 const intFromEnv = (name, fallback) => {

@@ -1,18 +1,36 @@
-import { fileURLToPath } from "node:url";
 import type { QueryInterface, Sequelize } from "sequelize";
-import { SequelizeStorage, Umzug } from "umzug";
+import { SequelizeStorage, Umzug, type RunnableMigration } from "umzug";
+import * as coreTables from "./migrations/2026.12.01T00.00.00.create-core-tables";
+import * as ledgerAppendOnly from "./migrations/2026.12.01T00.01.00.ledger-append-only";
+import * as demoFacility from "./seeders/2026.12.01T00.00.00.demo-facility";
 
-const here = fileURLToPath(new URL(".", import.meta.url));
+interface MigrationModule {
+  up: RunnableMigration<QueryInterface>["up"];
+  down?: RunnableMigration<QueryInterface>["down"];
+}
 
-function umzugFor(sequelize: Sequelize, folder: "migrations" | "seeders") {
+// Listed by import rather than found by glob, so the same list runs under tsx, Vitest and the
+// app bundle. tests/unit/migrations.test.ts fails when a file in the folder is missing here.
+export const MIGRATIONS: Record<string, MigrationModule> = {
+  "2026.12.01T00.00.00.create-core-tables.ts": coreTables,
+  "2026.12.01T00.01.00.ledger-append-only.ts": ledgerAppendOnly,
+};
+
+export const SEEDERS: Record<string, MigrationModule> = {
+  "2026.12.01T00.00.00.demo-facility.ts": demoFacility,
+};
+
+function umzugFor(sequelize: Sequelize, modules: Record<string, MigrationModule>, tableName: string) {
   return new Umzug<QueryInterface>({
-    migrations: { glob: [`${folder}/*.ts`, { cwd: here }] },
+    migrations: Object.entries(modules)
+      .sort(([a], [b]) => a.localeCompare(b))
+      .map(([name, module]) => ({ name, up: module.up, down: module.down })),
     context: sequelize.getQueryInterface(),
-    // Seeders are tracked like migrations, so the demo data is loaded once and a restart keeps user changes.
-    storage: new SequelizeStorage({ sequelize, tableName: folder === "migrations" ? "schema_migrations" : "schema_seeders" }),
+    storage: new SequelizeStorage({ sequelize, tableName }),
     logger: undefined,
   });
 }
 
-export const migrator = (sequelize: Sequelize) => umzugFor(sequelize, "migrations");
-export const seeder = (sequelize: Sequelize) => umzugFor(sequelize, "seeders");
+export const migrator = (sequelize: Sequelize) => umzugFor(sequelize, MIGRATIONS, "schema_migrations");
+// Seeders are tracked like migrations, so the demo data is loaded once and a restart keeps user changes.
+export const seeder = (sequelize: Sequelize) => umzugFor(sequelize, SEEDERS, "schema_seeders");

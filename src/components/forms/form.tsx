@@ -5,7 +5,9 @@ import type { ZodType, ZodTypeDef } from "zod";
 
 /** react-hook-form bound to the same zod schema the API route parses with. */
 export function useZodForm<T extends FieldValues>(schema: ZodType<T, ZodTypeDef, unknown>, options: Omit<UseFormProps<T>, "resolver"> = {}) {
-  return useForm<T>({ ...options, resolver: zodResolver(schema) as never, mode: "onTouched" });
+  // The resolver's overloads want the schema's input type to be FieldValues; ours is `unknown`.
+  const resolver = zodResolver(schema as unknown as Parameters<typeof zodResolver>[0]);
+  return useForm<T>({ ...options, resolver: resolver as never, mode: "onTouched" });
 }
 
 interface FieldProps extends InputHTMLAttributes<HTMLInputElement> {
