@@ -60,7 +60,7 @@ try {
 
   if (only.length === 0) {
     log("Type-checking (astro check)…");
-    const code = await run(bin("astro"), ["check", "--minimumSeverity", "warning"], { env: testEnv, stdio: ["ignore", "ignore", "inherit"] });
+    const code = await run(bin("astro"), ["check", "--minimumSeverity", "warning"], { env: testEnv });
     summaries.push(`Type check: ${code === 0 ? "clean" : "errors (run npx astro check)"}`);
     if (code !== 0) {
       exitCode = 1;
