@@ -63,7 +63,8 @@ export async function migrate(env, { seed }) {
 /** Starts every fake under fakes/ that has a server.ts, each on loopback, and waits until it listens. */
 export async function startFakes(group, env) {
   const ports = { smtp: Number(env.SMTP_PORT), payments: Number(env.PAYMENTS_PORT) };
-  for (const name of readdirSync(join(ROOT, "fakes"))) {
+  const fakes = join(ROOT, "fakes");
+  for (const name of existsSync(fakes) ? readdirSync(fakes) : []) {
     const entry = join(ROOT, "fakes", name, "server.ts");
     if (!existsSync(entry)) continue;
     const port = ports[name];
