@@ -30,7 +30,7 @@ group.onCrash = () => shutdown(1);
 try {
   await migrate(env, { seed: true });
   await startFakes(group, env);
-  const appEnv = { ...process.env, ...env, HOST: host, PORT: String(port) };
+  const appEnv = { ...process.env, ...env, HOST: host, PORT: String(port), APP_ORIGIN: process.env.APP_ORIGIN ?? `http://${host}:${port}` };
   if (dev) {
     group.spawn("astro dev", bin("astro"), ["dev", "--host", host, "--port", String(port)], { env: appEnv });
   } else {

@@ -1,4 +1,5 @@
 // Brings up what the app needs — private MariaDB, schema, fakes — for `npm start` and `npm test`.
+import { randomBytes } from "node:crypto";
 import { existsSync, mkdirSync, readdirSync } from "node:fs";
 import { join, resolve } from "node:path";
 import { startMariadb, ensureAppUser } from "./mariadb.mjs";
@@ -34,7 +35,12 @@ export async function startDatabase(profileName) {
   const local = localEnv(join(profile.dir, "decant.env"), {
     DATABASE_HOST: "127.0.0.1",
     DATABASE_USER: "decant",
+    // Test keys for the payments fake; the same file points Decant at the real service instead.
+    PAYMENTS_SECRET_KEY: `sk_test_${randomBytes(18).toString("hex")}`,
+    PAYMENTS_WEBHOOK_SECRET: `whsec_${randomBytes(24).toString("hex")}`,
   });
+  // The fake posts its signed events to the app's webhook route.
+  const appPort = profileName === "dev" ? process.env.PORT || 4321 : process.env.DECANT_TEST_APP_PORT || 4331;
   const env = {
     DATABASE_HOST: "127.0.0.1",
     DATABASE_PORT: String(dbPort),
@@ -48,6 +54,11 @@ export async function startDatabase(profileName) {
     MAIL_FROM: "Decant <decant@facility.test>",
     PAYMENTS_HOST: "127.0.0.1",
     PAYMENTS_PORT: String(intFromEnv("DECANT_PAYMENTS_PORT", profile.paymentsPort)),
+    PAYMENTS_PROTOCOL: "http",
+    PAYMENTS_SECRET_KEY: local.PAYMENTS_SECRET_KEY,
+    PAYMENTS_WEBHOOK_SECRET: local.PAYMENTS_WEBHOOK_SECRET,
+    PAYMENTS_WEBHOOK_URL: `http://127.0.0.1:${appPort}/api/webhooks/payments`,
+    PAYMENTS_FAKE_STATE: join(profile.dir, "payments", "state.json"),
     UPLOAD_DIR: uploads,
   };
   ensureAppUser(server, { database: env.DATABASE_NAME, user: env.DATABASE_USER, password: env.DATABASE_PASSWORD });

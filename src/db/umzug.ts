@@ -2,7 +2,13 @@ import type { QueryInterface, Sequelize } from "sequelize";
 import { SequelizeStorage, Umzug, type RunnableMigration } from "umzug";
 import * as coreTables from "./migrations/2026.12.01T00.00.00.create-core-tables";
 import * as ledgerAppendOnly from "./migrations/2026.12.01T00.01.00.ledger-append-only";
+import * as preparation from "./migrations/2026.12.01T02.00.00.preparation";
+import * as ledgerDetails from "./migrations/2026.12.01T03.00.00.ledger-details";
+import * as billingDetails from "./migrations/2026.12.01T04.00.00.billing-details";
+import * as wasteRules from "./migrations/2026.12.01T05.00.00.waste-rules";
 import * as demoFacility from "./seeders/2026.12.01T00.00.00.demo-facility";
+import * as demoPreparation from "./seeders/2026.12.01T02.00.00.demo-preparation";
+import * as wasteDemo from "./seeders/2026.12.01T05.00.00.waste-demo";
 
 interface MigrationModule {
   up: RunnableMigration<QueryInterface>["up"];
@@ -14,10 +20,16 @@ interface MigrationModule {
 export const MIGRATIONS: Record<string, MigrationModule> = {
   "2026.12.01T00.00.00.create-core-tables.ts": coreTables,
   "2026.12.01T00.01.00.ledger-append-only.ts": ledgerAppendOnly,
+  "2026.12.01T02.00.00.preparation.ts": preparation,
+  "2026.12.01T03.00.00.ledger-details.ts": ledgerDetails,
+  "2026.12.01T04.00.00.billing-details.ts": billingDetails,
+  "2026.12.01T05.00.00.waste-rules.ts": wasteRules,
 };
 
 export const SEEDERS: Record<string, MigrationModule> = {
   "2026.12.01T00.00.00.demo-facility.ts": demoFacility,
+  "2026.12.01T02.00.00.demo-preparation.ts": demoPreparation,
+  "2026.12.01T05.00.00.waste-demo.ts": wasteDemo,
 };
 
 function umzugFor(sequelize: Sequelize, modules: Record<string, MigrationModule>, tableName: string) {

@@ -11,6 +11,10 @@ export const PERMISSIONS = [
   "read:stock-lot", "create:stock-lot",
   "read:run", "create:run", "create:draw", "create:import",
   "read:instrument", "manage:instrument",
+  /** Gradient programs of methods (reading them comes with read:instrument). */
+  "manage:method",
+  /** Reversing ledger entries with a reason. */
+  "create:correction",
   "read:usage", "read:usage:own",
   "read:project", "read:project:own", "manage:project",
   "read:client", "manage:client",
@@ -20,6 +24,8 @@ export const PERMISSIONS = [
   "read:waste", "manage:waste",
   "read:user", "manage:user",
   "manage:settings",
+  /** Expiry rules, deviation tolerances and label stocks (preparation settings). */
+  "manage:preparation-settings",
   "read:audit",
   "read:dev-inbox",
   "read:own-account",
@@ -31,12 +37,13 @@ const TECHNICIAN: Permission[] = [
   "read:dashboard", "read:recipe", "create:recipe", "read:batch", "create:batch", "update:batch",
   "read:stock-lot", "create:stock-lot", "read:run", "create:run", "create:draw", "create:import",
   "read:instrument", "read:project", "read:waste", "read:own-account", "update:own-account",
+  "manage:method", "create:correction",
 ];
 
 const MANAGER: Permission[] = [
   ...TECHNICIAN, "approve:recipe", "manage:instrument", "read:usage", "manage:project", "read:client",
   "manage:client", "read:statement", "manage:statement", "read:invoice", "manage:invoice", "manage:rate",
-  "read:user", "manage:user", "read:audit",
+  "read:user", "manage:user", "read:audit", "manage:preparation-settings",
 ];
 
 export const ROLE_PERMISSIONS: Record<Role, readonly Permission[]> = {
@@ -44,7 +51,7 @@ export const ROLE_PERMISSIONS: Record<Role, readonly Permission[]> = {
   manager: MANAGER,
   safety: ["read:dashboard", "read:waste", "manage:waste", "read:instrument", "read:batch", "read:stock-lot", "read:run", "read:project", "read:own-account", "update:own-account"],
   client: ["read:dashboard", "read:project:own", "read:usage:own", "read:statement:own", "read:invoice:own", "pay:invoice:own", "read:own-account", "update:own-account"],
-  admin: [...new Set<Permission>([...MANAGER, "manage:settings", "read:dev-inbox"])],
+  admin: [...new Set<Permission>([...MANAGER, "manage:settings", "manage:waste", "read:dev-inbox"])],
 };
 
 export function can(role: Role, permission: Permission): boolean {

@@ -2,7 +2,8 @@ import { useState } from "react";
 import { signInSchema, type SignInInput } from "../../lib/schemas/auth";
 import { Field, postJson, useZodForm } from "../forms/form";
 
-export default function SignInForm({ next }: { next: string }) {
+export default function SignInForm({ next, email = "" }: { next: string; email?: string }) {
+  // No defaultValues: react-hook-form would then overwrite what was typed before hydration.
   const { register, handleSubmit, formState } = useZodForm<SignInInput>(signInSchema);
   const [problem, setProblem] = useState<string | null>(null);
 
@@ -17,8 +18,8 @@ export default function SignInForm({ next }: { next: string }) {
   });
 
   return (
-    <form onSubmit={onSubmit} noValidate className="flex flex-col gap-4" aria-label="Sign in">
-      <Field label="E-mail address" type="email" autoComplete="username" registration={register("email")} error={formState.errors.email?.message} />
+    <form method="post" onSubmit={onSubmit} noValidate className="flex flex-col gap-4" aria-label="Sign in">
+      <Field label="E-mail address" type="email" autoComplete="username" defaultValue={email || undefined} registration={register("email")} error={formState.errors.email?.message} />
       <Field label="Password" type="password" autoComplete="current-password" registration={register("password")} error={formState.errors.password?.message} />
       {problem && (
         <p className="notice notice-danger" role="alert">

@@ -1,5 +1,5 @@
 import { zodResolver } from "@hookform/resolvers/zod";
-import { useId, type InputHTMLAttributes, type ReactNode } from "react";
+import { useId, type InputHTMLAttributes, type ReactNode, type SelectHTMLAttributes } from "react";
 import { useForm, type FieldValues, type UseFormProps, type UseFormRegisterReturn } from "react-hook-form";
 import type { ZodType, ZodTypeDef } from "zod";
 
@@ -25,6 +25,38 @@ export function Field({ label, registration, error, hint, ...input }: FieldProps
       <label htmlFor={id}>{label}</label>
       <input id={id} className="input" aria-invalid={error ? true : undefined} aria-describedby={error ? `${id}-error` : undefined} {...input} {...registration} />
       {hint && !error && <p className="text-xs text-[var(--color-muted)]">{hint}</p>}
+      {error && (
+        <p id={`${id}-error`} className="field-error" role="alert">
+          {error}
+        </p>
+      )}
+    </div>
+  );
+}
+
+interface SelectFieldProps extends SelectHTMLAttributes<HTMLSelectElement> {
+  label: string;
+  registration: UseFormRegisterReturn;
+  options: { value: string | number; label: string }[];
+  error?: string | undefined;
+  /** A first, empty choice such as "Choose…". */
+  placeholder?: string;
+}
+
+/** A labelled select with its error announced to assistive technology. */
+export function SelectField({ label, registration, options, error, placeholder, ...select }: SelectFieldProps) {
+  const id = useId();
+  return (
+    <div className="field">
+      <label htmlFor={id}>{label}</label>
+      <select id={id} className="input" aria-invalid={error ? true : undefined} aria-describedby={error ? `${id}-error` : undefined} {...select} {...registration}>
+        {placeholder !== undefined && <option value="">{placeholder}</option>}
+        {options.map((o) => (
+          <option key={o.value} value={o.value}>
+            {o.label}
+          </option>
+        ))}
+      </select>
       {error && (
         <p id={`${id}-error`} className="field-error" role="alert">
           {error}

@@ -25,35 +25,66 @@ export const newPassword = z
 
 export const changePasswordSchema = z
   .object({
-    currentPassword: z.string().min(1, "Enter your current password").max(200),
+    /** The password in use now; a stolen session alone cannot change it. */
+    currentPassword: z.string({ required_error: "Enter your current password" }).min(1, "Enter your current password").max(200),
     newPassword,
-    confirmPassword: z.string().max(200),
+    /** The new password again, to catch a typing slip. */
+    confirmPassword: z.string({ required_error: "Repeat the new password" }).max(200),
   })
   .refine((v) => v.newPassword === v.confirmPassword, { path: ["confirmPassword"], message: "The two passwords differ" });
+export type ChangePasswordInput = z.infer<typeof changePasswordSchema>;
 
+/** `POST /api/auth/set-password`: from an invitation or reset link. */
 export const setPasswordSchema = z
   .object({
     /** The token from the invitation or reset link. */
-    token: z.string().min(20, "The link is incomplete").max(200),
+    token: z.string({ required_error: "The link is incomplete" }).min(20, "The link is incomplete").max(200, "The link is not right"),
     newPassword,
-    confirmPassword: z.string().max(200),
+    confirmPassword: z.string({ required_error: "Repeat the new password" }).max(200),
   })
   .refine((v) => v.newPassword === v.confirmPassword, { path: ["confirmPassword"], message: "The two passwords differ" });
+export type SetPasswordInput = z.infer<typeof setPasswordSchema>;
 
+/** `POST /api/auth/forgot-password`. */
 export const forgotPasswordSchema = z.object({ email });
+export type ForgotPasswordInput = z.infer<typeof forgotPasswordSchema>;
 
+/** A form's empty choice ("" or null) means "none". */
+const optionalId = z.preprocess(
+  (v) => (v === "" || v === null ? undefined : v),
+  z.coerce.number({ invalid_type_error: "must be a number" }).int("must be a whole number").positive("must be a positive id").optional(),
+);
+
+const role = z.enum(ROLES, { errorMap: () => ({ message: `Choose one of ${ROLES.join(", ")}` }) });
+
+/** `POST /api/users`: invite a person by e-mail. */
 export const inviteUserSchema = z
   .object({
     email,
-    name: z.string().trim().min(1, "Enter a name").max(120, "is too long"),
-    role: z.enum(ROLES, { errorMap: () => ({ message: `Choose one of ${ROLES.join(", ")}` }) }),
-    /** Required for client contacts: the organisation they belong to. */
-    clientId: z.coerce.number().int().positive().optional(),
+    /** Shown in the app and in the invitation. */
+    name: z.string({ required_error: "Enter a name" }).trim().min(1, "Enter a name").max(120, "is too long"),
+    role,
+    /** Required for client contacts (and ignored for other roles): the organisation they belong to. */
+    clientId: optionalId,
   })
   .refine((v) => v.role !== "client" || v.clientId !== undefined, { path: ["clientId"], message: "A client contact needs a client organisation" });
+export type InviteUserInput = z.infer<typeof inviteUserSchema>;
 
-export const updateUserSchema = z.object({
-  role: z.enum(ROLES).optional(),
-  clientId: z.coerce.number().int().positive().nullable().optional(),
-  active: z.boolean().optional(),
-});
+/** `PATCH /api/users/{id}`: change role (and organisation), or deactivate / reactivate. */
+export const updateUserSchema = z
+  .object({
+    role: role.optional(),
+    /** The organisation of a client contact; required when the role becomes `client`. */
+    clientId: z.preprocess((v) => (v === "" ? null : v), z.coerce.number().int().positive("must be a positive id").nullable().optional()),
+    /** false deactivates the account and ends its sessions at once; true reactivates it. */
+    active: z.boolean({ invalid_type_error: "must be true or false" }).optional(),
+  })
+  .strict()
+  .refine((v) => v.role !== undefined || v.clientId !== undefined || v.active !== undefined, { path: ["body"], message: "Say what to change: role, clientId or active" });
+export type UpdateUserInput = z.infer<typeof updateUserSchema>;
+
+/** A numeric id in a route such as `/api/users/{id}`. */
+export const idParam = z.coerce.number({ invalid_type_error: "must be a number" }).int("must be a whole number").positive("must be a positive id");
+
+/** Route parameters of `/api/users/{id}` and the like. */
+export const idParams = z.object({ id: idParam });

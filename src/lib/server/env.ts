@@ -33,6 +33,12 @@ export const envSchema = z.object({
   PAYMENTS_HOST: z.string().min(1).default("127.0.0.1"),
   PAYMENTS_PORT: port("PAYMENTS_PORT").default(12111),
   PAYMENTS_PROTOCOL: z.enum(["http", "https"]).default("http"),
+  /** Secret API key (a test key for the fake); invoicing is unavailable without it. */
+  PAYMENTS_SECRET_KEY: z.string().regex(/^(sk|rk)_\w+$/, "PAYMENTS_SECRET_KEY must look like sk_test_… or sk_live_…").optional(),
+  /** Signing secret of the webhook endpoint (whsec_…); webhooks are refused without it. */
+  PAYMENTS_WEBHOOK_SECRET: z.string().regex(/^whsec_\w+$/, "PAYMENTS_WEBHOOK_SECRET must look like whsec_…").optional(),
+  /** Where the payments fake delivers events (the app's /api/webhooks/payments); read by the fake only. */
+  PAYMENTS_WEBHOOK_URL: z.string().url("PAYMENTS_WEBHOOK_URL must be a URL").optional(),
   /** Where uploaded files (certificates of analysis, imports) are stored. */
   UPLOAD_DIR: z.string().min(1).default(".data/uploads"),
 });

@@ -1,5 +1,6 @@
 import { QueryTypes } from "sequelize";
 import { getSequelize } from "../db";
+import { listContainers } from "./waste";
 
 const DAY = 86_400_000;
 
@@ -35,49 +36,29 @@ export interface ContainerFill {
   capacity_mL: number;
   estimated_mL: number;
   fillPercent: number;
+  /** At or above the site's fill threshold (or over capacity). */
+  nearFull: boolean;
   status: string;
   accumulationStartedAt: string | null;
 }
 
-/** Live waste containers (not yet collected), fullest first. */
+/** Live waste containers (not yet collected), fullest first; the estimates come from the waste service. */
 export async function liveContainers(): Promise<ContainerFill[]> {
-  const rows = await getSequelize().query<{ code: string; stream: string; room: string; location_note: string | null; capacity_ml: number; estimated_volume_ml: string; status: string; accumulation_started_at: Date | null }>(
-    `SELECT c.code, s.name AS stream, c.room, c.location_note, c.capacity_ml, c.estimated_volume_ml, c.status, c.accumulation_started_at
-       FROM waste_containers c JOIN waste_streams s ON s.id = c.stream_id
-      WHERE c.status <> 'collected'`,
-    { type: QueryTypes.SELECT },
-  );
-  return rows
-    .map((r) => {
-      const estimated = Number(r.estimated_volume_ml);
-      return {
-        code: r.code,
-        stream: r.stream,
-        room: r.room,
-        where: r.location_note,
-        capacity_mL: r.capacity_ml,
-        estimated_mL: estimated,
-        fillPercent: r.capacity_ml ? Math.round((estimated / r.capacity_ml) * 100) : 0,
-        status: r.status,
-        accumulationStartedAt: r.accumulation_started_at ? new Date(r.accumulation_started_at).toISOString() : null,
-      };
-    })
+  return (await listContainers())
+    .map((c) => ({
+      code: c.code,
+      stream: c.stream,
+      room: c.room,
+      where: c.locationNote,
+      capacity_mL: c.capacity_mL,
+      estimated_mL: c.estimated_mL,
+      fillPercent: c.fill.percent,
+      nearFull: c.fill.state !== "ok",
+      status: c.status,
+      accumulationStartedAt: c.accumulationStartedAt,
+    }))
     .sort((a, b) => b.fillPercent - a.fillPercent);
 }
 
-export interface FlammablesInRoom {
-  room: string;
-  onHand_L: number;
-}
-
-/** Flammable liquids on hand per room, from the remaining quantity of unexpired stock lots. */
-export async function flammablesByRoom(): Promise<FlammablesInRoom[]> {
-  const rows = await getSequelize().query<{ room: string; remaining: string }>(
-    `SELECT COALESCE(l.room, 'unassigned') AS room, SUM(l.remaining) AS remaining
-       FROM stock_lots l JOIN reagents r ON r.id = l.reagent_id
-      WHERE r.flammable = 1 AND r.unit = 'mL'
-      GROUP BY COALESCE(l.room, 'unassigned') ORDER BY room`,
-    { type: QueryTypes.SELECT },
-  );
-  return rows.map((r) => ({ room: r.room, onHand_L: Number(r.remaining) / 1000 }));
-}
+/** Flammable liquids on hand per room (stock lots and waste) against the room limit. */
+export { flammablesByRoom, type FlammablesInRoom } from "./waste";

@@ -1,0 +1,36 @@
+import { useState } from "react";
+import { setPasswordSchema, type SetPasswordInput } from "../../lib/schemas/auth";
+import { Field, postJson, useZodForm } from "../forms/form";
+
+export default function SetPasswordForm({ token, email }: { token: string; email: string }) {
+  const { register, handleSubmit, formState } = useZodForm<SetPasswordInput>(setPasswordSchema, { defaultValues: { token } });
+  const [problem, setProblem] = useState<string | null>(null);
+
+  const onSubmit = handleSubmit(async (values) => {
+    setProblem(null);
+    try {
+      await postJson("/api/auth/set-password", values);
+      window.location.assign(`/sign-in?password-set=1&email=${encodeURIComponent(email)}`);
+    } catch (error) {
+      setProblem(error instanceof Error ? error.message.replace(/^token: /, "") : String(error));
+    }
+  });
+
+  return (
+    <form method="post" onSubmit={onSubmit} noValidate className="flex flex-col gap-4" aria-label="Choose a password">
+      <input type="hidden" {...register("token")} />
+      {/* Lets password managers file the new password under the right account. */}
+      <input type="email" name="username" autoComplete="username" value={email} readOnly hidden />
+      <Field label="New password" type="password" autoComplete="new-password" registration={register("newPassword")} error={formState.errors.newPassword?.message} hint="At least 12 characters; a few unrelated words make a good one." />
+      <Field label="Repeat the new password" type="password" autoComplete="new-password" registration={register("confirmPassword")} error={formState.errors.confirmPassword?.message} />
+      {(problem || formState.errors.token) && (
+        <p className="notice notice-danger" role="alert">
+          {problem ?? formState.errors.token?.message}
+        </p>
+      )}
+      <button className="btn justify-center" type="submit" disabled={formState.isSubmitting}>
+        {formState.isSubmitting ? "Saving…" : "Set password"}
+      </button>
+    </form>
+  );
+}

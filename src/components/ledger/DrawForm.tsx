@@ -1,0 +1,66 @@
+import { useEffect, useState } from "react";
+import { formatVolume } from "../../lib/format";
+import { DRAW_PURPOSES, drawSchema, type DrawInput } from "../../lib/schemas/runs";
+import { Field, postJson, useZodForm } from "../forms/form";
+import { newKey } from "./keys";
+
+interface Props {
+  batches: { id: number; code: string; name: string; remaining_mL: number }[];
+  projects: { id: number; code: string; name: string }[];
+  containers: { id: number; code: string; stream: string; room: string }[];
+}
+
+const PURPOSE_LABELS: Record<(typeof DRAW_PURPOSES)[number], string> = { wash: "Wash or flush", spill: "Spill", transfer: "Transfer to another vessel", other: "Something else" };
+
+/** A manual withdrawal from a batch, with its reason. */
+export default function DrawForm({ batches: initial, projects, containers }: Props) {
+  const { register, handleSubmit, formState, setValue, reset } = useZodForm<DrawInput>(drawSchema);
+  const [batches, setBatches] = useState(initial);
+  const [done, setDone] = useState<string | null>(null);
+  const [problem, setProblem] = useState<string | null>(null);
+  useEffect(() => setValue("idempotencyKey", newKey("draw")), [setValue]);
+
+  const onSubmit = handleSubmit(async (values) => {
+    setProblem(null);
+    setDone(null);
+    try {
+      const r = await postJson<{ batchCode: string; volume_mL: number; remaining_mL: number; replayed: boolean }>("/api/draws", values);
+      setBatches((bs) => bs.map((b) => (b.code === r.batchCode ? { ...b, remaining_mL: r.remaining_mL } : b)));
+      setDone(`${formatVolume(r.volume_mL)} drawn from ${r.batchCode}; ${formatVolume(r.remaining_mL)} left.`);
+      reset({ ...values, volume_mL: undefined as unknown as number, note: "", idempotencyKey: newKey("draw") });
+    } catch (error) {
+      setProblem(error instanceof Error ? error.message : String(error));
+    }
+  });
+  const e = formState.errors;
+  const select = (name: "batchId" | "projectId" | "wasteContainerId" | "purpose", label: string, options: { value: string | number; label: string }[], placeholder: string, error?: string) => (
+    <div className="field">
+      <label htmlFor={`draw-${name}`}>{label}</label>
+      <select id={`draw-${name}`} className="input" aria-invalid={error ? true : undefined} {...register(name)}>
+        <option value="">{placeholder}</option>
+        {options.map((o) => <option key={o.value} value={o.value}>{o.label}</option>)}
+      </select>
+      {error && <p className="field-error" role="alert">{error}</p>}
+    </div>
+  );
+  return (
+    <form method="post" onSubmit={onSubmit} noValidate className="card flex max-w-2xl flex-col gap-4 p-5" aria-label="Log a draw">
+      <input type="hidden" {...register("idempotencyKey")} />
+      {select("batchId", "Batch", batches.map((b) => ({ value: b.id, label: `${b.code} · ${b.name} · ${formatVolume(b.remaining_mL)} left` })), "Choose…", e.batchId?.message)}
+      <div className="grid gap-4 md:grid-cols-2">
+        <Field label="Volume, mL" inputMode="decimal" registration={register("volume_mL")} error={e.volume_mL?.message} />
+        {select("purpose", "What for", DRAW_PURPOSES.map((p) => ({ value: p, label: PURPOSE_LABELS[p] })), "Choose…", e.purpose?.message)}
+      </div>
+      <Field label="Note" registration={register("note")} error={e.note?.message} hint="Kept with the ledger entry, e.g. which column was flushed." />
+      <div className="grid gap-4 md:grid-cols-2">
+        {select("projectId", "Charged to project", projects.map((p) => ({ value: p.id, label: `${p.code} · ${p.name}` })), "No project (facility)", e.projectId?.message)}
+        {select("wasteContainerId", "Went to waste container", containers.map((c) => ({ value: c.id, label: `${c.code} · ${c.stream} · ${c.room}` })), "None (e.g. absorbed spill)", e.wasteContainerId?.message)}
+      </div>
+      {problem && <p className="notice notice-danger" role="alert">{problem}</p>}
+      {done && <p className="notice" role="status">{done}</p>}
+      <div>
+        <button className="btn" type="submit" disabled={formState.isSubmitting}>{formState.isSubmitting ? "Recording…" : "Record the draw"}</button>
+      </div>
+    </form>
+  );
+}

@@ -1,0 +1,48 @@
+import { useState } from "react";
+import { postJson } from "../forms/form";
+
+/** Requests a pickup for one or more containers, after a confirmation step with an optional note. */
+export default function PickupButton({ containerIds, codes, label = "Request pickup" }: { containerIds: number[]; codes: string[]; label?: string }) {
+  const [open, setOpen] = useState(false);
+  const [note, setNote] = useState("");
+  const [busy, setBusy] = useState(false);
+  const [problem, setProblem] = useState<string | null>(null);
+  const [done, setDone] = useState<string | null>(null);
+
+  if (done) return <p className="text-sm text-[var(--color-ok)]" role="status">{done}</p>;
+  if (!open) {
+    return (
+      <button type="button" className="btn btn-quiet text-sm" onClick={() => setOpen(true)}>
+        {label}
+      </button>
+    );
+  }
+  const submit = async () => {
+    setBusy(true);
+    setProblem(null);
+    try {
+      const { pickup } = await postJson<{ pickup: { reference: string } }>("/api/waste/pickups", { containerIds, note: note.trim() || null });
+      setDone(`Pickup ${pickup.reference} requested for ${codes.join(", ")}.`);
+      window.setTimeout(() => window.location.reload(), 1200);
+    } catch (error) {
+      setProblem(error instanceof Error ? error.message : String(error));
+    } finally {
+      setBusy(false);
+    }
+  };
+  return (
+    <div className="flex flex-col gap-2" role="group" aria-label={`Request a pickup for ${codes.join(", ")}`}>
+      <div className="field">
+        <label htmlFor={`pickup-note-${containerIds.join("-")}`}>Note for the collector (optional)</label>
+        <input id={`pickup-note-${containerIds.join("-")}`} className="input text-sm" value={note} maxLength={255} onChange={(e) => setNote(e.target.value)} />
+      </div>
+      {problem && <p className="field-error" role="alert">{problem}</p>}
+      <div className="flex gap-2">
+        <button type="button" className="btn text-sm" disabled={busy} onClick={submit}>
+          {busy ? "Requesting…" : `Confirm pickup of ${codes.join(", ")}`}
+        </button>
+        <button type="button" className="btn btn-quiet text-sm" onClick={() => setOpen(false)}>Cancel</button>
+      </div>
+    </div>
+  );
+}

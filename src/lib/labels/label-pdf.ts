@@ -1,0 +1,118 @@
+/**
+ * Bottle labels as PDF: pdf-lib with the app's own font embedded (subset), the batch code as a
+ * Code 128 barcode drawn as vector bars, GHS pictograms drawn as vectors.
+ */
+import fontkit from "@pdf-lib/fontkit";
+import { PDFDocument, rgb, type PDFFont, type PDFPage } from "pdf-lib";
+import type { LabelStock } from "../schemas/labels";
+import { labelFonts } from "./fonts";
+import { DIAMOND, PICTOGRAM_SHAPES, SYMBOL_SCALE } from "./ghs-pictograms";
+import { layoutLabel, type LabelContent, type LabelLayout, type Measurer } from "./layout";
+import { MM_TO_PT, pageGeometry, labelsPerPage } from "./stocks";
+
+const INK = rgb(0.07, 0.09, 0.12);
+const GHS_RED = rgb(0.88, 0, 0);
+const WHITE = rgb(1, 1, 1);
+const BLACK = rgb(0, 0, 0);
+
+export interface LabelFonts {
+  regular: PDFFont;
+  bold: PDFFont;
+}
+
+/** Replaces characters the embedded subset lacks, so that nothing prints as an empty box. */
+export function sanitizer(font: PDFFont) {
+  const known = new Set(font.getCharacterSet());
+  return (text: string) =>
+    Array.from(text.normalize("NFC"))
+      .map((ch) => (known.has(ch.codePointAt(0)!) ? ch : ch === "≥" ? ">=" : ch === "≤" ? "<=" : "?"))
+      .join("");
+}
+
+export function measurerFor(fonts: LabelFonts): Measurer {
+  const clean = sanitizer(fonts.regular);
+  // Advance widths scale linearly with size, so each string is measured once (fontkit layout is slow).
+  const cache = new Map<string, number>();
+  return {
+    width(text, size, bold) {
+      const key = `${bold ? 1 : 0}${text}`;
+      let unit = cache.get(key);
+      if (unit === undefined) {
+        unit = (bold ? fonts.bold : fonts.regular).widthOfTextAtSize(clean(text), 1000) / 1000;
+        cache.set(key, unit);
+      }
+      return unit * size;
+    },
+  };
+}
+
+export async function embedLabelFonts(doc: PDFDocument): Promise<LabelFonts> {
+  doc.registerFontkit(fontkit);
+  const bytes = labelFonts();
+  return { regular: await doc.embedFont(bytes.regular, { subset: true }), bold: await doc.embedFont(bytes.bold, { subset: true }) };
+}
+
+function drawLayout(page: PDFPage, layout: LabelLayout, ox: number, oy: number, fonts: LabelFonts, outline: boolean) {
+  const clean = sanitizer(fonts.regular);
+  if (outline) page.drawRectangle({ x: ox + 0.25, y: oy + 0.25, width: layout.width - 0.5, height: layout.height - 0.5, borderColor: rgb(0.75, 0.75, 0.75), borderWidth: 0.5 });
+  const b = layout.barcode;
+  for (const bar of b.bars) page.drawRectangle({ x: ox + bar.x, y: oy + b.y, width: bar.width, height: b.height, color: BLACK });
+  for (const t of layout.texts) page.drawText(clean(t.text), { x: ox + t.x, y: oy + t.y, size: t.size, font: t.bold ? fonts.bold : fonts.regular, color: INK });
+  for (const p of layout.pictograms) {
+    const scale = p.half / 50;
+    page.drawSvgPath(DIAMOND, { x: ox + p.cx, y: oy + p.cy, scale, color: WHITE, borderColor: GHS_RED, borderWidth: Math.max(0.8, p.half * 0.1) });
+    for (const shape of PICTOGRAM_SHAPES[p.code]) {
+      page.drawSvgPath(shape.d, { x: ox + p.cx, y: oy + p.cy, scale: scale * SYMBOL_SCALE, color: shape.fill === "black" ? BLACK : WHITE });
+    }
+  }
+}
+
+export interface RenderLabelsInput {
+  content: LabelContent;
+  stock: LabelStock;
+  copies: number;
+  /** Print only this bottle, `copies` times; otherwise copies run 1…bottles and round again. */
+  bottle?: number | undefined;
+  /** Document title and metadata. */
+  title?: string;
+}
+
+export interface RenderedLabels {
+  bytes: Uint8Array;
+  pages: number;
+  labels: { bottle: number; page: number; layout: LabelLayout }[];
+}
+
+export async function renderLabels(input: RenderLabelsInput): Promise<RenderedLabels> {
+  const { content, stock, copies } = input;
+  const doc = await PDFDocument.create();
+  doc.setTitle(input.title ?? `Labels ${content.code}`);
+  doc.setSubject(`${copies} label(s) for batch ${content.code} on ${stock.name}`);
+  doc.setCreator("Decant");
+  doc.setProducer("Decant (pdf-lib)");
+  const fonts = await embedLabelFonts(doc);
+  const measure = measurerFor(fonts);
+  const geometry = pageGeometry(stock);
+  const perPage = labelsPerPage(stock);
+  const size = { width: stock.width_mm * MM_TO_PT, height: stock.height_mm * MM_TO_PT };
+  const labels: RenderedLabels["labels"] = [];
+  let page: PDFPage | null = null;
+  for (let i = 0; i < copies; i++) {
+    const slot = i % perPage;
+    if (slot === 0) page = doc.addPage([geometry.width, geometry.height]);
+    const bottle = input.bottle ?? (i % Math.max(1, content.bottles)) + 1;
+    const layout = layoutLabel(content, bottle, size, measure);
+    const at = geometry.slots[slot]!;
+    drawLayout(page!, layout, at.x, at.y, fonts, stock.kind === "sheet");
+    labels.push({ bottle, page: doc.getPageCount(), layout });
+  }
+  const bytes = await doc.save();
+  return { bytes, pages: doc.getPageCount(), labels };
+}
+
+/** Layout only, with the embedded font's metrics: what the tests and the print preview check. */
+export async function measureLabel(content: LabelContent, stock: LabelStock, bottle = 1): Promise<LabelLayout> {
+  const doc = await PDFDocument.create();
+  const fonts = await embedLabelFonts(doc);
+  return layoutLabel(content, bottle, { width: stock.width_mm * MM_TO_PT, height: stock.height_mm * MM_TO_PT }, measurerFor(fonts));
+}

@@ -1,0 +1,55 @@
+import { z } from "zod";
+
+/** A database id from a form or a query string; "" and null mean "none". */
+export const id = (label = "Choose one") =>
+  z.preprocess((v) => (v === "" || v === null ? undefined : v), z.coerce.number({ required_error: label, invalid_type_error: label }).int(label).positive(label));
+
+export const optionalId = () => z.preprocess((v) => (v === "" || v === null ? undefined : v), z.coerce.number().int().positive().optional());
+
+/** A number typed into a field (forms send text). */
+export const amount = (options: { min?: number; max?: number; label?: string } = {}) =>
+  z.preprocess(
+    (v) => (typeof v === "string" && v.trim() !== "" ? Number(v.replace(",", ".")) : v),
+    z
+      .number({ required_error: options.label ?? "Enter a number", invalid_type_error: options.label ?? "Enter a number" })
+      .finite("Enter a number")
+      .min(options.min ?? 0, `must be at least ${options.min ?? 0}`)
+      .max(options.max ?? Number.MAX_SAFE_INTEGER, `must be at most ${options.max ?? Number.MAX_SAFE_INTEGER}`),
+  );
+
+export const wholeNumber = (options: { min?: number; max?: number } = {}) =>
+  z.preprocess(
+    (v) => (typeof v === "string" && v.trim() !== "" ? Number(v) : v),
+    z
+      .number({ required_error: "Enter a whole number", invalid_type_error: "Enter a whole number" })
+      .int("Enter a whole number")
+      .min(options.min ?? 0, `must be at least ${options.min ?? 0}`)
+      .max(options.max ?? 1_000_000, `must be at most ${options.max ?? 1_000_000}`),
+  );
+
+/** A moment, ISO 8601 (a value without a zone is read as UTC). */
+export const instant = (label = "Enter a date and time") =>
+  z.preprocess(
+    (v) => {
+      if (v instanceof Date) return v;
+      if (typeof v !== "string" || v.trim() === "") return undefined;
+      const text = v.trim();
+      const withZone = /(?:Z|[+-]\d{2}:?\d{2})$/i.test(text) || !/T|\s\d/.test(text) ? text : `${text}Z`;
+      const d = new Date(withZone.replace(" ", "T"));
+      return Number.isNaN(d.getTime()) ? "invalid" : d;
+    },
+    z.date({ required_error: label, invalid_type_error: `${label} as YYYY-MM-DDTHH:MM` }),
+  );
+
+/** A day, YYYY-MM-DD, that exists in the calendar. */
+export const day = (label: string) =>
+  z
+    .string({ required_error: `${label}: give a day as YYYY-MM-DD` })
+    .regex(/^\d{4}-\d{2}-\d{2}$/, "give a day as YYYY-MM-DD")
+    .refine((v) => !Number.isNaN(Date.parse(`${v}T00:00:00Z`)) && new Date(`${v}T00:00:00Z`).toISOString().startsWith(v), "is not a calendar day");
+
+export const CHANNELS = ["A", "B", "C", "D"] as const;
+export type Channel = (typeof CHANNELS)[number];
+
+/** A client-chosen key that makes a repeated submit record once. */
+export const idempotencyKey = z.string({ required_error: "is missing (reload the form)" }).min(8, "is too short").max(80, "is too long").regex(/^[A-Za-z0-9_:-]+$/, "may hold letters, digits, _ : - only");

@@ -1,0 +1,277 @@
+/**
+ * The solvent ledger: append-only. Entries are only ever inserted (the database refuses UPDATE and
+ * DELETE on ledger_entries); a mistake is put right by a reversing entry — kind "correction", the
+ * negated volume and mass, the same time, project, reagent, batch and container, a reason and its
+ * author, linked to the original through `reverses_id` (unique, so nothing is reversed twice).
+ */
+import { QueryTypes, type Transaction } from "sequelize";
+import { getReagent } from "../../chem";
+import { recordAudit } from "../audit";
+import { getSequelize } from "../db";
+import type { SignedInUser } from "../guard";
+import { HttpError } from "../http";
+import type { LedgerKind, LedgerSource } from "../models/ledger";
+import { openDateForProject } from "./billing";
+
+export interface NewLedgerEntry {
+  occurredAt: Date;
+  projectId: number | null;
+  kind: LedgerKind;
+  batchId: number | null;
+  reagentId: string;
+  volume_mL: number;
+  mass_g: number | null;
+  channel: string | null;
+  wasteStreamId: string | null;
+  wasteContainerId: number | null;
+  sourceKind: LedgerSource;
+  sourceId: string | null;
+  authorId: number | null;
+  reversesId?: number | null;
+  reason?: string | null;
+}
+
+const COLUMNS = [
+  "occurred_at", "project_id", "kind", "batch_id", "reagent_id", "volume_ml", "mass_g", "channel", "waste_stream_id",
+  "waste_container_id", "source_kind", "source_id", "author_id", "reverses_id", "reason", "created_at",
+] as const;
+const ROWS_PER_INSERT = 2_000;
+
+/** The waste stream a reagent goes to, from the chemistry catalogue. */
+export function wasteStreamOf(reagentId: string): string | null {
+  return getReagent(reagentId)?.wasteStream.value ?? null;
+}
+
+const STREAM_NAMES: Record<string, [string, number]> = {
+  aqueous: ["Aqueous", 1],
+  "non-halogenated-organic": ["Non-halogenated organic", 2],
+  "acidic-corrosive": ["Acidic / corrosive", 3],
+  "basic-corrosive": ["Basic / corrosive", 3],
+  "halogenated-organic": ["Halogenated organic", 4],
+};
+
+/**
+ * Makes sure the reagents and waste streams that entries refer to have their catalogue rows (a
+ * recipe may name a reagent of the chemistry library that the facility never listed).
+ */
+export async function ensureCatalogueRows(reagentIds: Iterable<string>, transaction: Transaction) {
+  const sequelize = getSequelize();
+  const wanted = [...new Set(reagentIds)];
+  if (wanted.length === 0) return;
+  const present = new Set((await sequelize.query<{ id: string }>("SELECT id FROM reagents WHERE id IN (:wanted)", { type: QueryTypes.SELECT, replacements: { wanted }, transaction })).map((r) => r.id));
+  const streams = new Set(wanted.map(wasteStreamOf).filter((s): s is string => s !== null));
+  if (streams.size > 0) {
+    const known = new Set((await sequelize.query<{ id: string }>("SELECT id FROM waste_streams", { type: QueryTypes.SELECT, transaction })).map((r) => r.id));
+    for (const stream of streams) {
+      if (known.has(stream)) continue;
+      const [name, restrictiveness] = STREAM_NAMES[stream] ?? [stream, 2];
+      await sequelize.query("INSERT IGNORE INTO waste_streams (id, name, restrictiveness, created_at, updated_at) VALUES (?, ?, ?, NOW(3), NOW(3))", { replacements: [stream, name, restrictiveness], transaction });
+    }
+  }
+  for (const id of wanted) {
+    if (present.has(id)) continue;
+    const reagent = getReagent(id);
+    if (!reagent) throw new HttpError(400, `reagent: ${id} is not in the catalogue`);
+    await sequelize.query(
+      "INSERT IGNORE INTO reagents (id, name, grades, unit, waste_stream_id, flammable, active, created_at, updated_at) VALUES (?, ?, '[]', ?, ?, ?, 1, NOW(3), NOW(3))",
+      { replacements: [id, reagent.name, reagent.form === "solid" ? "g" : "mL", reagent.wasteStream.value, reagent.flammable ? 1 : 0], transaction },
+    );
+  }
+}
+
+/** Appends entries with multi-row INSERTs inside the caller's transaction. */
+export async function appendEntries(entries: readonly NewLedgerEntry[], transaction: Transaction): Promise<void> {
+  const sequelize = getSequelize();
+  const now = new Date();
+  for (let start = 0; start < entries.length; start += ROWS_PER_INSERT) {
+    const slice = entries.slice(start, start + ROWS_PER_INSERT);
+    const values: unknown[] = [];
+    for (const e of slice) {
+      values.push(
+        e.occurredAt, e.projectId, e.kind, e.batchId, e.reagentId, e.volume_mL.toFixed(4), e.mass_g === null ? null : e.mass_g.toFixed(5), e.channel,
+        e.wasteStreamId, e.wasteContainerId, e.sourceKind, e.sourceId, e.authorId, e.reversesId ?? null, e.reason ?? null, now,
+      );
+    }
+    const row = `(${COLUMNS.map(() => "?").join(",")})`;
+    await sequelize.query(`INSERT INTO ledger_entries (${COLUMNS.join(",")}) VALUES ${slice.map(() => row).join(",")}`, { replacements: values, transaction });
+  }
+}
+
+export interface LedgerLine {
+  id: number;
+  occurredAt: string;
+  kind: LedgerKind;
+  projectCode: string | null;
+  batchId: number | null;
+  batchCode: string | null;
+  reagentId: string;
+  volume_mL: number;
+  mass_g: number | null;
+  channel: string | null;
+  wasteStreamId: string | null;
+  wasteContainerCode: string | null;
+  sourceKind: LedgerSource;
+  sourceId: string | null;
+  author: string | null;
+  reversesId: number | null;
+  reversedById: number | null;
+  reason: string | null;
+}
+
+interface LedgerRow {
+  id: number | string;
+  occurred_at: Date;
+  kind: LedgerKind;
+  project_code: string | null;
+  batch_id: number | null;
+  batch_code: string | null;
+  reagent_id: string;
+  volume_ml: string;
+  mass_g: string | null;
+  channel: string | null;
+  waste_stream_id: string | null;
+  container_code: string | null;
+  source_kind: LedgerSource;
+  source_id: string | null;
+  author: string | null;
+  reverses_id: number | string | null;
+  reversed_by: number | string | null;
+  reason: string | null;
+}
+
+const SELECT_LINES = `
+  SELECT l.id, l.occurred_at, l.kind, p.code AS project_code, l.batch_id, b.code AS batch_code, l.reagent_id, l.volume_ml, l.mass_g,
+         l.channel, l.waste_stream_id, c.code AS container_code, l.source_kind, l.source_id, u.name AS author, l.reverses_id,
+         r.id AS reversed_by, l.reason
+    FROM ledger_entries l
+    LEFT JOIN projects p ON p.id = l.project_id
+    LEFT JOIN batches b ON b.id = l.batch_id
+    LEFT JOIN waste_containers c ON c.id = l.waste_container_id
+    LEFT JOIN users u ON u.id = l.author_id
+    LEFT JOIN ledger_entries r ON r.reverses_id = l.id`;
+
+const toLine = (r: LedgerRow): LedgerLine => ({
+  id: Number(r.id),
+  occurredAt: new Date(r.occurred_at).toISOString(),
+  kind: r.kind,
+  projectCode: r.project_code,
+  batchId: r.batch_id,
+  batchCode: r.batch_code,
+  reagentId: r.reagent_id,
+  volume_mL: Number(r.volume_ml),
+  mass_g: r.mass_g === null ? null : Number(r.mass_g),
+  channel: r.channel,
+  wasteStreamId: r.waste_stream_id,
+  wasteContainerCode: r.container_code,
+  sourceKind: r.source_kind,
+  sourceId: r.source_id,
+  author: r.author,
+  reversesId: r.reverses_id === null ? null : Number(r.reverses_id),
+  reversedById: r.reversed_by === null ? null : Number(r.reversed_by),
+  reason: r.reason,
+});
+
+/** Entries of a run (and their corrections), of a batch, or the latest ones. */
+export async function listEntries(filter: { runId?: number | undefined; batchId?: number | undefined; limit?: number }): Promise<LedgerLine[]> {
+  const where: string[] = [];
+  const replacements: Record<string, unknown> = { limit: filter.limit ?? 200 };
+  if (filter.runId !== undefined) {
+    where.push("(l.source_id = :runSource OR l.reverses_id IN (SELECT x.id FROM ledger_entries x WHERE x.source_id = :runSource))");
+    replacements.runSource = `run:${filter.runId}`;
+  }
+  if (filter.batchId !== undefined) {
+    where.push("l.batch_id = :batchId");
+    replacements.batchId = filter.batchId;
+  }
+  const rows = await getSequelize().query<LedgerRow>(`${SELECT_LINES} ${where.length ? `WHERE ${where.join(" AND ")}` : ""} ORDER BY l.id DESC LIMIT :limit`, { type: QueryTypes.SELECT, replacements });
+  return rows.map(toLine);
+}
+
+/** Kinds whose entries took liquid out of a batch; reversing them puts it back. */
+const DRAWN_FROM_BATCH = new Set<LedgerKind>(["run", "draw", "discard"]);
+
+/**
+ * Reverses entries (by id, or every entry of a run not yet reversed) in one transaction: a
+ * correction per entry, the batches' remaining volume restored, one audit line.
+ */
+export async function reverseEntries(input: { entryIds: number[]; runId?: number | undefined; reason: string }, actor: SignedInUser, ip: string | null = null): Promise<{ corrections: LedgerLine[] }> {
+  const sequelize = getSequelize();
+  const ids = await sequelize.transaction(async (transaction) => {
+    const conditions: string[] = [];
+    const replacements: Record<string, unknown> = {};
+    if (input.entryIds.length) {
+      conditions.push("l.id IN (:ids)");
+      replacements.ids = input.entryIds;
+    }
+    if (input.runId !== undefined) {
+      conditions.push("(l.source_id = :runSource AND l.kind = 'run')");
+      replacements.runSource = `run:${input.runId}`;
+    }
+    const originals = await sequelize.query<LedgerRow & { project_id: number | null; waste_container_id: number | null; occurred_at: Date }>(
+      `SELECT l.*, r.id AS reversed_by FROM ledger_entries l LEFT JOIN ledger_entries r ON r.reverses_id = l.id
+        WHERE ${conditions.join(" OR ")} ORDER BY l.id FOR UPDATE`,
+      { type: QueryTypes.SELECT, replacements, transaction },
+    );
+    const found = new Set(originals.map((o) => Number(o.id)));
+    const missing = input.entryIds.filter((id) => !found.has(id));
+    if (missing.length) throw new HttpError(404, `entryIds: no ledger entry ${missing.join(", ")}`);
+    if (input.runId !== undefined && !originals.some((o) => o.source_id === `run:${input.runId}`)) throw new HttpError(404, `runId: run ${input.runId} has no ledger entries`);
+    const corrections = originals.filter((o) => o.kind === "correction" && input.entryIds.includes(Number(o.id)));
+    if (corrections.length) throw new HttpError(400, `entryIds: entry ${corrections.map((c) => c.id).join(", ")} is itself a correction; corrections are not reversed`);
+    const already = originals.filter((o) => o.reversed_by !== null && input.entryIds.includes(Number(o.id)));
+    if (already.length) throw new HttpError(409, `entryIds: entry ${already.map((a) => a.id).join(", ")} is already reversed (by entry ${already.map((a) => a.reversed_by).join(", ")})`);
+    const todo = originals.filter((o) => o.kind !== "correction" && o.reversed_by === null);
+    if (todo.length === 0) throw new HttpError(409, "runId: every entry of this run is already reversed");
+
+    // A correction to a period already invoiced for the client falls into the next open period.
+    const openDates = new Map<string, Date>();
+    for (const o of todo) {
+      const key = `${o.project_id}|${new Date(o.occurred_at).toISOString()}`;
+      if (!openDates.has(key)) openDates.set(key, await openDateForProject(o.project_id, new Date(o.occurred_at), transaction));
+    }
+    const reversing: NewLedgerEntry[] = todo.map((o) => ({
+      occurredAt: openDates.get(`${o.project_id}|${new Date(o.occurred_at).toISOString()}`)!,
+      projectId: o.project_id,
+      kind: "correction",
+      batchId: o.batch_id,
+      reagentId: o.reagent_id,
+      volume_mL: -Number(o.volume_ml),
+      mass_g: o.mass_g === null ? null : -Number(o.mass_g),
+      channel: o.channel,
+      wasteStreamId: o.waste_stream_id,
+      wasteContainerId: o.waste_container_id,
+      sourceKind: "manual",
+      sourceId: o.source_id,
+      authorId: actor.id,
+      reversesId: Number(o.id),
+      reason: input.reason,
+    }));
+    try {
+      await appendEntries(reversing, transaction);
+    } catch (error) {
+      if (error instanceof Error && /Duplicate entry/i.test(`${error.message} ${(error as { parent?: Error }).parent?.message ?? ""}`)) throw new HttpError(409, "entryIds: an entry was reversed by someone else just now; reload");
+      throw error;
+    }
+    const backToBatch = new Map<number, number>();
+    for (const o of todo) if (o.batch_id !== null && DRAWN_FROM_BATCH.has(o.kind)) backToBatch.set(o.batch_id, (backToBatch.get(o.batch_id) ?? 0) + Number(o.volume_ml));
+    for (const [batchId, volume] of backToBatch) {
+      await sequelize.query("UPDATE batches SET remaining_ml = LEAST(volume_ml, remaining_ml + ?), updated_at = NOW(3) WHERE id = ?", { replacements: [volume.toFixed(4), batchId], transaction });
+    }
+    const originalIds = todo.map((o) => Number(o.id));
+    await recordAudit(
+      {
+        actorId: actor.id,
+        action: "ledger.correct",
+        entity: input.runId !== undefined ? "run" : "ledger_entry",
+        entityId: input.runId ?? originalIds[0] ?? null,
+        ip,
+        before: { entries: originalIds },
+        after: { reason: input.reason, restored_mL: Object.fromEntries(backToBatch) },
+      },
+      transaction,
+    );
+    return originalIds;
+  });
+  const rows = await sequelize.query<LedgerRow>(`${SELECT_LINES} WHERE l.reverses_id IN (:ids) ORDER BY l.id`, { type: QueryTypes.SELECT, replacements: { ids } });
+  return { corrections: rows.map(toLine) };
+}

@@ -1,0 +1,84 @@
+import { QueryTypes, UniqueConstraintError } from "sequelize";
+import { solventUse, type ProgramPoint } from "../../chem";
+import { rowsToProgram } from "../../ledger/program";
+import type { MethodInput } from "../../schemas/methods";
+import { recordAudit } from "../audit";
+import { getSequelize } from "../db";
+import type { SignedInUser } from "../guard";
+import { HttpError } from "../http";
+import { Method } from "../models/ledger";
+
+export interface MethodSummary {
+  id: number;
+  name: string;
+  description: string | null;
+  program: ProgramPoint[];
+  reEquilibration_min: number;
+  runTime_min: number;
+  /** Solvent per injection, from solventUse over the program. */
+  perInjection_mL: Record<string, number>;
+  perInjectionTotal_mL: number;
+  runs: number;
+}
+
+const parse = (v: unknown) => (typeof v === "string" ? (JSON.parse(v) as ProgramPoint[]) : (v as ProgramPoint[]));
+
+function summarise(r: { id: number; name: string; description: string | null; program: unknown; re_equilibration_min: string; run_time_min: string; runs?: number }): MethodSummary {
+  const program = parse(r.program);
+  const use = solventUse({ program });
+  return {
+    id: r.id, name: r.name, description: r.description, program, reEquilibration_min: Number(r.re_equilibration_min), runTime_min: Number(r.run_time_min),
+    perInjection_mL: use.byChannel_mL, perInjectionTotal_mL: use.total_mL, runs: Number(r.runs ?? 0),
+  };
+}
+
+export async function listMethods(): Promise<MethodSummary[]> {
+  const rows = await getSequelize().query<{ id: number; name: string; description: string | null; program: unknown; re_equilibration_min: string; run_time_min: string; runs: number }>(
+    "SELECT m.*, (SELECT COUNT(*) FROM runs r WHERE r.method_id = m.id) AS runs FROM methods m ORDER BY m.name",
+    { type: QueryTypes.SELECT },
+  );
+  return rows.map(summarise);
+}
+
+export async function getMethod(id: number): Promise<MethodSummary | null> {
+  const [row] = await getSequelize().query<{ id: number; name: string; description: string | null; program: unknown; re_equilibration_min: string; run_time_min: string; runs: number }>(
+    "SELECT m.*, (SELECT COUNT(*) FROM runs r WHERE r.method_id = m.id) AS runs FROM methods m WHERE m.id = ?",
+    { type: QueryTypes.SELECT, replacements: [id] },
+  );
+  return row ? summarise(row) : null;
+}
+
+function toColumns(input: MethodInput) {
+  const program = rowsToProgram(input.rows);
+  const runTime = program[program.length - 1]?.time_min ?? 0;
+  return { name: input.name, description: input.description || null, program, reEquilibrationMin: input.reEquilibration_min.toFixed(3), runTimeMin: runTime.toFixed(3) };
+}
+
+function duplicateName(error: unknown, name: string): never {
+  if (error instanceof UniqueConstraintError) throw new HttpError(409, `name: a method called ${name} exists already`, { fields: { name: "is taken" } });
+  throw error;
+}
+
+export async function createMethod(input: MethodInput, actor: SignedInUser): Promise<{ id: number }> {
+  return getSequelize().transaction(async (transaction) => {
+    const created = await Method.create(toColumns(input), { transaction }).catch((e: unknown) => duplicateName(e, input.name));
+    await recordAudit({ actorId: actor.id, action: "method.create", entity: "method", entityId: created.id, after: toColumns(input) }, transaction);
+    return { id: created.id };
+  });
+}
+
+/**
+ * Changes a method. Runs already logged keep the volumes they were recorded with (stored on the
+ * run and in the ledger), so editing a program never rewrites history.
+ */
+export async function updateMethod(id: number, input: MethodInput, actor: SignedInUser): Promise<{ id: number }> {
+  return getSequelize().transaction(async (transaction) => {
+    const method = await Method.findByPk(id, { transaction, lock: transaction.LOCK.UPDATE });
+    if (!method) throw new HttpError(404, `id: no method ${id}`);
+    const before = { name: method.name, program: method.program, reEquilibrationMin: method.reEquilibrationMin };
+    method.set(toColumns(input));
+    await method.save({ transaction }).catch((e: unknown) => duplicateName(e, input.name));
+    await recordAudit({ actorId: actor.id, action: "method.update", entity: "method", entityId: id, before, after: toColumns(input) }, transaction);
+    return { id };
+  });
+}

@@ -1,0 +1,12 @@
+import { drawSchema } from "../../../lib/schemas/runs";
+import { endpoint, requirePermission } from "../../../lib/server/guard";
+import { json, readJson } from "../../../lib/server/http";
+import { logDraw } from "../../../lib/server/services/runs";
+
+/** 201 with the draw; 200 with the same answer when the idempotency key was seen before. */
+export const POST = endpoint(async ({ locals, request }) => {
+  const user = requirePermission(locals, "create:draw");
+  const input = await readJson(request, drawSchema);
+  const result = await logDraw(input, user);
+  return json(result, result.replayed ? 200 : 201);
+});

@@ -1,0 +1,37 @@
+import { stockLotInputSchema, stockLotListQuery } from "../../../lib/schemas/stock-lots";
+import { endpoint, requirePermission } from "../../../lib/server/guard";
+import { HttpError, json, queryOf, validate } from "../../../lib/server/http";
+import { CERTIFICATE_MAX_BYTES } from "../../../lib/server/storage";
+import { createStockLot, listStockLots } from "../../../lib/server/services/stock-lots";
+
+export const GET = endpoint(async ({ locals, url }) => {
+  requirePermission(locals, "read:stock-lot");
+  return json({ items: await listStockLots(validate(queryOf(url), stockLotListQuery)) });
+});
+
+/** multipart/form-data: the lot's fields and an optional `certificate` file (PDF or image). */
+export const POST = endpoint(async ({ locals, request, clientAddress }) => {
+  const user = requirePermission(locals, "create:stock-lot");
+  if (!(request.headers.get("content-type") ?? "").toLowerCase().startsWith("multipart/form-data")) {
+    throw new HttpError(415, "body: send the lot as multipart/form-data");
+  }
+  const length = Number(request.headers.get("content-length") ?? 0);
+  if (length > CERTIFICATE_MAX_BYTES + 64 * 1024) throw new HttpError(400, `certificate: the upload is over the ${CERTIFICATE_MAX_BYTES / 1048576} MB limit`);
+  let form: FormData;
+  try {
+    form = await request.formData();
+  } catch {
+    throw new HttpError(400, "body: not a readable multipart form");
+  }
+  const fields: Record<string, string> = {};
+  let file: File | null = null;
+  for (const [key, value] of form.entries()) {
+    if (key === "certificate") {
+      if (typeof value !== "string" && value.size > 0) file = value;
+    } else if (typeof value === "string") fields[key] = value;
+  }
+  const input = validate(fields, stockLotInputSchema);
+  const certificate = file ? { bytes: new Uint8Array(await file.arrayBuffer()), name: file.name } : null;
+  const lot = await createStockLot(input, certificate, user, clientAddress);
+  return json({ lot }, 201);
+});

@@ -1,0 +1,15 @@
+import { idParam, labelQuery } from "../../../../../lib/schemas/waste";
+import { endpoint, requirePermission } from "../../../../../lib/server/guard";
+import { queryOf, validate } from "../../../../../lib/server/http";
+import { containerLabelContent } from "../../../../../lib/server/services/waste";
+import { renderContainerLabel } from "../../../../../lib/waste/container-label";
+
+/** The container label (100 × 100 mm): Code 128 of the code, stream, GHS pictograms, accumulation start. */
+export const GET = endpoint(async ({ locals, params, url }) => {
+  requirePermission(locals, "read:waste");
+  const { id } = validate(params, idParam);
+  const { copies } = validate(queryOf(url), labelQuery);
+  const content = await containerLabelContent(id);
+  const bytes = await renderContainerLabel(content, copies);
+  return new Response(new Uint8Array(bytes), { headers: { "content-type": "application/pdf", "content-disposition": `inline; filename="container-${content.code}.pdf"`, "cache-control": "no-store" } });
+});

@@ -1,0 +1,54 @@
+import { expect, test } from "@playwright/test";
+import { signIn } from "./support";
+
+
+test("a technician logs a run in the browser and sees the batch's remaining volume drop", async ({ page }) => {
+  await signIn(page, "tech@demo.test");
+  await page.goto("/runs/new");
+  await page.locator("astro-island:not([ssr])").first().waitFor(); // hydrated: what is typed now stays
+  await page.getByLabel("Instrument").selectOption({ label: "Wren" });
+  await page.getByLabel("Method").selectOption({ label: "Scout gradient 5–95 % B, 12 min" });
+  await page.getByLabel("Project").selectOption({ label: "PMG-ROOT-26 · Root exudate profiling" });
+  await page.getByLabel("Injections").fill("10");
+  await page.getByLabel("Extra blanks").fill("2");
+  await page.getByLabel("Purge / prime per channel, mL").fill("5");
+  const channelA = page.getByLabel(/^Channel A/);
+  const optionA = channelA.locator("option", { hasText: "B26-1103" });
+  const before = Number(await optionA.getAttribute("data-ml"));
+  await channelA.selectOption({ value: await optionA.getAttribute("value") ?? "" });
+  const channelB = page.getByLabel(/^Channel B/);
+  await channelB.selectOption({ value: (await channelB.locator("option", { hasText: "B26-1104" }).getAttribute("value")) ?? "" });
+  // The live preview, worked by hand: A = 12 × 3.522 + 5 = 47.264 mL (see tests/integration/ledger/runs-ledger.test.ts)
+  await expect(page.getByText("Channel A", { exact: true }).locator("xpath=following-sibling::dd[1]")).toHaveText("47.3 mL");
+  await page.getByRole("button", { name: "Record the run" }).click();
+
+  const recorded = page.getByTestId("run-recorded");
+  await expect(recorded).toContainText("Run recorded");
+  const after = Number(await page.getByTestId("left-B26-1103").getAttribute("data-ml"));
+  expect(before - after).toBeCloseTo(47.264, 4);
+  // The batch list in the form shows the new remaining volume too.
+  await expect(optionA).toHaveAttribute("data-ml", String(after));
+  await page.screenshot({ path: `${process.env.DECANT_TEST_DATA_DIR ?? ".data/test"}/playwright-output/ledger-run.png`, fullPage: true });
+
+  await recorded.getByRole("link", { name: "See the ledger entries" }).click();
+  await expect(page.getByRole("cell", { name: "water" })).toBeVisible();
+  await expect(page.getByRole("cell", { name: "47.2168 mL" })).toBeVisible();
+});
+
+test("a manager sees the usage table for a period", async ({ page }) => {
+  await signIn(page, "manager@demo.test");
+  const day = (daysAgo: number) => new Date(Date.now() - daysAgo * 86_400_000).toISOString().slice(0, 10);
+  await page.goto(`/usage?from=${day(30)}&to=${day(0)}`);
+  const table = page.getByRole("table", { name: "Usage per project" });
+  await expect(table).toBeVisible();
+  // A longer period: the island fetches GET /api/usage again.
+  await page.getByLabel("From").fill(day(60));
+  await expect(page).toHaveURL(new RegExp(`from=${day(60)}`));
+  await expect(page.getByRole("figure")).toContainText(`${day(60)} to ${day(0)}`);
+  await expect(table.locator("tr[data-project='PMG-ROOT-26']")).toBeVisible();
+  await expect(table.locator("tr[data-project='QFT-IMP-014']")).toContainText("€");
+  await expect(page.getByRole("img", { name: "Bar chart of the volume per project" })).toBeVisible();
+  await page.getByLabel("Filter").fill("QFT");
+  await expect(table.locator("tbody tr")).toHaveCount(2);
+  await page.screenshot({ path: `${process.env.DECANT_TEST_DATA_DIR ?? ".data/test"}/playwright-output/ledger-usage.png`, fullPage: true });
+});

@@ -1,0 +1,68 @@
+import { execFileSync } from "node:child_process";
+import { readFileSync } from "node:fs";
+import { expect, test } from "@playwright/test";
+import { signIn } from "./support";
+
+test("a technician prepares a batch from a demo recipe, records it and prints its labels", async ({ page }) => {
+  await signIn(page, "tech@demo.test");
+  await page.getByRole("navigation", { name: "Main" }).getByRole("link", { name: "Batches" }).click();
+  await page.getByRole("link", { name: "Prepare a batch" }).click();
+  await expect(page.getByRole("heading", { name: "Prepare a batch" })).toBeVisible();
+  // Wait for the form island to hydrate, so that what is picked reaches react-hook-form.
+  await expect(page.locator("astro-island[ssr]")).toHaveCount(0);
+
+  await page.getByLabel("Recipe", { exact: true }).selectOption({ label: "MP-FA-W · 0.1 % formic acid in water (v1, ch. A)" });
+  const faTarget = page.getByTestId("target-formic-acid");
+  await expect(faTarget).toHaveText("1.000 mL");
+
+  // The amounts follow the volume as it is typed, computed in the browser.
+  const volume = page.getByLabel("Batch volume", { exact: true });
+  await volume.fill("");
+  await volume.pressSequentially("2500");
+  await expect(faTarget).toHaveText("2.500 mL");
+  await expect(page.getByTestId("target-water")).toHaveText("2500 mL");
+  await page.getByLabel("Unit for liquids").selectOption("l");
+  await expect(page.getByTestId("target-water")).toHaveText("2.500 L");
+  await page.getByLabel("Unit for liquids").selectOption("ml");
+
+  await page.getByLabel("Bottles", { exact: true }).fill("3");
+  await page.getByLabel("Bottle size (mL)").fill("1000");
+  const pickLot = async (label: string, lot: string) => {
+    const select = page.getByLabel(label);
+    const value = await select.locator("option", { hasText: lot }).first().getAttribute("value");
+    await select.selectOption(value!);
+  };
+  await pickLot("Lot of Water", "UPW-SYSTEM");
+  await pickLot("Lot of Formic acid", "FA-2290");
+  await page.getByLabel("Actual amount of Water (mL)").fill("2500");
+  await page.getByLabel("Actual amount of Formic acid (mL)").fill("2.51");
+  await expect(page.getByText("Outside the facility's tolerances")).toHaveCount(0);
+  await expect(page.getByText(/Follow your laboratory's SOPs/).first()).toBeVisible();
+
+  await page.getByRole("button", { name: "Record the batch" }).click();
+  await expect(page).toHaveURL(/\/batches\/\d+\?recorded=1$/);
+  await expect(page.getByText("Batch recorded.")).toBeVisible();
+  const code = (await page.getByRole("heading", { level: 1 }).innerText()).trim();
+  expect(code).toMatch(/^B\d{2}-\d{4}(-\d+)?$/);
+  const prepared = (await page.getByTestId("prepared-at").innerText()).slice(0, 10);
+  const expires = (await page.getByTestId("expires-at").innerText()).slice(0, 10);
+
+  await page.getByLabel("Copies", { exact: true }).fill("3");
+  const [download] = await Promise.all([page.waitForEvent("download"), page.getByTestId("download-labels").click()]);
+  const file = await download.path();
+  expect(readFileSync(file).subarray(0, 5).toString()).toBe("%PDF-");
+  const text = execFileSync("pdftotext", [file, "-"], { encoding: "utf8" });
+  expect(text.match(new RegExp(code, "g"))).toHaveLength(3);
+  expect(text).toContain(`Prepared ${prepared}`);
+  expect(text).toContain(`Expires ${expires}`);
+  expect(text).toContain("Rowan Ellery");
+  expect(text).toContain("Bottle 3 of 3");
+
+  // The code field opens the batch, as a scanner would type it.
+  await page.goto("/batches");
+  await expect(page.locator("astro-island[ssr]")).toHaveCount(0);
+  await page.getByLabel("Batch code").fill(code);
+  await page.getByLabel("Batch code").press("Enter");
+  await expect(page).toHaveURL(/\/batches\/\d+$/);
+  await expect(page.getByRole("heading", { level: 1 })).toHaveText(code);
+});
