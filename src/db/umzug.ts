@@ -6,6 +6,7 @@ import * as preparation from "./migrations/2026.12.01T02.00.00.preparation";
 import * as ledgerDetails from "./migrations/2026.12.01T03.00.00.ledger-details";
 import * as billingDetails from "./migrations/2026.12.01T04.00.00.billing-details";
 import * as wasteRules from "./migrations/2026.12.01T05.00.00.waste-rules";
+import * as ledgerDaily from "./migrations/2026.12.01T09.00.00.ledger-daily";
 import * as demoFacility from "./seeders/2026.12.01T00.00.00.demo-facility";
 import * as demoPreparation from "./seeders/2026.12.01T02.00.00.demo-preparation";
 import * as wasteDemo from "./seeders/2026.12.01T05.00.00.waste-demo";
@@ -24,6 +25,7 @@ export const MIGRATIONS: Record<string, MigrationModule> = {
   "2026.12.01T03.00.00.ledger-details.ts": ledgerDetails,
   "2026.12.01T04.00.00.billing-details.ts": billingDetails,
   "2026.12.01T05.00.00.waste-rules.ts": wasteRules,
+  "2026.12.01T09.00.00.ledger-daily.ts": ledgerDaily,
 };
 
 export const SEEDERS: Record<string, MigrationModule> = {

@@ -1,17 +1,9 @@
 import { useRef, useState } from "react";
 import { formatDateTime, formatVolume } from "../../lib/format";
 import { readRunLog, RUN_LOG_MAX_BYTES, type RowIssue, type RunLogRow } from "../../lib/imports/run-log";
+import type { ImportReport } from "../../lib/server/services/imports";
 
-interface Report {
-  rowCount: number;
-  newRuns: number;
-  alreadyRecorded: number;
-  entries: number;
-  volume_mL: number;
-  issues: RowIssue[];
-  previousImport: { id: number; at: string } | null;
-  importId: number | null;
-}
+type Report = Omit<ImportReport, "fileName" | "checksum">;
 
 type Stage =
   | { step: "idle" }

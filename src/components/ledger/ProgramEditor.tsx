@@ -96,7 +96,7 @@ export default function ProgramEditor({ method, canEdit }: Props) {
         </div>
       </div>
 
-      <div className="grid gap-6 xl:grid-cols-[minmax(0,1.15fr)_minmax(0,1fr)]">
+      <div className="grid gap-6 2xl:grid-cols-[minmax(0,1.15fr)_minmax(0,1fr)]">
         <div className="card overflow-x-auto p-3">
           <table className="table" aria-label="Gradient program">
             <thead>

@@ -1,28 +1,20 @@
 import { useEffect, useMemo, useState } from "react";
+import type { UsageRow } from "../../lib/server/services/usage";
 import { formatMoney } from "../../lib/billing/money";
 import { csvField } from "../../lib/imports/csv";
 import { formatVolume } from "../../lib/format";
 
-interface Row {
-  projectCode: string;
-  projectName: string;
-  clientName: string;
-  volumes_mL: Record<string, number>;
-  masses_g: Record<string, number>;
-  runs: number;
-  injections: number;
-  cost: { amount: number; currency: string };
-  uncosted: string[];
-}
+type Row = UsageRow;
 type SortKey = "projectCode" | "clientName" | "runs" | "injections" | "total" | "cost";
 
 const total = (r: Row) => Object.values(r.volumes_mL).reduce((a, b) => a + b, 0);
-const monthStart = () => new Date().toISOString().slice(0, 8) + "01";
+// The last 30 days by default: "the month so far" is empty on the first of a month.
+const thirtyDaysAgo = () => new Date(Date.now() - 29 * 86_400_000).toISOString().slice(0, 10);
 const today = () => new Date().toISOString().slice(0, 10);
 
 /** Usage per project for a period, fetched from GET /api/usage: sortable, filterable, with a chart and CSV export. */
 export default function UsageTable({ initialFrom, initialTo }: { initialFrom?: string; initialTo?: string }) {
-  const [from, setFrom] = useState(initialFrom ?? monthStart());
+  const [from, setFrom] = useState(initialFrom ?? thirtyDaysAgo());
   const [to, setTo] = useState(initialTo ?? today());
   const [state, setState] = useState<{ kind: "loading" } | { kind: "error"; message: string } | { kind: "ready"; rows: Row[] }>({ kind: "loading" });
   const [filter, setFilter] = useState("");

@@ -5,19 +5,11 @@ import { findDeviations, type Tolerances } from "../../lib/preparation/deviation
 import { batchExpiry, lotExpired, type ExpiryRule } from "../../lib/preparation/expiry";
 import { preparationPlan, type PreparationPlan } from "../../lib/preparation/plan";
 import { batchCreateSchema, type BatchCreateInput } from "../../lib/schemas/preparation";
-import type { RecipeSpec } from "../../lib/schemas/recipes";
+import type { PreparableRecipe } from "../../lib/server/services/recipes";
 import { postJson, useZodForm } from "../forms/form";
 
-export interface FormRecipe {
-  versionId: number;
-  version: number;
-  code: string;
-  name: string;
-  channel: string | null;
-  detection_nm: number | null;
-  storage: string | null;
-  spec: RecipeSpec;
-}
+/** The recipe as the page hands it to the form (the service's shape, without the recipe id). */
+export type FormRecipe = Omit<PreparableRecipe, "recipeId">;
 
 export interface FormLot {
   id: number;

@@ -3,8 +3,9 @@
 import type { QueryInterface } from "sequelize";
 import type { MigrationParams } from "umzug";
 import { hashPassword } from "../../lib/server/auth/password";
+import { DAY_MS, demoClock } from "../demo-time";
 
-const DAY = 86_400_000;
+const DAY = DAY_MS;
 
 /** Small deterministic generator so every fresh seed looks the same. */
 function prng(seed: number) {
@@ -21,11 +22,7 @@ export const DEMO_PASSWORD = "decant-demo";
 
 export async function up({ context: qi }: MigrationParams<QueryInterface>) {
   const now = new Date();
-  const at = (daysAgo: number, hour = 9) => {
-    const d = new Date(now.getTime() - daysAgo * DAY);
-    d.setUTCHours(hour, 0, 0, 0);
-    return d;
-  };
+  const at = demoClock(now);
   const t0 = at(100);
 
   await qi.bulkInsert("clients", [
@@ -244,6 +241,13 @@ export async function up({ context: qi }: MigrationParams<QueryInterface>) {
     rate("reagent", "methanol", "internal", "L", 1_900), rate("reagent", "methanol", "external", "L", 3_600),
     rate("reagent", "water", "internal", "L", 150), rate("reagent", "water", "external", "L", 400),
     rate("reagent", "formic-acid", "internal", "L", 21_000), rate("reagent", "formic-acid", "external", "L", 38_000),
+    rate("reagent", "isopropanol", "internal", "L", 2_600), rate("reagent", "isopropanol", "external", "L", 4_900),
+    rate("reagent", "trifluoroacetic-acid", "internal", "L", 95_000), rate("reagent", "trifluoroacetic-acid", "external", "L", 160_000),
+    rate("reagent", "phosphoric-acid", "internal", "L", 6_000), rate("reagent", "phosphoric-acid", "external", "L", 11_000),
+    rate("reagent", "ammonium-formate", "internal", "g", 30), rate("reagent", "ammonium-formate", "external", "g", 60),
+    rate("reagent", "ammonium-acetate", "internal", "g", 20), rate("reagent", "ammonium-acetate", "external", "g", 45),
+    rate("reagent", "potassium-dihydrogen-phosphate", "internal", "g", 9), rate("reagent", "potassium-dihydrogen-phosphate", "external", "g", 20),
+    rate("reagent", "dipotassium-hydrogen-phosphate", "internal", "g", 10), rate("reagent", "dipotassium-hydrogen-phosphate", "external", "g", 22),
     rate("preparation_fee", null, "internal", "batch", 1_200), rate("preparation_fee", null, "external", "batch", 2_500),
     rate("injection_fee", null, "internal", "injection", 0), rate("injection_fee", null, "external", "injection", 150),
   ]);

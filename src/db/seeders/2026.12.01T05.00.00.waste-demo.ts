@@ -4,16 +4,12 @@
 // Invented data; the figures are illustrative.
 import { QueryTypes, type QueryInterface } from "sequelize";
 import type { MigrationParams } from "umzug";
+import { demoClock } from "../demo-time";
 
-const DAY = 86_400_000;
 
 export async function up({ context: qi }: MigrationParams<QueryInterface>) {
   const now = new Date();
-  const at = (daysAgo: number, hour = 9) => {
-    const d = new Date(now.getTime() - daysAgo * DAY);
-    d.setUTCHours(hour, 0, 0, 0);
-    return d;
-  };
+  const at = demoClock(now);
   const stamp = (d: Date) => ({ created_at: d, updated_at: d });
 
   // A reading 3 days ago found WC-0103 fuller than the runs alone explain (rinses, a spill tray).
