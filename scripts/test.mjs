@@ -2,14 +2,14 @@
 // one plain total over all runners: "N passed, N failed, N skipped".
 import { mkdirSync, readFileSync, rmSync } from "node:fs";
 import { join } from "node:path";
-import { bin, ensureChromium, ensureNodeModules, fail, log, portIsFree, portAnswers, ProcessGroup, run, waitFor } from "./lib/util.mjs";
+import { bin, ensureTestTools, ensureNodeModules, fail, log, portIsFree, portAnswers, ProcessGroup, run, waitFor } from "./lib/util.mjs";
 
 const APP_PORT = Number(process.env.DECANT_TEST_APP_PORT || 4331);
 const only = process.argv.slice(2); // e.g. `npm test -- unit` or `npm test -- e2e`
 const wants = (name) => only.length === 0 || only.includes(name);
 
 ensureNodeModules();
-const chromium = ensureChromium();
+const chromium = ensureTestTools();
 const { startDatabase, migrate, startFakes } = await import("./lib/stack.mjs");
 
 const { server, env, profile } = await startDatabase("test");

@@ -57,14 +57,22 @@ export function ensureNodeModules() {
   if (r.status !== 0) fail("npm ci failed; see the output above.");
 }
 
-/** Installs Debian's Chromium for the browser tests when it is missing (never a browser download). */
-export function ensureChromium() {
-  if (existsSync("/usr/bin/chromium")) return "/usr/bin/chromium";
-  const command = "apt-get update && apt-get install -y chromium";
-  if (!isRoot()) fail(`Chromium is needed for the browser tests. Install it with:\n  sudo sh -c '${command}'`);
-  log("Chromium not found; installing Debian's chromium (apt-get)…");
+/**
+ * Installs the Debian packages the tests need when a command of theirs is missing: Chromium for
+ * the browser tests (never a browser download) and poppler-utils, whose pdftotext reads the PDFs.
+ */
+export function ensureTestTools() {
+  const needed = [
+    { path: "/usr/bin/chromium", packages: ["chromium", "fonts-dejavu-core"] },
+    { path: "/usr/bin/pdftotext", packages: ["poppler-utils"] },
+  ].filter((tool) => !existsSync(tool.path));
+  if (needed.length === 0) return "/usr/bin/chromium";
+  const packages = needed.flatMap((tool) => tool.packages);
+  const command = `apt-get update && apt-get install -y ${packages.join(" ")}`;
+  if (!isRoot()) fail(`The tests need ${packages.join(", ")}. Install them with:\n  sudo sh -c '${command}'`);
+  log(`Installing Debian's ${packages.join(", ")} for the tests (apt-get)…`);
   const env = { ...process.env, DEBIAN_FRONTEND: "noninteractive" };
-  for (const args of [["update"], ["install", "-y", "--no-install-recommends", "chromium", "fonts-dejavu-core"]]) {
+  for (const args of [["update"], ["install", "-y", "--no-install-recommends", ...packages]]) {
     const r = spawnSync("apt-get", args, { stdio: "inherit", env });
     if (r.status !== 0) fail(`apt-get ${args.join(" ")} failed; run: ${command}`);
   }
