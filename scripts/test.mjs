@@ -44,7 +44,7 @@ for (const signal of ["SIGINT", "SIGTERM"]) {
 
 const baseURL = `http://127.0.0.1:${APP_PORT}`;
 const outDir = process.env.DECANT_OUT_DIR ?? "dist";
-const testEnv = { ...process.env, ...env, DECANT_OUT_DIR: outDir, APP_ORIGIN: baseURL, E2E_BASE_URL: baseURL, CHROMIUM_PATH: chromium, HOST: "127.0.0.1", PORT: String(APP_PORT), NODE_ENV: "production" };
+const testEnv = { ...process.env, ...env, DECANT_OUT_DIR: outDir, APP_ORIGIN: baseURL, DECANT_NO_SCHEDULE: "1", E2E_BASE_URL: baseURL, CHROMIUM_PATH: chromium, HOST: "127.0.0.1", PORT: String(APP_PORT), NODE_ENV: "production" };
 
 function readJson(path) {
   try {
