@@ -21,7 +21,12 @@ function freePort(): Promise<number> {
 }
 
 const dataDir = mkdtempSync(join(tmpdir(), "decant-lifecycle-"));
-afterAll(() => rmSync(dataDir, { recursive: true, force: true }));
+// Whatever the assertions say, the throwaway server must not outlive the test.
+let running: { stop(): Promise<void> } | null = null;
+afterAll(async () => {
+  await running?.stop();
+  rmSync(dataDir, { recursive: true, force: true });
+});
 
 describe("private database lifecycle", () => {
   it("starts, migrates, seeds, stops, and finds everything again on the next start", async () => {
@@ -30,6 +35,7 @@ describe("private database lifecycle", () => {
     const env = { DATABASE_HOST: "127.0.0.1", DATABASE_PORT: port, DATABASE_NAME: credentials.database, DATABASE_USER: credentials.user, DATABASE_PASSWORD: credentials.password };
 
     let server = await startMariadb({ dataDir, port });
+    running = server;
     ensureAppUser(server, credentials);
     let sequelize = createSequelize(env);
     expect((await migrator(sequelize).up()).length).toBe(Object.keys(MIGRATIONS).length);
@@ -41,6 +47,7 @@ describe("private database lifecycle", () => {
     await server.stop();
 
     server = await startMariadb({ dataDir, port });
+    running = server;
     sequelize = createSequelize(env);
     expect(await migrator(sequelize).up()).toEqual([]);
     expect(await seeder(sequelize).up()).toEqual([]);
