@@ -2,6 +2,10 @@
 import { ensureNodeModules, fail, log, portIsFree, ProcessGroup, run, bin, ROOT } from "./lib/util.mjs";
 
 const dev = process.argv.includes("--dev");
+// `npm run bench` times `npm start` on its own profile (data, ports) so that it never meets the demo data.
+const profileName = process.env.DECANT_PROFILE || "dev";
+if (!["dev", "bench"].includes(profileName)) fail(`DECANT_PROFILE must be dev or bench, got "${profileName}".`);
+const outDir = process.env.DECANT_OUT_DIR || "dist";
 const host = process.env.HOST || "127.0.0.1";
 const port = Number(process.env.PORT || 4321);
 if (!Number.isInteger(port) || port < 1 || port > 65535) fail(`PORT must be a port number (1–65535), got "${process.env.PORT}".`);
@@ -11,7 +15,7 @@ const { startDatabase, migrate, startFakes } = await import("./lib/stack.mjs");
 
 if (!(await portIsFree(port, host))) fail(`Port ${port} on ${host} is taken; set PORT to a free port (e.g. PORT=4400 npm start).`);
 
-const { server, env } = await startDatabase("dev");
+const { server, env } = await startDatabase(profileName);
 const group = new ProcessGroup();
 let shuttingDown = false;
 async function shutdown(code = 0) {
@@ -20,7 +24,7 @@ async function shutdown(code = 0) {
   log("Stopping…");
   await group.stopAll();
   await server.stop();
-  log("Stopped. Your data is kept in .data/dev.");
+  log(`Stopped. Your data is kept in .data/${profileName}.`);
   process.exit(code);
 }
 process.on("SIGINT", () => shutdown(0));
@@ -36,7 +40,7 @@ try {
   } else {
     log("Building the app…");
     if ((await run(bin("astro"), ["build"], { env: appEnv })) !== 0) throw new Error("astro build failed");
-    group.spawn("app server", process.execPath, ["dist/server/entry.mjs"], { env: appEnv, cwd: ROOT });
+    group.spawn("app server", process.execPath, [`${outDir}/server/entry.mjs`], { env: appEnv, cwd: ROOT });
   }
   const url = `http://${host}:${port}`;
   log(`Decant is starting at ${url}`);

@@ -1,10 +1,56 @@
+import { randomBytes } from "node:crypto";
 import { defineMiddleware, sequence } from "astro:middleware";
 import { clearSessionCookie, setSessionCookie } from "./lib/server/auth/cookies";
 import { lucia } from "./lib/server/auth/lucia";
 import { getSequelize } from "./lib/server/db";
+import { startSchedules } from "./lib/server/scheduler";
 import { errorResponse, json } from "./lib/server/http";
+import { contentSecurityPolicy, addNonces, requestIsHttps, STATIC_SECURITY_HEADERS } from "./lib/server/security-headers";
 
 const STATE_CHANGING = new Set(["POST", "PUT", "PATCH", "DELETE"]);
+
+/**
+ * Every answer, pages, API routes and the refusals below alike, carries the security headers.
+ * Pages get a Content-Security-Policy with a fresh nonce: Astro's island runtime is an inline
+ * `<script>` (and a one-line inline `<style>`), so each `<script>`/`<style>` element Astro rendered
+ * gets the nonce and nothing injected later can run. PDFs may be framed by Decant's own pages
+ * (the label preview on a batch page); everything else may be framed by no one.
+ */
+const securityHeaders = defineMiddleware(async (context, next) => {
+  const nonce = randomBytes(16).toString("base64");
+  let response = await next();
+  // An /api/ path that matches no route (or whose parameter Astro cannot match) answers JSON, not the 404 page.
+  if (response.status === 404 && context.url.pathname.startsWith("/api/") && (response.headers.get("content-type") ?? "").startsWith("text/html")) {
+    response = json({ error: "path: no such API route" }, 404);
+  }
+  const type = (response.headers.get("content-type") ?? "").toLowerCase();
+  const isHtml = type.startsWith("text/html");
+  const isPdf = type.startsWith("application/pdf");
+  // The dev server injects styles and scripts from JavaScript; the policy applies to built apps.
+  const enforce = !import.meta.env.DEV;
+  if (isHtml && enforce && response.body) {
+    const html = addNonces(await response.text(), nonce);
+    response = new Response(html, { status: response.status, statusText: response.statusText, headers: new Headers(response.headers) });
+  }
+  const headers: Record<string, string> = { ...STATIC_SECURITY_HEADERS };
+  if (enforce) headers["content-security-policy"] = contentSecurityPolicy({ nonce: isHtml ? nonce : null, frameAncestors: isPdf ? "'self'" : "'none'" });
+  headers["x-frame-options"] = isPdf ? "SAMEORIGIN" : "DENY";
+  if (requestIsHttps(context.request, context.url)) headers["strict-transport-security"] = "max-age=31536000; includeSubDomains";
+  // A route's own policy (a stricter one for uploaded files) stays, with frame-ancestors added.
+  const own = response.headers.get("content-security-policy");
+  if (own) headers["content-security-policy"] = /frame-ancestors/.test(own) ? own : `${own}; frame-ancestors 'none'`;
+  const apply = (target: Headers) => {
+    for (const [name, value] of Object.entries(headers)) if (name === "content-security-policy" || !target.has(name)) target.set(name, value);
+  };
+  try {
+    apply(response.headers);
+  } catch {
+    // Immutable headers (a Response.redirect): copy the answer once.
+    response = new Response(response.body, { status: response.status, statusText: response.statusText, headers: new Headers(response.headers) });
+    apply(response.headers);
+  }
+  return response;
+});
 
 /**
  * Refuses state-changing requests, forms and JSON alike, whose Origin is another site. A browser
@@ -33,14 +79,15 @@ const sameOrigin = defineMiddleware(({ request, url }, next) => {
 /** Puts the signed-in user and session on locals; renews or clears the cookie as lucia says. */
 const session = defineMiddleware(async (context, next) => {
   getSequelize(); // binds the models on the first request
+  startSchedules();
   context.locals.user = null;
   context.locals.session = null;
   const sessionId = context.cookies.get(lucia.sessionCookieName)?.value ?? null;
   if (sessionId) {
     try {
       const { session, user } = await lucia.validateSession(sessionId);
-      if (session?.fresh) setSessionCookie(context.cookies, lucia.createSessionCookie(session.id), context.url);
-      if (!session) clearSessionCookie(context.cookies, context.url);
+      if (session?.fresh) setSessionCookie(context.cookies, lucia.createSessionCookie(session.id), context.url, context.request);
+      if (!session) clearSessionCookie(context.cookies, context.url, context.request);
       context.locals.session = session;
       context.locals.user = user;
     } catch (error) {
@@ -51,4 +98,4 @@ const session = defineMiddleware(async (context, next) => {
   return next();
 });
 
-export const onRequest = sequence(sameOrigin, session);
+export const onRequest = sequence(securityHeaders, sameOrigin, session);

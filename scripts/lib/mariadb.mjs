@@ -52,6 +52,8 @@ export function serverPaths(dataDir) {
     socket: join(dataDir, "mariadb.sock"),
     pidFile: join(dataDir, "mariadb.pid"),
     logFile: join(dataDir, "mariadb.log"),
+    // Its own temporary directory: a shared /tmp being tidied would break queries that sort on disk.
+    tmp: join(dataDir, "tmp"),
   };
 }
 
@@ -117,6 +119,7 @@ export async function startMariadb({ dataDir, port, portVariable = "DECANT_DB_PO
   const bins = ensureMariadbInstalled();
   const paths = serverPaths(dataDir);
   mkdirSync(dataDir, { recursive: true });
+  mkdirSync(paths.tmp, { recursive: true });
   initialise(bins, paths);
 
   // A server left behind by a killed run of ours: stop it, then start afresh under our control.
@@ -136,6 +139,7 @@ export async function startMariadb({ dataDir, port, portVariable = "DECANT_DB_PO
     `--socket=${paths.socket}`,
     `--pid-file=${paths.pidFile}`,
     `--log-error=${paths.logFile}`,
+    `--tmpdir=${paths.tmp}`,
     "--skip-name-resolve",
     "--character-set-server=utf8mb4",
     "--collation-server=utf8mb4_unicode_ci",

@@ -9,6 +9,15 @@ import { ROOT, DATA_DIR, bin, fail, localEnv, portAnswers, portIsFree, run, wait
 export const PROFILES = {
   dev: { dir: join(DATA_DIR, "dev"), dbPort: 3307, database: "decant", smtpPort: 2525, paymentsPort: 12111 },
   test: { dir: process.env.DECANT_TEST_DATA_DIR ? resolve(process.env.DECANT_TEST_DATA_DIR) : join(DATA_DIR, "test"), dbPort: 3317, database: "decant_e2e", smtpPort: 2535, paymentsPort: 12121 },
+  // `npm run bench`: a server of its own, so a million benchmark ledger entries never meet the demo or test data.
+  bench: { dir: join(DATA_DIR, "bench"), dbPort: 3327, database: "decant_bench", smtpPort: 2545, paymentsPort: 12131, appPort: 4341 },
+};
+
+/** The variables that override a profile's database and app ports. */
+const PORT_VARIABLES = {
+  dev: { db: "DECANT_DB_PORT", app: "PORT" },
+  test: { db: "DECANT_TEST_DB_PORT", app: "DECANT_TEST_APP_PORT" },
+  bench: { db: "DECANT_BENCH_DB_PORT", app: "DECANT_BENCH_APP_PORT" },
 };
 
 const intFromEnv = (name, fallback) => {
@@ -21,12 +30,12 @@ const intFromEnv = (name, fallback) => {
 
 /**
  * Starts the private database for a profile and returns the environment the app and tools need.
- * @param {"dev" | "test"} profileName
+ * @param {"dev" | "test" | "bench"} profileName
  */
 export async function startDatabase(profileName) {
   const profile = PROFILES[profileName];
-  const dbPort = intFromEnv(profileName === "dev" ? "DECANT_DB_PORT" : "DECANT_TEST_DB_PORT", profile.dbPort);
-  const portVariable = profileName === "dev" ? "DECANT_DB_PORT" : "DECANT_TEST_DB_PORT";
+  const portVariable = PORT_VARIABLES[profileName].db;
+  const dbPort = intFromEnv(portVariable, profile.dbPort);
   const server = await startMariadb({ dataDir: join(profile.dir, "mariadb"), port: dbPort, portVariable });
   const mailbox = join(profile.dir, "mailbox");
   const uploads = join(profile.dir, "uploads");
@@ -40,7 +49,7 @@ export async function startDatabase(profileName) {
     PAYMENTS_WEBHOOK_SECRET: `whsec_${randomBytes(24).toString("hex")}`,
   });
   // The fake posts its signed events to the app's webhook route.
-  const appPort = profileName === "dev" ? process.env.PORT || 4321 : process.env.DECANT_TEST_APP_PORT || 4331;
+  const appPort = process.env[PORT_VARIABLES[profileName].app] || { dev: 4321, test: 4331, bench: profile.appPort }[profileName];
   const env = {
     DATABASE_HOST: "127.0.0.1",
     DATABASE_PORT: String(dbPort),

@@ -6,10 +6,14 @@ import * as preparation from "./migrations/2026.12.01T02.00.00.preparation";
 import * as ledgerDetails from "./migrations/2026.12.01T03.00.00.ledger-details";
 import * as billingDetails from "./migrations/2026.12.01T04.00.00.billing-details";
 import * as wasteRules from "./migrations/2026.12.01T05.00.00.waste-rules";
+import * as auditLogAppendOnly from "./migrations/2026.12.01T06.10.00.audit-log-append-only";
 import * as ledgerDaily from "./migrations/2026.12.01T09.00.00.ledger-daily";
+import * as ledgerSourceIndex from "./migrations/2026.12.01T09.10.00.ledger-source-index";
+import * as batchRoom from "./migrations/2026.12.01T11.00.00.batch-room";
 import * as demoFacility from "./seeders/2026.12.01T00.00.00.demo-facility";
 import * as demoPreparation from "./seeders/2026.12.01T02.00.00.demo-preparation";
 import * as wasteDemo from "./seeders/2026.12.01T05.00.00.waste-demo";
+import * as demoBatchRooms from "./seeders/2026.12.01T11.00.00.demo-batch-rooms";
 
 interface MigrationModule {
   up: RunnableMigration<QueryInterface>["up"];
@@ -25,13 +29,17 @@ export const MIGRATIONS: Record<string, MigrationModule> = {
   "2026.12.01T03.00.00.ledger-details.ts": ledgerDetails,
   "2026.12.01T04.00.00.billing-details.ts": billingDetails,
   "2026.12.01T05.00.00.waste-rules.ts": wasteRules,
+  "2026.12.01T06.10.00.audit-log-append-only.ts": auditLogAppendOnly,
   "2026.12.01T09.00.00.ledger-daily.ts": ledgerDaily,
+  "2026.12.01T09.10.00.ledger-source-index.ts": ledgerSourceIndex,
+  "2026.12.01T11.00.00.batch-room.ts": batchRoom,
 };
 
 export const SEEDERS: Record<string, MigrationModule> = {
   "2026.12.01T00.00.00.demo-facility.ts": demoFacility,
   "2026.12.01T02.00.00.demo-preparation.ts": demoPreparation,
   "2026.12.01T05.00.00.waste-demo.ts": wasteDemo,
+  "2026.12.01T11.00.00.demo-batch-rooms.ts": demoBatchRooms,
 };
 
 function umzugFor(sequelize: Sequelize, modules: Record<string, MigrationModule>, tableName: string) {

@@ -1,25 +1,22 @@
 /**
  * Throughput of the chemistry library's two hot paths. A plain script, not a
- * test: run it with `npx tsx tests/bench/chem.bench.ts`. Prints the median
- * solves per second over several rounds, for one core.
+ * test: `npm run bench -- chem` (or `npx tsx tests/bench/chem.bench.ts`).
+ * Prints the median solves per second over several rounds, for one core, and
+ * the same rate of a fixed reference kernel (plain floating-point arithmetic)
+ * measured alongside, so a slow or busy machine shows in the ratio.
  *
  * Targets (issue 4): solutionPH on a two-component phosphate buffer
  * ≥ 50,000 /s; designBuffer ≥ 5,000 /s.
  */
 import { designBuffer, solutionPH } from '../../src/lib/chem/index';
 import type { DesignBufferInput, SolutionPHInput } from '../../src/lib/chem/index';
+import { emit, row, stats } from './lib';
 
 const ROUNDS = 7;
 const ROUND_MS = 400;
 
-function median(xs: number[]): number {
-  const s = [...xs].sort((a, b) => a - b);
-  const m = Math.floor(s.length / 2);
-  return s.length % 2 === 1 ? (s[m] ?? 0) : ((s[m - 1] ?? 0) + (s[m] ?? 0)) / 2;
-}
-
-/** Runs `fn` in timed rounds; returns the median rate (calls per second). */
-function rate(fn: (i: number) => number): { median: number; min: number; max: number } {
+/** Runs `fn` in timed rounds after a warm-up; returns the rate (calls per second) of each round. */
+function rate(fn: (i: number) => number): number[] {
   let sink = 0;
   for (let i = 0; i < 2000; i++) sink += fn(i); // warm-up for the JIT
   const rates: number[] = [];
@@ -34,7 +31,14 @@ function rate(fn: (i: number) => number): { median: number; min: number; max: nu
     rates.push((n * 1000) / (t - t0));
   }
   if (!Number.isFinite(sink)) throw new Error('benchmark produced a non-finite result');
-  return { median: median(rates), min: Math.min(...rates), max: Math.max(...rates) };
+  return rates;
+}
+
+/** The reference kernel: 200 steps of Newton's method on a cubic, the shape of a charge-balance solve without the chemistry. */
+function reference(i: number): number {
+  let x = 1 + (i & 7);
+  for (let k = 0; k < 200; k++) x -= (x * x * x - 2 * x - 5) / (3 * x * x - 2);
+  return x;
 }
 
 // Vary the inputs a little so that nothing is served from a cache of identical calls.
@@ -53,8 +57,14 @@ const designInputs: DesignBufferInput[] = Array.from({ length: 64 }, (_, i) => (
 }));
 
 const fmt = (x: number) => Math.round(x).toLocaleString('en-US');
-const ph = rate((i) => solutionPH(phInputs[i & 63] as SolutionPHInput).pH);
-const design = rate((i) => designBuffer(designInputs[i & 63] as DesignBufferInput).pH);
+const ref = stats(rate(reference));
+const ph = stats(rate((i) => solutionPH(phInputs[i & 63] as SolutionPHInput).pH));
+const design = stats(rate((i) => designBuffer(designInputs[i & 63] as DesignBufferInput).pH));
 
+console.log(`reference kernel (200 Newton steps): median ${fmt(ref.median)} /s`);
 console.log(`solutionPH (KH2PO4 + Na2HPO4):  median ${fmt(ph.median)} solves/s  (min ${fmt(ph.min)}, max ${fmt(ph.max)}, ${ROUNDS} rounds; target ≥ 50,000)`);
 console.log(`designBuffer (KH2PO4/K2HPO4):   median ${fmt(design.median)} solves/s  (min ${fmt(design.min)}, max ${fmt(design.max)}, ${ROUNDS} rounds; target ≥ 5,000)`);
+emit([
+  row({ group: 'chemistry', figure: 'solutionPH, phosphate buffer', unit: 'solves/s', stats: ph, target: { op: '>=', value: 50_000 }, baseline: 'reference kernel /s', ratio: ph.median / ref.median }),
+  row({ group: 'chemistry', figure: 'designBuffer, phosphate pair', unit: 'solves/s', stats: design, target: { op: '>=', value: 5_000 }, baseline: 'reference kernel /s', ratio: design.median / ref.median }),
+]);

@@ -27,6 +27,9 @@ test("a technician prepares a batch from a demo recipe, records it and prints it
 
   await page.getByLabel("Bottles", { exact: true }).fill("3");
   await page.getByLabel("Bottle size (mL)").fill("1000");
+  // Kept in room: the first known room by default; this batch stands in the other lab.
+  await expect(page.getByLabel("Kept in room")).toHaveValue("B2.14");
+  await page.getByLabel("Kept in room").selectOption("B2.16");
   const pickLot = async (label: string, lot: string) => {
     const select = page.getByLabel(label);
     const value = await select.locator("option", { hasText: lot }).first().getAttribute("value");
@@ -44,6 +47,7 @@ test("a technician prepares a batch from a demo recipe, records it and prints it
   await expect(page.getByText("Batch recorded.")).toBeVisible();
   const code = (await page.getByRole("heading", { level: 1 }).innerText()).trim();
   expect(code).toMatch(/^B\d{2}-\d{4}(-\d+)?$/);
+  await expect(page.getByTestId("batch-room")).toHaveText("B2.16");
   const prepared = (await page.getByTestId("prepared-at").innerText()).slice(0, 10);
   const expires = (await page.getByTestId("expires-at").innerText()).slice(0, 10);
 

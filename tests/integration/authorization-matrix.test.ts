@@ -60,6 +60,7 @@ const allowed = (access: Extract<Access, { permission: string }>, role: Role) =>
 let samples: Samples;
 const sessions = new Map<Role, Client>();
 let sequelize: ReturnType<typeof createSequelize>;
+const createdStatements: number[] = [];
 
 beforeAll(async () => {
   sequelize = createSequelize(testEnv());
@@ -79,7 +80,30 @@ beforeAll(async () => {
     const [row] = await sequelize.query<{ id: number | string }>(`SELECT id FROM \`${table}\` ORDER BY id LIMIT 1`, { type: QueryTypes.SELECT }).catch(() => []);
     ids[kind] = row?.id ?? 999999;
   }
+  // An issued statement (with its invoice) of another organisation and one of the contact's own, in
+  // a period no other test bills, so the cross-organisation rows ask for records that really exist.
+  const foreignClient = await one<{ id: number; name: string; currency: string }>("SELECT id, name, currency FROM clients WHERE id <> :own ORDER BY kind = 'external' DESC, id LIMIT 1", { own: contact.client_id });
+  const ownClient = await one<{ id: number; currency: string }>("SELECT id, currency FROM clients WHERE id = :own", { own: contact.client_id });
+  const statementOf = async (clientId: number, currency: string, month: string) => {
+    await sequelize.query(
+      "INSERT INTO statements (client_id, period_start, period_end, status, `lines`, total_minor, currency, issued_at, created_at, updated_at) VALUES (:clientId, :start, :end, 'issued', '[]', 0, :currency, NOW(3), NOW(3), NOW(3))",
+      { replacements: { clientId, currency, start: `${month}-01`, end: `${month}-28` } },
+    );
+    const row = await one<{ id: number }>("SELECT id FROM statements WHERE client_id = :clientId AND period_start = :start", { clientId, start: `${month}-01` });
+    createdStatements.push(row.id);
+    return row.id;
+  };
+  const foreignStatementId = await statementOf(foreignClient.id, foreignClient.currency, "2019-02");
+  const ownStatementId = await statementOf(ownClient.id, ownClient.currency, "2019-03");
+  await sequelize.query("INSERT INTO invoices (statement_id, client_id, status, amount_minor, currency, created_at, updated_at) VALUES (:statement, :client, 'open', 0, :currency, NOW(3), NOW(3))", {
+    replacements: { statement: foreignStatementId, client: foreignClient.id, currency: foreignClient.currency },
+  });
+  const foreignInvoice = await one<{ id: number }>("SELECT id FROM invoices WHERE statement_id = :statement", { statement: foreignStatementId });
   samples = {
+    foreignStatementId,
+    foreignInvoiceId: foreignInvoice.id,
+    ownStatementId,
+    foreignClientName: foreignClient.name,
     ids,
     userId: user.id,
     messageId: message.id,
@@ -94,6 +118,10 @@ beforeAll(async () => {
 });
 
 afterAll(async () => {
+  if (createdStatements.length) {
+    await sequelize.query("DELETE FROM invoices WHERE statement_id IN (:ids)", { replacements: { ids: createdStatements } });
+    await sequelize.query("DELETE FROM statements WHERE id IN (:ids)", { replacements: { ids: createdStatements } });
+  }
   await sequelize?.close();
 });
 
@@ -204,13 +232,84 @@ describe("a client contact sees their own organisation only", () => {
   // The first project, batch, statement or invoice route by id adds a row to CROSS_ORGANISATION.
   const crossCases = Object.entries(CROSS_ORGANISATION).filter(([file]) => ROUTE_FILES.includes(file));
   if (crossCases.length > 0) {
-    it.each(crossCases)("%s: another organisation's record answers 403 or 404", async (file, check) => {
+    it.each(crossCases)("%s: another organisation's record answers 403 or 404, with none of its data", async (file, check) => {
       const rule = ROUTE_RULES[file]!;
-      const url = urlFor(file, { ...rule, params: check.params }, samples, "GET");
-      const response = await sessions.get("client")!.fetch(url);
-      expect([403, 404]).toContain(response.status);
-      const body = await response.text();
-      for (const secret of check.mustNotShow(samples)) expect(body).not.toContain(secret);
+      for (const method of Object.keys(rule.methods) as Method[]) {
+        const url = urlFor(file, { ...rule, params: check.params }, samples, method);
+        const init: RequestInit = method === "GET" ? {} : { method, headers: { "content-type": "application/json" }, body: "{}" };
+        const response = await sessions.get("client")!.fetch(url, init);
+        const body = await response.text();
+        expect([403, 404], `${method} ${url} → ${response.status} ${body.slice(0, 200)}`).toContain(response.status);
+        for (const secret of check.mustNotShow(samples)) expect(body, `${method} ${url} shows ${secret}`).not.toContain(secret);
+      }
+    });
+
+    it("the same routes do show the contact's own organisation's statement (the refusal above is scoping, not a blanket 404)", async () => {
+      const client = sessions.get("client")!;
+      const own = await client.fetch(`/api/statements/${samples.ownStatementId}`);
+      expect(own.status).toBe(200);
+      expect(((await own.json()) as { id: number }).id).toBe(samples.ownStatementId);
+      const page = await client.fetch(`/statements/${samples.ownStatementId}`);
+      expect(page.status).toBe(200);
+      const foreign = await client.fetch(`/api/statements/${samples.foreignStatementId}`);
+      expect(foreign.status).toBe(404);
+      // Staff see the other organisation's statement by the same id.
+      expect((await sessions.get("manager")!.fetch(`/api/statements/${samples.foreignStatementId}`)).status).toBe(200);
     });
   }
+});
+
+describe("session fixation: the session id before sign-in is never the one after", () => {
+  it("a cookie value an attacker planted is replaced by a new session, and the planted value opens nothing", async () => {
+    const planted = "decant_session=attackerchosenvalue0123456789abcdef";
+    const response = await fetch(`${process.env.E2E_BASE_URL}/api/auth/sign-in`, {
+      method: "POST",
+      headers: { "content-type": "application/json", cookie: planted },
+      body: JSON.stringify({ email: DEMO.technician, password: "decant-demo" }),
+    });
+    expect(response.status).toBe(200);
+    const issued = response.headers.get("set-cookie")?.split(";")[0] ?? "";
+    expect(issued).toMatch(/^decant_session=\w+/);
+    expect(issued).not.toBe(planted);
+    expect((await fetch(`${process.env.E2E_BASE_URL}/api/me`, { headers: { cookie: planted } })).status).toBe(401);
+    expect((await fetch(`${process.env.E2E_BASE_URL}/api/me`, { headers: { cookie: issued } })).status).toBe(200);
+  });
+
+  it("signing in over a live session ends that session and starts a new one", async () => {
+    const first = await client(DEMO.technician);
+    const before = first.cookie!;
+    const again = await first.fetch("/api/auth/sign-in", { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify({ email: DEMO.manager, password: "decant-demo" }) });
+    expect(again.status).toBe(200);
+    expect(first.cookie).not.toBe(before);
+    expect((await fetch(`${process.env.E2E_BASE_URL}/api/me`, { headers: { cookie: before } })).status).toBe(401);
+    const me = (await (await first.fetch("/api/me")).json()) as { email: string };
+    expect(me.email).toBe(DEMO.manager);
+  });
+});
+
+// Every state-changing method of every route, from the rule table (so new routes are covered),
+// posted from another site with an allowed role's cookie: refused before the route runs.
+const stateChanging = cases.filter((c) => c.method !== "GET" && !c.file.startsWith("api/webhooks/"));
+
+describe("CSRF: a cross-site request to a state-changing route is refused", () => {
+  it.each(stateChanging.map((c) => [`${c.method} ${c.file}`, c] as const))("%s", async (_name, { file, rule, method, access }) => {
+    const who: Role = "public" in access ? "admin" : (ROLES.find((r) => allowed(access, r)) ?? "admin");
+    const caller = sessions.get(who)!;
+    const url = urlFor(file, rule, samples, method);
+    for (const origin of ["http://evil.example", "null", "http://127.0.0.1.evil.example"]) {
+      for (const [type, body] of [["application/json", JSON.stringify(rule.body ?? {})], ["application/x-www-form-urlencoded", "a=1"], ["text/plain", "{}"]] as const) {
+        const response = await caller.fetch(url, { method, headers: { origin, "content-type": type }, body });
+        const text = await response.text();
+        expect(response.status, `${method} ${url} from ${origin} as ${type} → ${response.status} ${text.slice(0, 120)}`).toBe(403);
+        expect(text).toMatch(/Cross-site/);
+      }
+    }
+    // The caller's session is untouched: a refused request did not sign it out or change it.
+    expect((await caller.fetch("/api/me")).status).toBe(200);
+  });
+
+  it("the payments webhook is exempt from the origin check and refuses an unsigned event by its signature instead", async () => {
+    const response = await fetch(`${process.env.E2E_BASE_URL}/api/webhooks/payments`, { method: "POST", headers: { origin: "http://evil.example", "content-type": "application/json" }, body: "{}" });
+    expect(response.status).toBe(400);
+  });
 });

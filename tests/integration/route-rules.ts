@@ -23,6 +23,15 @@ export interface Samples {
   ownProjectCodes: string[];
   /** The lowest id of each kind of record (999999, which exists nowhere, when there is none). */
   ids: Record<SampleKind, number | string>;
+  /**
+   * An issued statement and its invoice of another organisation, and an issued statement of the
+   * client contact's own organisation (created by authorization-matrix.test.ts; 999999 elsewhere).
+   */
+  foreignStatementId?: number;
+  foreignInvoiceId?: number;
+  ownStatementId?: number;
+  /** The other organisation's name: must never appear for the client contact. */
+  foreignClientName?: string;
 }
 
 /** Tables that dynamic routes take ids from. */
@@ -64,6 +73,7 @@ export interface RouteRule {
 
 /** A statement / invoice id no test creates. */
 const NO_STATEMENT = 999_999;
+const foreignSecrets = (s: Samples) => [...s.foreignProjectCodes, ...(s.foreignClientName ? [s.foreignClientName] : [])];
 const need = (permission: Permission, own = false): Access => ({ permission, own });
 const open = (anonymous: number, signedIn = anonymous): Access => ({ public: true, anonymous, signedIn });
 
@@ -195,13 +205,17 @@ export const CROSS_ORGANISATION: Record<string, { params: (s: Samples) => Record
   "api/batches/[id]/index.ts": { params: (s) => ({ id: s.batchId }), mustNotShow: (s) => [s.batchCode] },
   "api/batches/[id]/label.pdf.ts": { params: (s) => ({ id: s.batchId }), mustNotShow: (s) => [s.batchCode, "%PDF"] },
   "batches/[id].astro": { params: (s) => ({ id: s.batchId }), mustNotShow: (s) => [s.batchCode] },
-  // The billing tests (tests/integration/billing.test.ts) check real statements of another organisation.
-  "statements/[id].astro": { params: () => ({ id: NO_STATEMENT }), mustNotShow: (s) => s.foreignProjectCodes },
-  "api/statements/[id]/index.ts": { params: () => ({ id: NO_STATEMENT }), mustNotShow: (s) => s.foreignProjectCodes },
-  "api/statements/[id]/statement.pdf.ts": { params: () => ({ id: NO_STATEMENT }), mustNotShow: (s) => s.foreignProjectCodes },
-  "api/statements/[id]/statement.csv.ts": { params: () => ({ id: NO_STATEMENT }), mustNotShow: (s) => s.foreignProjectCodes },
-  "api/statements/[id]/issue.ts": { params: () => ({ id: NO_STATEMENT }), mustNotShow: (s) => s.foreignProjectCodes },
-  "api/statements/[id]/invoice.ts": { params: () => ({ id: NO_STATEMENT }), mustNotShow: (s) => s.foreignProjectCodes },
-  "api/invoices/[id]/void.ts": { params: () => ({ id: NO_STATEMENT }), mustNotShow: (s) => s.foreignProjectCodes },
-  "api/invoices/[id]/uncollectible.ts": { params: () => ({ id: NO_STATEMENT }), mustNotShow: (s) => s.foreignProjectCodes },
+  // Real records of another organisation, created for the matrix: its statement and invoice.
+  "statements/[id].astro": { params: (s) => ({ id: s.foreignStatementId ?? NO_STATEMENT }), mustNotShow: (s) => foreignSecrets(s) },
+  "api/statements/[id]/index.ts": { params: (s) => ({ id: s.foreignStatementId ?? NO_STATEMENT }), mustNotShow: (s) => foreignSecrets(s) },
+  "api/statements/[id]/statement.pdf.ts": { params: (s) => ({ id: s.foreignStatementId ?? NO_STATEMENT }), mustNotShow: (s) => [...foreignSecrets(s), "%PDF"] },
+  "api/statements/[id]/statement.csv.ts": { params: (s) => ({ id: s.foreignStatementId ?? NO_STATEMENT }), mustNotShow: (s) => foreignSecrets(s) },
+  "api/statements/[id]/issue.ts": { params: (s) => ({ id: s.foreignStatementId ?? NO_STATEMENT }), mustNotShow: (s) => foreignSecrets(s) },
+  "api/statements/[id]/invoice.ts": { params: (s) => ({ id: s.foreignStatementId ?? NO_STATEMENT }), mustNotShow: (s) => foreignSecrets(s) },
+  "api/invoices/[id]/void.ts": { params: (s) => ({ id: s.foreignInvoiceId ?? NO_STATEMENT }), mustNotShow: (s) => foreignSecrets(s) },
+  "api/invoices/[id]/uncollectible.ts": { params: (s) => ({ id: s.foreignInvoiceId ?? NO_STATEMENT }), mustNotShow: (s) => foreignSecrets(s) },
+  // Projects, runs, methods and instruments by id are facility records; a client contact may read none.
+  "api/runs/[id].ts": { params: (s) => ({ id: s.ids.run }), mustNotShow: (s) => [...s.foreignProjectCodes, '"run"'] },
+  "runs/[id].astro": { params: (s) => ({ id: s.ids.run }), mustNotShow: (s) => s.foreignProjectCodes },
+  "api/stock-lots/[id]/certificate.ts": { params: (s) => ({ id: s.ids.stockLot }), mustNotShow: () => ["%PDF"] },
 };

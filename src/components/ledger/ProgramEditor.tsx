@@ -1,5 +1,5 @@
 import { useMemo, useState } from "react";
-import { solventUse } from "../../lib/chem";
+import { solventUse } from "../../lib/chem/solvent-use";
 import { formatVolume } from "../../lib/format";
 import { programChannels, rowsToProgram } from "../../lib/ledger/program";
 import { fieldErrors } from "../../lib/schemas/zod-error";

@@ -1,5 +1,6 @@
 import { useEffect, useMemo, useState } from "react";
-import { solventUse, type ProgramPoint } from "../../lib/chem";
+// The module itself, not the chem index, which would ship the reagent catalogue to this page.
+import { solventUse, type ProgramPoint } from "../../lib/chem/solvent-use";
 import { formatVolume } from "../../lib/format";
 import { programChannels } from "../../lib/ledger/program";
 import { CHANNELS } from "../../lib/schemas/fields";

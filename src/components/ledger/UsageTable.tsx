@@ -1,11 +1,33 @@
 import { useEffect, useMemo, useState } from "react";
 import type { UsageRow } from "../../lib/server/services/usage";
+import type { GroupedUsageRow } from "../../lib/server/services/usage-groups";
+import { USAGE_GROUPINGS, type UsageGrouping } from "../../lib/ledger/usage-groupings";
 import { formatMoney } from "../../lib/billing/money";
 import { csvField } from "../../lib/imports/csv";
 import { formatVolume } from "../../lib/format";
 
-type Row = UsageRow;
-type SortKey = "projectCode" | "clientName" | "runs" | "injections" | "total" | "cost";
+/** One row of any grouping, in one shape for the table. */
+interface Row {
+  key: string;
+  label: string;
+  detail: string;
+  volumes_mL: Record<string, number>;
+  masses_g: Record<string, number>;
+  mobilePhases_mL: Record<string, number>;
+  runs: number | null;
+  injections: number | null;
+  costs: { amount: number; currency: string }[];
+  uncosted: string[];
+}
+type SortKey = "label" | "detail" | "runs" | "injections" | "total" | "cost";
+
+const GROUP_LABEL: Record<UsageGrouping, string> = { project: "Project", client: "Client", instrument: "Instrument", reagent: "Reagent", month: "Month" };
+const fromProject = (r: UsageRow & { mobilePhases_mL?: Record<string, number> }): Row => ({
+  key: r.projectCode, label: r.projectCode, detail: `${r.projectName} · ${r.clientName}`, volumes_mL: r.volumes_mL, masses_g: r.masses_g, mobilePhases_mL: r.mobilePhases_mL ?? {},
+  runs: r.runs, injections: r.injections, costs: [r.cost], uncosted: r.uncosted,
+});
+const fromGroup = (r: GroupedUsageRow): Row => ({ key: r.key, label: r.label, detail: "", volumes_mL: r.volumes_mL, masses_g: r.masses_g, mobilePhases_mL: r.mobilePhases_mL, runs: r.runs, injections: r.injections, costs: r.costs, uncosted: r.uncosted });
+const costOf = (r: Row) => r.costs.reduce((a, c) => a + c.amount, 0);
 
 const total = (r: Row) => Object.values(r.volumes_mL).reduce((a, b) => a + b, 0);
 // The last 30 days by default: "the month so far" is empty on the first of a month.
@@ -13,35 +35,37 @@ const thirtyDaysAgo = () => new Date(Date.now() - 29 * 86_400_000).toISOString()
 const today = () => new Date().toISOString().slice(0, 10);
 
 /** Usage per project for a period, fetched from GET /api/usage: sortable, filterable, with a chart and CSV export. */
-export default function UsageTable({ initialFrom, initialTo }: { initialFrom?: string; initialTo?: string }) {
+export default function UsageTable({ initialFrom, initialTo, initialGroupBy }: { initialFrom?: string; initialTo?: string; initialGroupBy?: UsageGrouping }) {
   const [from, setFrom] = useState(initialFrom ?? thirtyDaysAgo());
   const [to, setTo] = useState(initialTo ?? today());
-  const [state, setState] = useState<{ kind: "loading" } | { kind: "error"; message: string } | { kind: "ready"; rows: Row[] }>({ kind: "loading" });
+  const [groupBy, setGroupBy] = useState<UsageGrouping>(initialGroupBy ?? "project");
+  const [state, setState] = useState<{ kind: "loading" } | { kind: "error"; message: string } | { kind: "ready"; rows: Row[]; phases: Record<string, string>; groupBy: UsageGrouping }>({ kind: "loading" });
   const [filter, setFilter] = useState("");
   const [sort, setSort] = useState<{ key: SortKey; desc: boolean }>({ key: "total", desc: true });
 
   useEffect(() => {
     let live = true;
     setState({ kind: "loading" });
-    window.history.replaceState(null, "", `?from=${from}&to=${to}`);
-    fetch(`/api/usage?from=${from}&to=${to}&groupBy=project`)
+    window.history.replaceState(null, "", `?from=${from}&to=${to}${groupBy === "project" ? "" : `&groupBy=${groupBy}`}`);
+    fetch(`/api/usage?from=${from}&to=${to}&groupBy=${groupBy}&phases=1`)
       .then(async (r) => {
-        const body = (await r.json().catch(() => ({}))) as { rows?: Row[]; error?: string };
+        const body = (await r.json().catch(() => ({}))) as { rows?: (UsageRow | GroupedUsageRow)[]; mobilePhases?: Record<string, string>; error?: string };
         if (!r.ok) throw new Error(body.error ?? `The usage could not be loaded (${r.status}).`);
-        if (live) setState({ kind: "ready", rows: body.rows ?? [] });
+        const rows = (body.rows ?? []).map((r) => (groupBy === "project" ? fromProject(r as UsageRow) : fromGroup(r as GroupedUsageRow)));
+        if (live) setState({ kind: "ready", rows, phases: body.mobilePhases ?? {}, groupBy });
       })
       .catch((error: unknown) => live && setState({ kind: "error", message: error instanceof Error ? error.message : String(error) }));
     return () => {
       live = false;
     };
-  }, [from, to]);
+  }, [from, to, groupBy]);
 
   const rows = useMemo(() => {
     if (state.kind !== "ready") return [];
     const f = filter.trim().toLowerCase();
-    const value = (r: Row): string | number => (sort.key === "total" ? total(r) : sort.key === "cost" ? r.cost.amount : r[sort.key]);
+    const value = (r: Row): string | number => (sort.key === "total" ? total(r) : sort.key === "cost" ? costOf(r) : (r[sort.key] ?? 0));
     return state.rows
-      .filter((r) => !f || `${r.projectCode} ${r.projectName} ${r.clientName}`.toLowerCase().includes(f))
+      .filter((r) => !f || `${r.key} ${r.label} ${r.detail} ${Object.keys(r.volumes_mL).join(" ")} ${Object.keys(r.mobilePhases_mL).join(" ")}`.toLowerCase().includes(f))
       .sort((a, b) => {
         const [x, y] = [value(a), value(b)];
         const c = typeof x === "number" && typeof y === "number" ? x - y : String(x).localeCompare(String(y));
@@ -49,15 +73,18 @@ export default function UsageTable({ initialFrom, initialTo }: { initialFrom?: s
       });
   }, [state, filter, sort]);
   const reagents = useMemo(() => [...new Set(rows.flatMap((r) => Object.keys(r.volumes_mL)))].sort(), [rows]);
+  const phases = useMemo(() => [...new Set(rows.flatMap((r) => Object.keys(r.mobilePhases_mL)))].sort(), [rows]);
+  const shown = state.kind === "ready" ? state.groupBy : groupBy;
+  const phaseName = (code: string) => (state.kind === "ready" ? state.phases[code] : undefined) ?? code;
   const max = Math.max(1, ...rows.map(total));
 
   function exportCsv() {
-    const header = ["project", "project_name", "client", "runs", "injections", ...reagents.map((r) => `${r}_mL`), "total_mL", "cost_minor", "currency"];
-    const lines = rows.map((r) => [r.projectCode, r.projectName, r.clientName, r.runs, r.injections, ...reagents.map((x) => r.volumes_mL[x] ?? 0), total(r).toFixed(4), r.cost.amount, r.cost.currency].map(csvField).join(","));
+    const header = [shown, `${shown}_name`, "detail", "runs", "injections", ...reagents.map((r) => `${r}_mL`), ...phases.map((p) => `phase_${p}_mL`), "total_mL", "cost_minor", "currency"];
+    const lines = rows.map((r) => [r.key, r.label, r.detail, r.runs ?? "", r.injections ?? "", ...reagents.map((x) => r.volumes_mL[x] ?? 0), ...phases.map((p) => r.mobilePhases_mL[p] ?? 0), total(r).toFixed(4), r.costs.map((c) => c.amount).join(" "), r.costs.map((c) => c.currency).join(" ")].map(csvField).join(","));
     const blob = new Blob([[header.join(","), ...lines].join("\r\n") + "\r\n"], { type: "text/csv" });
     const a = document.createElement("a");
     a.href = URL.createObjectURL(blob);
-    a.download = `decant-usage-${from}-to-${to}.csv`;
+    a.download = `decant-usage-by-${shown}-${from}-to-${to}.csv`;
     a.click();
     URL.revokeObjectURL(a.href);
   }
@@ -75,7 +102,13 @@ export default function UsageTable({ initialFrom, initialTo }: { initialFrom?: s
       <form className="card flex flex-wrap items-end gap-4 p-4" aria-label="Period" onSubmit={(e) => e.preventDefault()}>
         <div className="field"><label htmlFor="usage-from">From</label><input id="usage-from" type="date" className="input" value={from} max={to} onChange={(e) => e.target.value && setFrom(e.target.value)} /></div>
         <div className="field"><label htmlFor="usage-to">To (included)</label><input id="usage-to" type="date" className="input" value={to} min={from} onChange={(e) => e.target.value && setTo(e.target.value)} /></div>
-        <div className="field"><label htmlFor="usage-filter">Filter</label><input id="usage-filter" className="input" placeholder="project or client" value={filter} onChange={(e) => setFilter(e.target.value)} /></div>
+        <div className="field">
+          <label htmlFor="usage-group">Group by</label>
+          <select id="usage-group" className="input" value={groupBy} onChange={(e) => { setGroupBy(e.target.value as UsageGrouping); setSort({ key: "total", desc: true }); }}>
+            {USAGE_GROUPINGS.map((g) => <option key={g} value={g}>{GROUP_LABEL[g]}</option>)}
+          </select>
+        </div>
+        <div className="field"><label htmlFor="usage-filter">Filter</label><input id="usage-filter" className="input" placeholder="name, reagent or mobile phase" value={filter} onChange={(e) => setFilter(e.target.value)} /></div>
         <button type="button" className="btn btn-quiet" onClick={exportCsv} disabled={rows.length === 0}>Export CSV</button>
       </form>
       {state.kind === "loading" && <p className="text-sm text-[var(--color-muted)]" role="status">Loading the usage…</p>}
@@ -84,42 +117,46 @@ export default function UsageTable({ initialFrom, initialTo }: { initialFrom?: s
       {rows.length > 0 && (
         <>
           <div className="card overflow-x-auto">
-            <table className="table" aria-label="Usage per project">
+            <table className="table" aria-label={`Usage per ${GROUP_LABEL[shown].toLowerCase()}`}>
               <thead>
                 <tr>
-                  {header("projectCode", "Project")}
-                  {header("clientName", "Client")}
-                  {header("runs", "Runs", true)}
-                  {header("injections", "Injections", true)}
+                  {header("label", GROUP_LABEL[shown])}
+                  {shown === "project" && header("detail", "Project · client")}
+                  {shown !== "reagent" && header("runs", "Runs", true)}
+                  {shown !== "reagent" && header("injections", "Injections", true)}
                   <th scope="col">Reagents</th>
+                  <th scope="col">Mobile phases</th>
                   {header("total", "Volume", true)}
                   {header("cost", "Cost", true)}
                 </tr>
               </thead>
               <tbody>
                 {rows.map((r) => (
-                  <tr key={r.projectCode} data-project={r.projectCode}>
-                    <td><code>{r.projectCode}</code><div className="text-xs text-[var(--color-muted)]">{r.projectName}</div></td>
-                    <td>{r.clientName}</td>
-                    <td className="num">{r.runs}</td>
-                    <td className="num">{r.injections}</td>
+                  <tr key={r.key} data-project={shown === "project" ? r.key : undefined} data-group={r.key}>
+                    <td>{shown === "project" || shown === "month" ? <code>{r.label}</code> : r.label}</td>
+                    {shown === "project" && <td className="text-sm">{r.detail}</td>}
+                    {shown !== "reagent" && <td className="num">{r.runs}</td>}
+                    {shown !== "reagent" && <td className="num">{r.injections}</td>}
                     <td className="text-xs">
                       {Object.entries(r.volumes_mL).filter(([, v]) => v !== 0).map(([id, v]) => <div key={id}>{id}: <span className="num">{formatVolume(v)}</span></div>)}
                       {Object.entries(r.masses_g).filter(([, g]) => g !== 0).map(([id, g]) => <div key={id}>{id}: <span className="num">{g.toFixed(3)} g</span></div>)}
                     </td>
+                    <td className="text-xs" data-testid="usage-phases">
+                      {Object.entries(r.mobilePhases_mL).filter(([, v]) => v !== 0).map(([code, v]) => <div key={code} title={phaseName(code)}>{code === "none" ? "not from a batch" : code}: <span className="num">{formatVolume(v)}</span></div>)}
+                    </td>
                     <td className="num" data-testid="usage-total">{formatVolume(total(r))}</td>
-                    <td className="num">{formatMoney(r.cost)}{r.uncosted.length > 0 && <div className="text-xs text-[var(--color-amber)]" title={`No rate for ${r.uncosted.join(", ")}`}>+ uncosted</div>}</td>
+                    <td className="num">{r.costs.map((c) => <div key={c.currency}>{formatMoney(c)}</div>)}{r.uncosted.length > 0 && <div className="text-xs text-[var(--color-amber)]" title={`No rate for ${r.uncosted.join(", ")}`}>+ uncosted</div>}</td>
                   </tr>
                 ))}
               </tbody>
             </table>
           </div>
           <figure className="card m-0 p-4">
-            <figcaption className="mb-2 text-sm font-semibold">Volume per project, {from} to {to}</figcaption>
-            <svg viewBox={`0 0 600 ${rows.length * 26 + 8}`} width="100%" role="img" aria-label="Bar chart of the volume per project">
+            <figcaption className="mb-2 text-sm font-semibold">Volume per {GROUP_LABEL[shown].toLowerCase()}, {from} to {to}</figcaption>
+            <svg viewBox={`0 0 600 ${rows.length * 26 + 8}`} width="100%" role="img" aria-label={`Bar chart of the volume per ${GROUP_LABEL[shown].toLowerCase()}`}>
               {rows.map((r, i) => (
-                <g key={r.projectCode} transform={`translate(0 ${i * 26 + 4})`}>
-                  <text x="0" y="15" fontSize="11" fill="#1c2733" fontFamily="IBM Plex Mono, monospace">{r.projectCode}</text>
+                <g key={r.key} transform={`translate(0 ${i * 26 + 4})`}>
+                  <text x="0" y="15" fontSize="11" fill="#1c2733" fontFamily="IBM Plex Mono, monospace">{r.label.length > 18 ? `${r.label.slice(0, 17)}…` : r.label}</text>
                   <rect x="120" y="3" height="16" width={Math.max(1, (total(r) / max) * 380)} fill="#145f66" rx="2" />
                   <text x={126 + (total(r) / max) * 380} y="15" fontSize="11" fill="#4a5663">{formatVolume(total(r))}</text>
                 </g>

@@ -28,6 +28,8 @@ interface Props {
   tolerances: Tolerances;
   expiryRules: ExpiryRule[];
   initialRecipeVersionId?: number | null;
+  /** Rooms a batch may be kept in (instruments, stock lots, flammables limits); the first is the default. */
+  rooms?: string[];
 }
 
 type VolumeUnit = "ml" | "l";
@@ -46,13 +48,14 @@ function fmt(n: number, digits = 4): string {
   return n.toFixed(d);
 }
 
-export default function PreparationForm({ recipes, lots, tolerances, expiryRules, initialRecipeVersionId }: Props) {
+export default function PreparationForm({ recipes, lots, tolerances, expiryRules, initialRecipeVersionId, rooms = [] }: Props) {
   const key = useRef(newKey());
   const first = recipes.find((r) => r.versionId === initialRecipeVersionId) ?? recipes[0];
   const form = useZodForm<BatchCreateInput>(batchCreateSchema, {
     defaultValues: {
       idempotencyKey: key.current, recipeVersionId: first?.versionId ?? 0, volume_mL: 1000, bottles: 1, bottleSize_mL: 1000, temperature_C: 22,
       measuredPH: null, phMeterTemperature_C: null, components: [], deviationReason: "",
+      ...(rooms[0] !== undefined ? { room: rooms[0] } : {}),
     },
   });
   const { register, watch, setValue, handleSubmit, formState } = form;
@@ -190,6 +193,15 @@ export default function PreparationForm({ recipes, lots, tolerances, expiryRules
               <input id="prep-bottle-size" className="input" inputMode="numeric" {...register("bottleSize_mL", { valueAsNumber: true })} />
               {errors.bottleSize_mL ? <p className="field-error" role="alert">{errors.bottleSize_mL.message}</p> : perBottle > 0 && <p className="text-xs text-[var(--color-muted)]">{fmt(perBottle)} mL in each bottle</p>}
             </div>
+            {rooms.length > 0 && (
+              <div className="field">
+                <label htmlFor="prep-room">Kept in room</label>
+                <select id="prep-room" className="input" {...register("room")}>
+                  {rooms.map((r) => <option key={r} value={r}>{r}</option>)}
+                </select>
+                {errors.room ? <p className="field-error" role="alert">{errors.room.message}</p> : <p className="text-xs text-[var(--color-muted)]">Counted in the room's flammable liquids on hand</p>}
+              </div>
+            )}
           </div>
         </section>
 

@@ -20,26 +20,46 @@ export interface LabelFonts {
   bold: PDFFont;
 }
 
+// Per font (by name: every label PDF embeds the same two fonts), kept across documents, so a
+// warm label costs drawing rather than fontkit's text layout.
+const characterSets = new Map<string, Set<number>>();
+const unitWidths = new Map<string, Map<string, number>>();
+const MAX_CACHED_WIDTHS = 50_000;
+
 /** Replaces characters the embedded subset lacks, so that nothing prints as an empty box. */
 export function sanitizer(font: PDFFont) {
-  const known = new Set(font.getCharacterSet());
+  let known = characterSets.get(font.name);
+  if (!known) {
+    known = new Set(font.getCharacterSet());
+    characterSets.set(font.name, known);
+  }
+  const set = known;
   return (text: string) =>
     Array.from(text.normalize("NFC"))
-      .map((ch) => (known.has(ch.codePointAt(0)!) ? ch : ch === "≥" ? ">=" : ch === "≤" ? "<=" : "?"))
+      .map((ch) => (set.has(ch.codePointAt(0)!) ? ch : ch === "≥" ? ">=" : ch === "≤" ? "<=" : "?"))
       .join("");
 }
 
 export function measurerFor(fonts: LabelFonts): Measurer {
   const clean = sanitizer(fonts.regular);
   // Advance widths scale linearly with size, so each string is measured once (fontkit layout is slow).
-  const cache = new Map<string, number>();
+  const cacheOf = (font: PDFFont) => {
+    let cache = unitWidths.get(font.name);
+    if (!cache) {
+      cache = new Map();
+      unitWidths.set(font.name, cache);
+    }
+    return cache;
+  };
+  const caches = { regular: cacheOf(fonts.regular), bold: cacheOf(fonts.bold) };
   return {
     width(text, size, bold) {
-      const key = `${bold ? 1 : 0}${text}`;
-      let unit = cache.get(key);
+      const cache = bold ? caches.bold : caches.regular;
+      let unit = cache.get(text);
       if (unit === undefined) {
         unit = (bold ? fonts.bold : fonts.regular).widthOfTextAtSize(clean(text), 1000) / 1000;
-        cache.set(key, unit);
+        if (cache.size >= MAX_CACHED_WIDTHS) cache.clear();
+        cache.set(text, unit);
       }
       return unit * size;
     },

@@ -11,6 +11,7 @@ export const instrumentSchema = z.object({
   channels: z
     .array(z.enum(CHANNELS, { errorMap: () => ({ message: "channels are A, B, C or D" }) }))
     .min(1, "Choose at least one channel")
+    .max(4, "channels are A, B, C or D")
     .refine((v) => new Set(v).size === v.length, "each channel once"),
   /** The waste container the system drains to now. */
   wasteContainerId: optionalId().nullable().default(null),

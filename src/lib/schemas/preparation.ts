@@ -29,7 +29,7 @@ export const preparationSettingsSchema = z
   });
 export type PreparationSettings = z.infer<typeof preparationSettingsSchema>;
 
-const amount = z.preprocess((v) => (v === "" || v === null || v === undefined || (typeof v === "number" && Number.isNaN(v)) ? null : v), z.coerce.number({ invalid_type_error: "Give a number" }).min(0, "Cannot be negative").nullable());
+const amount = z.preprocess((v) => (v === "" || v === null || v === undefined || (typeof v === "number" && Number.isNaN(v)) ? null : v), z.coerce.number({ invalid_type_error: "Give a number" }).min(0, "Cannot be negative").max(1_000_000, "At most 1,000,000 (1,000 L or kg)").nullable());
 
 /** `POST /api/batches`: what the preparation form sends. Targets are recomputed on the server. */
 export const batchCreateSchema = z
@@ -47,15 +47,18 @@ export const batchCreateSchema = z
     components: z
       .array(
         z.object({
-          reagent: z.string().min(1),
+          reagent: z.string().min(1).max(64),
           /** The stock lot it came from; required for every component. */
           stockLotId: z.coerce.number({ invalid_type_error: "Pick the lot used" }).int().positive("Pick the lot used"),
           /** What was actually weighed or measured, in mL (liquids) or g (solids). */
           actualAmount: amount.optional(),
         }),
       )
-      .min(1, "List the components"),
+      .min(1, "List the components")
+      .max(30, "At most 30 components"),
     deviationReason: z.string().trim().max(500, "At most 500 characters").optional(),
+    /** The room the batch is kept in (counted in its flammables on hand); the first known room when left out. */
+    room: z.preprocess((v) => (v === "" || v === null ? undefined : v), z.string().trim().min(1).max(40, "At most 40 characters").optional()),
   })
   .strict()
   .superRefine((b, ctx) => {

@@ -2,7 +2,7 @@ import { z } from "zod";
 import { ADDITIVE_UNITS, getReagent } from "../chem";
 
 const reagentId = (what: string) =>
-  z.string({ required_error: `Pick a ${what}` }).min(1, `Pick a ${what}`).refine((id) => getReagent(id) !== undefined, { message: `Unknown ${what}` });
+  z.string({ required_error: `Pick a ${what}` }).min(1, `Pick a ${what}`).max(64, `Unknown ${what}`).refine((id) => getReagent(id) !== undefined, { message: `Unknown ${what}` });
 
 /** The mobile-phase specification of one recipe version (stored as JSON, snapshotted into each batch). */
 export const recipeSpecSchema = z
@@ -25,7 +25,7 @@ export const recipeSpecSchema = z
       .optional(),
     /** Additives per litre of the finished mix. */
     additives: z
-      .array(z.object({ reagent: reagentId("additive"), amount: z.coerce.number({ invalid_type_error: "Give an amount" }).positive("More than 0"), unit: z.enum(ADDITIVE_UNITS) }))
+      .array(z.object({ reagent: reagentId("additive"), amount: z.coerce.number({ invalid_type_error: "Give an amount" }).positive("More than 0").max(1_000_000, "That amount is implausibly large"), unit: z.enum(ADDITIVE_UNITS) }))
       .max(6)
       .default([]),
     /** Contains something that degrades quickly (shortest expiry rule applies). */

@@ -7,7 +7,7 @@ const blankToUndefined = (v: unknown) => (v === "" || v === null ? undefined : v
 /** A stock lot as received (multipart form fields of `POST /api/stock-lots`). */
 export const stockLotInputSchema = z
   .object({
-    reagent: z.string({ required_error: "Pick the reagent" }).min(1, "Pick the reagent").refine((id) => getReagent(id) !== undefined, "Unknown reagent"),
+    reagent: z.string({ required_error: "Pick the reagent" }).min(1, "Pick the reagent").max(64, "Unknown reagent").refine((id) => getReagent(id) !== undefined, "Unknown reagent"),
     lotNumber: z.string({ required_error: "Give the lot number" }).trim().min(1, "Give the lot number").max(64, "At most 64 characters"),
     supplier: z.string({ required_error: "Name the supplier" }).trim().min(1, "Name the supplier").max(120),
     grade: z.string({ required_error: "Give the grade" }).trim().min(1, "Give the grade, e.g. HPLC or LC-MS").max(40),

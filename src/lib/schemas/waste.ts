@@ -130,7 +130,7 @@ export const routeCheckSchema = z
     containerId: z.coerce.number().int().positive(),
     /** The mix: liquids in mL, solids in g. */
     parts: z
-      .array(z.object({ reagentId: z.string().min(1).max(64), volume_mL: z.number().min(0).optional(), mass_g: z.number().min(0).optional() }).strict())
+      .array(z.object({ reagentId: z.string().min(1).max(64), volume_mL: z.number().min(0).max(1_000_000, "at most 1,000 L").optional(), mass_g: z.number().min(0).max(1_000_000, "at most 1,000 kg").optional() }).strict())
       .min(1, "give at least one part of the mix")
       .max(50),
   })

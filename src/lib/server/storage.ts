@@ -5,7 +5,7 @@
  * an object store is the only change needed to run several app instances without shared disk.
  */
 import { randomBytes } from "node:crypto";
-import { mkdir, readFile, writeFile } from "node:fs/promises";
+import { mkdir, readFile, rm, writeFile } from "node:fs/promises";
 import { dirname, isAbsolute, join, resolve, sep } from "node:path";
 import { getEnv } from "./env";
 import { HttpError } from "./http";
@@ -72,4 +72,9 @@ export async function readUpload(key: string): Promise<Buffer> {
     if (error instanceof HttpError) throw error;
     throw new HttpError(404, "The file is no longer in storage.");
   }
+}
+
+/** Removes a stored file; used when the record it belonged to was not written after all. */
+export async function removeUpload(key: string): Promise<void> {
+  await rm(pathOf(key), { force: true });
 }

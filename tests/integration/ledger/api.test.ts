@@ -54,11 +54,29 @@ describe("GET /api/usage", () => {
     expect(all.rows.length).toBeGreaterThan(rows.length);
   });
 
+  it.each(["client", "instrument", "reagent", "month"])("groupBy=%s: a client contact's totals are their own organisation's, the manager's everyone's", async (groupBy) => {
+    const period = `from=${isoDay(new Date(Date.now() - 95 * DAY))}&to=${isoDay(new Date())}`;
+    const sumOf = (rows: { volumes_mL: Record<string, number> }[]) => rows.reduce((a, r) => a + Object.values(r.volumes_mL).reduce((x, y) => x + y, 0), 0);
+    const [own, all] = await sequelize.query<{ own: string; all: string }>(
+      `SELECT SUM(IF(p.client_id = u.client_id, l.volume_ml, 0)) AS own, SUM(l.volume_ml) AS \`all\` FROM ledger_entries l JOIN projects p ON p.id = l.project_id
+         JOIN users u ON u.email = 'client@demo.test' WHERE l.occurred_at >= ? AND l.occurred_at < ? + INTERVAL 1 DAY`,
+      { type: QueryTypes.SELECT, replacements: [isoDay(new Date(Date.now() - 95 * DAY)), isoDay(new Date())] },
+    ).then((r) => [Number(r[0]!.own), Number(r[0]!.all)]);
+    const contact = await (await client("client@demo.test")).fetch(`/api/usage?${period}&groupBy=${groupBy}`);
+    expect(contact.status).toBe(200);
+    const mine = (await contact.json()) as { groupBy: string; rows: { key: string; volumes_mL: Record<string, number> }[] };
+    expect(mine.groupBy).toBe(groupBy);
+    expect(sumOf(mine.rows)).toBeCloseTo(own!, 2);
+    const manager = (await (await (await client("manager@demo.test")).fetch(`/api/usage?${period}&groupBy=${groupBy}`)).json()) as { rows: { volumes_mL: Record<string, number> }[] };
+    expect(sumOf(manager.rows)).toBeCloseTo(all!, 2);
+    expect(all!).toBeGreaterThan(own!);
+  });
+
   it.each([
     ["from=2026-13-01&to=2026-12-31", /from: /],
     ["from=2026-12-01", /to: /],
     ["from=2026-12-10&to=2026-12-01", /to: must not be before from/],
-    ["from=2026-12-01&to=2026-12-31&groupBy=colour", /groupBy: must be project/],
+    ["from=2026-12-01&to=2026-12-31&groupBy=colour", /groupBy: must be one of project, client, instrument, reagent, month/],
   ])("answers 400 naming the field for %s", async (query, message) => {
     const manager = await client("manager@demo.test");
     const response = await manager.fetch(`/api/usage?${query}`);

@@ -459,9 +459,10 @@ async function issueLocked(statement: Statement, client: Client, expectedTotal: 
   if (expectedTotal !== undefined && expectedTotal !== computation.total_minor) {
     throw new HttpError(409, `expectedTotal_minor: the ledger changed since this draft was opened; the total is now ${formatMoney({ amount: computation.total_minor, currency: client.currency })}. Review it again.`, { total_minor: computation.total_minor });
   }
+  const before = { status: statement.status, total_minor: statement.totalMinor };
   await statement.update({ status: "issued", lines: computation.lines, totalMinor: computation.total_minor, issuedAt: now, issuedBy: actor.id }, { transaction });
   await PeriodLock.create({ clientId: client.id, periodStart: String(statement.periodStart), periodEnd: String(statement.periodEnd), statementId: statement.id }, { transaction });
-  await recordAudit({ actorId: actor.id, action: "statement.issue", entity: "statement", entityId: statement.id, ip, after: { total_minor: computation.total_minor, currency: client.currency, lines: computation.lines.length } }, transaction);
+  await recordAudit({ actorId: actor.id, action: "statement.issue", entity: "statement", entityId: statement.id, ip, before, after: { status: "issued", total_minor: computation.total_minor, currency: client.currency, lines: computation.lines.length } }, transaction);
 }
 
 /** Issues an internal client's chargeback statement (or an external one without invoicing it). */

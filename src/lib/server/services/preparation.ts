@@ -64,6 +64,8 @@ export interface BatchDetail {
   expiryReason: string | null;
   preparedBy: string;
   status: BottleStatus;
+  /** The room the batch is kept in; null for batches recorded before rooms were asked for. */
+  room: string | null;
   expired: boolean;
   deviations: Deviation[];
   deviationReason: string | null;
@@ -102,6 +104,27 @@ function pairComponents(planned: readonly PlannedComponent[], given: BatchCreate
     used.add(index);
     return { planned: p, given: given[index]!, index };
   });
+}
+
+/**
+ * The rooms Decant knows, sorted: those of the instruments, the stock lots and the flammables
+ * room limits. The preparation form offers them for "Kept in room"; the first is the default.
+ */
+export async function knownRooms(): Promise<string[]> {
+  const rows = await sql().query<{ room: string | null }>(
+    `SELECT room FROM instruments WHERE active = 1 UNION SELECT room FROM stock_lots UNION SELECT room FROM batches`,
+    { type: QueryTypes.SELECT },
+  );
+  const [limits] = await sql().query<{ value: unknown }>("SELECT value FROM settings WHERE `key` = 'flammables.roomLimit_L'", { type: QueryTypes.SELECT });
+  let limitRooms: string[] = [];
+  try {
+    const value = typeof limits?.value === "string" ? JSON.parse(limits.value) : limits?.value;
+    if (value && typeof value === "object" && !Array.isArray(value)) limitRooms = Object.keys(value);
+  } catch {
+    limitRooms = [];
+  }
+  const rooms = new Set([...rows.map((r) => r.room), ...limitRooms].filter((r): r is string => typeof r === "string" && r.trim() !== "").map((r) => r.trim()));
+  return [...rooms].sort((a, b) => a.localeCompare(b));
 }
 
 export async function recordBatch(input: BatchCreateInput, actor: SignedInUser, ip: string | null = null, now = new Date()): Promise<RecordedBatch> {
@@ -145,6 +168,12 @@ export async function recordBatch(input: BatchCreateInput, actor: SignedInUser, 
     components: pairs.map(({ planned, given }) => ({ name: planned.name, unit: planned.unit, target: planned.target, actual: given.actualAmount ?? null })),
   });
   const reason = input.deviationReason?.trim() ?? "";
+  const rooms = await knownRooms();
+  if (input.room !== undefined && !rooms.includes(input.room)) {
+    const message = `No room "${input.room}" is known; pick one of ${rooms.join(", ") || "the rooms of the instruments and stock lots"}`;
+    throw new HttpError(400, `room: ${message}`, { fields: { room: message } });
+  }
+  const room = input.room ?? rooms[0] ?? null;
   if (deviations.length > 0 && reason.length < 5) {
     throw new HttpError(400, `deviationReason: outside tolerance (${deviations.map((d) => d.message).join("; ")}); give a reason to record the batch anyway`, {
       fields: { deviationReason: "Give a reason for the deviation" }, deviations,
@@ -179,7 +208,7 @@ export async function recordBatch(input: BatchCreateInput, actor: SignedInUser, 
     for (let attempt = 1; ; attempt++) {
       try {
         await sql().transaction(async (transaction) => {
-          batchId = await insertBatch(input, snapshot, expiry, deviations, reason, actor, now, transaction);
+          batchId = await insertBatch({ ...input, room: room ?? undefined }, snapshot, expiry, deviations, reason, actor, now, transaction);
           await ensureCatalogueRows(pairs.map((p) => p.planned.reagent), transaction);
           const ledger: NewLedgerEntry[] = [];
           for (const { planned, given } of pairs) {
@@ -201,7 +230,7 @@ export async function recordBatch(input: BatchCreateInput, actor: SignedInUser, 
           for (let n = 1; n <= input.bottles; n++) {
             await sql().query("INSERT INTO batch_bottles (batch_id, number, status, updated_by, created_at, updated_at) VALUES (?, ?, 'ready', ?, NOW(3), NOW(3))", { replacements: [batchId, n, actor.id], transaction });
           }
-          await recordAudit({ actorId: actor.id, action: "record", entity: "batch", entityId: batchId, ip, after: { ...input, expiresAt: expiry.expiresAt.toISOString(), deviations } }, transaction);
+          await recordAudit({ actorId: actor.id, action: "record", entity: "batch", entityId: batchId, ip, after: { ...input, room, expiresAt: expiry.expiresAt.toISOString(), deviations } }, transaction);
         });
         break;
       } catch (error) {
@@ -228,13 +257,13 @@ async function insertBatch(
     try {
       await sql().query(
         `INSERT INTO batches (code, recipe_version_id, spec_snapshot, volume_ml, remaining_ml, bottles, bottle_size_ml, temperature_c, measured_ph, ph_temperature_c,
-                              prepared_by, prepared_at, expires_at, expiry_reason, status, idempotency_key, deviations, deviation_reason, created_at, updated_at)
-         VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, 'ready', ?, ?, ?, NOW(3), NOW(3))`,
+                              prepared_by, prepared_at, expires_at, expiry_reason, status, idempotency_key, deviations, deviation_reason, room, created_at, updated_at)
+         VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, 'ready', ?, ?, ?, ?, NOW(3), NOW(3))`,
         {
           transaction,
           replacements: [code, input.recipeVersionId, JSON.stringify(snapshot), input.volume_mL, input.volume_mL, input.bottles, input.bottleSize_mL, input.temperature_C,
             input.measuredPH ?? null, input.phMeterTemperature_C ?? null, actor.id, now, expiry.expiresAt, expiry.reason.slice(0, 300), input.idempotencyKey,
-            deviations.length ? JSON.stringify(deviations) : null, deviations.length ? reason : null],
+            deviations.length ? JSON.stringify(deviations) : null, deviations.length ? reason : null, input.room ?? null],
         },
       );
       return await lastInsertId(transaction);
@@ -250,7 +279,7 @@ interface BatchRow {
   id: number; code: string; recipe_id: number; recipe_code: string; recipe_name: string; version: number; recipe_version_id: number; channel: string | null;
   spec_snapshot: unknown; version_spec: unknown; storage: string | null; detection_nm: number | null; volume_ml: string; remaining_ml: string; bottles: number;
   bottle_size_ml: number; temperature_c: string; measured_ph: string | null; ph_temperature_c: string | null; prepared_at: Date; expires_at: Date;
-  expiry_reason: string | null; prepared_by: string; status: BottleStatus; deviations: unknown; deviation_reason: string | null;
+  expiry_reason: string | null; prepared_by: string; status: BottleStatus; deviations: unknown; deviation_reason: string | null; room: string | null;
 }
 
 const num = (v: string | null) => (v === null ? null : Number(v));
@@ -259,7 +288,7 @@ export async function getBatch(id: number, now = new Date()): Promise<BatchDetai
   const [row] = await sql().query<BatchRow>(
     `SELECT b.id, b.code, r.id AS recipe_id, r.code AS recipe_code, r.name AS recipe_name, v.version, v.id AS recipe_version_id, r.channel, b.spec_snapshot, v.spec AS version_spec,
             v.storage, v.detection_nm, b.volume_ml, b.remaining_ml, b.bottles, b.bottle_size_ml, b.temperature_c, b.measured_ph, b.ph_temperature_c, b.prepared_at,
-            b.expires_at, b.expiry_reason, u.name AS prepared_by, b.status, b.deviations, b.deviation_reason
+            b.expires_at, b.expiry_reason, u.name AS prepared_by, b.status, b.deviations, b.deviation_reason, b.room
        FROM batches b JOIN recipe_versions v ON v.id = b.recipe_version_id JOIN recipes r ON r.id = v.recipe_id JOIN users u ON u.id = b.prepared_by
       WHERE b.id = ?`,
     { type: QueryTypes.SELECT, replacements: [id] },
@@ -281,7 +310,7 @@ export async function getBatch(id: number, now = new Date()): Promise<BatchDetai
     volume_mL: Number(row.volume_ml), remaining_mL: Number(row.remaining_ml), bottles: row.bottles, bottleSize_mL: row.bottle_size_ml, temperature_C: Number(row.temperature_c),
     measuredPH: num(row.measured_ph), phMeterTemperature_C: num(row.ph_temperature_c), targetPH: spec?.buffer?.targetPH ?? null,
     preparedAt: new Date(row.prepared_at).toISOString(), expiresAt: expiresAt.toISOString(), expiryReason: row.expiry_reason, preparedBy: row.prepared_by,
-    status: row.status, expired: expiresAt <= now, deviations: deviations ?? [], deviationReason: row.deviation_reason,
+    status: row.status, room: row.room, expired: expiresAt <= now, deviations: deviations ?? [], deviationReason: row.deviation_reason,
     components: components.map((c) => ({
       reagent: c.reagent_id, name: getReagent(c.reagent_id)?.name ?? c.reagent_id, role: c.role, unit: c.unit, target: Number(c.target_amount),
       actual: num(c.actual_amount), stockLotId: c.stock_lot_id, lotNumber: c.lot_number,

@@ -8,6 +8,7 @@ import { compositionFromSpec } from "../../ledger/composition";
 import { programChannels } from "../../ledger/program";
 import { CompositionError, splitVolume, type BatchComposition, type CompositionPart } from "../../ledger/split";
 import type { DrawInput, RunInput } from "../../schemas/runs";
+import { recordAudit } from "../audit";
 import { getSequelize } from "../db";
 import type { SignedInUser } from "../guard";
 import { HttpError } from "../http";
@@ -320,7 +321,7 @@ async function runByKey(key: string): Promise<number | null> {
  * Logs one run. The idempotency key makes a repeated submit (a double click, a retry after a
  * lost answer) return the run already recorded instead of recording it twice.
  */
-export async function logRun(input: RunInput, actor: SignedInUser): Promise<{ run: RunSummary; replayed: boolean; batches: BatchLeft[] }> {
+export async function logRun(input: RunInput, actor: SignedInUser, ip: string | null = null): Promise<{ run: RunSummary; replayed: boolean; batches: BatchLeft[] }> {
   const sequelize = getSequelize();
   const answer = async (id: number, replayed: boolean) => {
     const run = (await getRun(id))!;
@@ -373,6 +374,15 @@ export async function logRun(input: RunInput, actor: SignedInUser): Promise<{ ru
       await ensureCatalogueRows(plan.entries.map((e) => e.reagentId), transaction);
       await appendEntries(plan.entries.map((e) => ({ ...e, sourceKind: "run", sourceId: `run:${newId}` })), transaction);
       await drawFromBatches(plan.batchUse, transaction);
+      const remaining = (sign: 0 | 1) => Object.fromEntries([...plan.batchUse].map(([batchId, used]) => [batches.get(batchId)?.code ?? String(batchId), round4((batches.get(batchId)?.remaining_mL ?? 0) - sign * used)]));
+      await recordAudit(
+        {
+          actorId: actor.id, action: "run.log", entity: "run", entityId: newId, ip,
+          before: { remaining_mL: remaining(0) },
+          after: { instrumentId: instrument.id, methodId: method.id, projectId: project.id, operatorId, reference: input.reference ?? null, startedAt: input.startedAt.toISOString(), injections: input.injections, blanks: input.blanks, channelVolumes_mL: plan.channelVolumes, ledgerEntries: plan.entries.length, remaining_mL: remaining(1) },
+        },
+        transaction,
+      );
       return newId;
     });
   } catch (error) {
@@ -410,7 +420,7 @@ export interface DrawResult {
 }
 
 /** A manual withdrawal (a wash, a spill, a transfer) from one batch, with its reason. */
-export async function logDraw(input: DrawInput, actor: SignedInUser): Promise<DrawResult> {
+export async function logDraw(input: DrawInput, actor: SignedInUser, ip: string | null = null): Promise<DrawResult> {
   const sequelize = getSequelize();
   const scope = "draw";
   const replay = async () => {
@@ -457,6 +467,14 @@ export async function logDraw(input: DrawInput, actor: SignedInUser): Promise<Dr
       await drawFromBatches(new Map([[batch.id, input.volume_mL]]), transaction);
       const result: DrawResult = { batchCode: batch.code, volume_mL: input.volume_mL, remaining_mL: round4(batch.remaining_mL - input.volume_mL), entries: shares.length, replayed: false };
       await sequelize.query("UPDATE idempotency_keys SET response = ? WHERE `key` = ? AND scope = ?", { replacements: [JSON.stringify(result), input.idempotencyKey, scope], transaction });
+      await recordAudit(
+        {
+          actorId: actor.id, action: "draw.log", entity: "batch", entityId: batch.id, ip,
+          before: { remaining_mL: round4(batch.remaining_mL), status: batch.status },
+          after: { remaining_mL: result.remaining_mL, volume_mL: input.volume_mL, purpose: input.purpose, note: input.note, projectId: input.projectId ?? null, wasteContainerId: input.wasteContainerId ?? null, ledgerEntries: shares.length },
+        },
+        transaction,
+      );
       return result;
     });
   } catch (error) {

@@ -7,7 +7,7 @@ import { recordAudit } from "../audit";
 import { getSequelize } from "../db";
 import type { SignedInUser } from "../guard";
 import { HttpError } from "../http";
-import { readUpload, storeCertificate } from "../storage";
+import { readUpload, removeUpload, storeCertificate } from "../storage";
 import { lastInsertId } from "./sql";
 import { ensureCatalogueRows } from "./ledger";
 
@@ -107,6 +107,8 @@ export async function createStockLot(input: StockLotInput, certificate: { bytes:
       await recordAudit({ actorId: actor.id, action: "create", entity: "stock-lot", entityId: id, ip, after: { ...input, certificate: stored?.key ?? null } }, transaction);
     });
   } catch (error) {
+    // The lot was not recorded: its certificate must not stay behind in storage.
+    if (stored) await removeUpload(stored.key).catch(() => undefined);
     if (error instanceof UniqueConstraintError) throw new HttpError(409, `lotNumber: lot ${input.lotNumber} of ${getReagent(input.reagent)?.name ?? input.reagent} is already recorded`);
     throw error;
   }

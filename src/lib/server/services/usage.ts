@@ -1,9 +1,10 @@
 /**
- * Usage per project and period: volumes summed by the database over indexed columns, costed at
- * the rate in force on the day of each entry for the client's price list (src/lib/billing/rates).
+ * Usage per project and period: volumes summed by the database from the per-day ledger sums,
+ * costed at the rate in force on the day of each entry for the client's price list
+ * (src/lib/billing/rates).
  */
 import { QueryTypes } from "sequelize";
-import { costLines, type CostLine, type PriceList, type Rate } from "../../billing/rates";
+import { costLines, toMicro, type CostLine, type PriceList, type Rate } from "../../billing/rates";
 import type { UsageQuery } from "../../schemas/usage";
 import { getSequelize } from "../db";
 
@@ -52,31 +53,53 @@ export async function loadRates(): Promise<Rate[]> {
 }
 
 /**
+ * The rate segments of a period: days on which any rate starts split it, so that every reagent
+ * has one rate in force throughout each segment. SQL for the GROUP BY (", <segment number of
+ * d.day>", empty when no rate starts inside the period), and its bounds as replacements.
+ */
+export function rateSegments(rates: readonly Rate[], from: string, to: string): { sql: string; replacements: Record<string, string> } {
+  const cuts = [...new Set(rates.map((r) => r.effectiveFrom))].filter((d) => d > from && d <= to).sort();
+  if (cuts.length === 0) return { sql: "", replacements: {} };
+  const replacements: Record<string, string> = {};
+  const whens = cuts.map((cut, i) => {
+    replacements[`cut${i}`] = cut;
+    return `WHEN d.day < :cut${i} THEN ${i}`;
+  });
+  return { sql: `, CASE ${whens.join(" ")} ELSE ${cuts.length} END`, replacements };
+}
+
+/** The usage endpoint's one aggregate (exported for the benchmark's EXPLAIN). */
+export const usageSumsSql = (segmentSql: string) =>
+  `SELECT d.project_id, d.reagent_id, MIN(d.day) AS at, SUM(d.volume_ml) AS volume, SUM(d.mass_g) AS mass
+     FROM ledger_daily d
+    WHERE d.day >= :from AND d.day <= :to
+      AND (:clientId IS NULL OR d.project_id IN (SELECT sp.id FROM projects sp WHERE sp.client_id = :clientId))
+    GROUP BY d.project_id, d.reagent_id${segmentSql}`;
+
+/**
  * `GET /api/usage`. `clientId` limits the answer to one client organisation's projects (a
  * client contact's own); null means every project.
+ *
+ * Reads the per-day sums in `ledger_daily` (kept by a trigger on every ledger insert), summed
+ * once more per rate segment: within a segment every rate is constant and costing is linear, so
+ * the cost is exactly what costing each entry on its own day would give, from a few hundred rows.
  */
 export async function usageByProject(query: UsageQuery, scope: { clientId: number | null }): Promise<UsageAnswer> {
   const sequelize = getSequelize();
   const [start, end] = periodBounds(query.from, query.to);
   const replacements = { start, end, clientId: scope.clientId };
-  const scoped = "(:clientId IS NULL OR l.project_id IN (SELECT sp.id FROM projects sp WHERE sp.client_id = :clientId))";
+  // The rates decide the segments, so they come first; the other reads run alongside.
+  const ratesAndSums = loadRates().then(async (rates) => {
+    const segments = rateSegments(rates, query.from, query.to);
+    const sums = await sequelize.query<{ project_id: number; reagent_id: string; at: string | Date; volume: string; mass: string | null }>(
+      usageSumsSql(segments.sql),
+      { type: QueryTypes.SELECT, replacements: { ...segments.replacements, from: query.from, to: query.to, clientId: scope.clientId } },
+    );
+    return { rates, sums };
+  });
 
-  const [totals, daily, runs, projects, rates] = await Promise.all([
-    sequelize.query<{ project_id: number; reagent_id: string; volume: string; mass: string | null }>(
-      `SELECT l.project_id, l.reagent_id, SUM(l.volume_ml) AS volume, SUM(l.mass_g) AS mass
-         FROM ledger_entries l
-        WHERE l.occurred_at >= :start AND l.occurred_at < :end AND l.project_id IS NOT NULL AND ${scoped}
-        GROUP BY l.project_id, l.reagent_id`,
-      { type: QueryTypes.SELECT, replacements },
-    ),
-    // Rates change by the day, so per-day sums cost exactly what per-entry costing would.
-    sequelize.query<{ project_id: number; reagent_id: string; day: string | Date; volume: string; mass: string | null }>(
-      `SELECT l.project_id, l.reagent_id, DATE(l.occurred_at) AS day, SUM(l.volume_ml) AS volume, SUM(l.mass_g) AS mass
-         FROM ledger_entries l
-        WHERE l.occurred_at >= :start AND l.occurred_at < :end AND l.project_id IS NOT NULL AND ${scoped}
-        GROUP BY l.project_id, l.reagent_id, DATE(l.occurred_at)`,
-      { type: QueryTypes.SELECT, replacements },
-    ),
+  const [{ rates, sums }, runs, projects] = await Promise.all([
+    ratesAndSums,
     sequelize.query<{ project_id: number; runs: number; injections: string }>(
       `SELECT r.project_id, COUNT(*) AS runs, SUM(r.injections) AS injections
          FROM runs r
@@ -90,7 +113,6 @@ export async function usageByProject(query: UsageQuery, scope: { clientId: numbe
          FROM projects p JOIN clients c ON c.id = p.client_id WHERE (:clientId IS NULL OR p.client_id = :clientId)`,
       { type: QueryTypes.SELECT, replacements },
     ),
-    loadRates(),
   ]);
 
   const rows = new Map<number, UsageRow>();
@@ -104,23 +126,30 @@ export async function usageByProject(query: UsageQuery, scope: { clientId: numbe
     }
     return row;
   };
-  for (const t of totals) {
-    const row = rowFor(t.project_id);
+  // Totals per project and reagent: the segments' sums added exactly (in 10⁻⁶ units).
+  const totals = new Map<string, { projectId: number; reagentId: string; volume: bigint; mass: bigint | null }>();
+  const linesByProject = new Map<number, CostLine[]>();
+  for (const d of sums) {
+    const key = `${d.project_id}|${d.reagent_id}`;
+    const total = totals.get(key) ?? { projectId: d.project_id, reagentId: d.reagent_id, volume: 0n, mass: null };
+    total.volume += toMicro(d.volume);
+    if (d.mass !== null) total.mass = (total.mass ?? 0n) + toMicro(d.mass);
+    totals.set(key, total);
+    const lines = linesByProject.get(d.project_id) ?? [];
+    lines.push({ reagentId: d.reagent_id, volume_mL: d.volume, mass_g: d.mass, at: typeof d.at === "string" ? d.at.slice(0, 10) : d.at.toISOString().slice(0, 10) });
+    linesByProject.set(d.project_id, lines);
+  }
+  for (const t of totals.values()) {
+    const row = rowFor(t.projectId);
     if (!row) continue;
-    row.volumes_mL[t.reagent_id] = round(Number(t.volume), 4);
-    if (t.mass !== null) row.masses_g[t.reagent_id] = round(Number(t.mass), 5);
+    row.volumes_mL[t.reagentId] = round(Number(t.volume) / 1e6, 4);
+    if (t.mass !== null) row.masses_g[t.reagentId] = round(Number(t.mass) / 1e6, 5);
   }
   for (const r of runs) {
     const row = rowFor(r.project_id);
     if (!row) continue;
     row.runs = Number(r.runs);
     row.injections = Number(r.injections);
-  }
-  const linesByProject = new Map<number, CostLine[]>();
-  for (const d of daily) {
-    const lines = linesByProject.get(d.project_id) ?? [];
-    lines.push({ reagentId: d.reagent_id, volume_mL: d.volume, mass_g: d.mass, at: typeof d.day === "string" ? d.day.slice(0, 10) : d.day.toISOString().slice(0, 10) });
-    linesByProject.set(d.project_id, lines);
   }
   for (const [projectId, lines] of linesByProject) {
     const row = rowFor(projectId);

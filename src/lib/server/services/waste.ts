@@ -782,6 +782,8 @@ export interface FlammablesInRoom {
   room: string;
   /** Flammable reagents in stock lots (what is left in the bottles). */
   stock_L: number;
+  /** The flammable share of what is left of the live batches (ready or in use) kept in the room. */
+  batches_L: number;
   /** The flammable share of the live waste containers in the room. */
   waste_L: number;
   onHand_L: number;
@@ -790,14 +792,36 @@ export interface FlammablesInRoom {
   state: "ok" | "near" | "over" | "no-limit";
 }
 
-/** Flammable liquids on hand per room (stock lots and waste), against the room limit the safety officer sets. */
+/**
+ * The flammable share of a batch (v/v): its flammable liquid components (the catalogue's flag;
+ * the reagents table's for a reagent the catalogue lacks) over all its liquid components.
+ */
+export function flammableShare(components: readonly { reagentId: string; unit: string; amount_mL: number; tableFlammable?: boolean }[]): number {
+  const liquids = components.filter((c) => c.unit === "mL");
+  const total = liquids.reduce((sum, c) => sum + Math.max(0, c.amount_mL), 0);
+  if (!(total > 0)) return 0;
+  const flammable = liquids.filter((c) => getReagent(c.reagentId)?.flammable ?? c.tableFlammable ?? false).reduce((sum, c) => sum + Math.max(0, c.amount_mL), 0);
+  return Math.min(1, flammable / total);
+}
+
+/** Flammable liquids on hand per room (stock lots, live batches and waste), against the room limit the safety officer sets. */
 export async function flammablesByRoom(now = new Date()): Promise<FlammablesInRoom[]> {
-  const [stock, shares, containers, settings] = await Promise.all([
+  const [stock, batchParts, shares, containers, settings] = await Promise.all([
     db().query<{ room: string; remaining: string }>(
       `SELECT COALESCE(l.room, 'unassigned') AS room, SUM(l.remaining) AS remaining
          FROM stock_lots l JOIN reagents r ON r.id = l.reagent_id
         WHERE r.flammable = 1 AND r.unit = 'mL' AND l.remaining > 0
         GROUP BY COALESCE(l.room, 'unassigned')`,
+      { type: QueryTypes.SELECT },
+    ),
+    // Each live batch's components: what is left of it × its flammable share is on the bench.
+    db().query<{ id: number; room: string; remaining_ml: string; reagent_id: string | null; unit: string | null; amount: string | null; table_flammable: number | null }>(
+      `SELECT b.id, COALESCE(b.room, 'unassigned') AS room, b.remaining_ml, c.reagent_id, c.unit,
+              COALESCE(c.actual_amount, c.target_amount) AS amount, r.flammable AS table_flammable
+         FROM batches b
+         LEFT JOIN batch_components c ON c.batch_id = b.id
+         LEFT JOIN reagents r ON r.id = c.reagent_id
+        WHERE b.status IN ('ready', 'in_use') AND b.remaining_ml > 0`,
       { type: QueryTypes.SELECT },
     ),
     // The flammable fraction of what went into each live container during its accumulation.
@@ -813,9 +837,18 @@ export async function flammablesByRoom(now = new Date()): Promise<FlammablesInRo
     listContainers({ now }),
     readWasteSettings(),
   ]);
-  const rooms = new Map<string, { stock: number; waste: number }>();
-  const at = (room: string) => rooms.get(room) ?? rooms.set(room, { stock: 0, waste: 0 }).get(room)!;
+  const rooms = new Map<string, { stock: number; batches: number; waste: number }>();
+  const at = (room: string) => rooms.get(room) ?? rooms.set(room, { stock: 0, batches: 0, waste: 0 }).get(room)!;
   for (const s of stock) at(s.room).stock += num(s.remaining) / 1000;
+  const batches = new Map<number, { room: string; remaining: number; parts: { reagentId: string; unit: string; amount_mL: number; tableFlammable: boolean }[] }>();
+  for (const p of batchParts) {
+    const b = batches.get(p.id) ?? batches.set(p.id, { room: p.room, remaining: num(p.remaining_ml), parts: [] }).get(p.id)!;
+    if (p.reagent_id && p.unit) b.parts.push({ reagentId: p.reagent_id, unit: p.unit, amount_mL: num(p.amount), tableFlammable: num(p.table_flammable) === 1 });
+  }
+  for (const b of batches.values()) {
+    const share = flammableShare(b.parts);
+    if (share > 0) at(b.room).batches += (b.remaining * share) / 1000;
+  }
   for (const c of containers) {
     const share = shares.find((s) => s.id === c.id);
     const fraction = share && num(share.total) > 0 ? Math.min(1, Math.max(0, num(share.flammable) / num(share.total))) : 0;
@@ -824,11 +857,11 @@ export async function flammablesByRoom(now = new Date()): Promise<FlammablesInRo
   for (const room of Object.keys(settings.roomLimits_L)) at(room);
   return [...rooms]
     .map(([room, v]) => {
-      const onHand = v.stock + v.waste;
+      const onHand = v.stock + v.batches + v.waste;
       const limit = settings.roomLimits_L[room] ?? null;
       const state: FlammablesInRoom["state"] = limit === null ? "no-limit" : onHand >= limit ? "over" : onHand >= 0.8 * limit ? "near" : "ok";
       const r2 = (x: number) => Math.round(x * 100) / 100;
-      return { room, stock_L: r2(v.stock), waste_L: r2(v.waste), onHand_L: r2(onHand), limit_L: limit, state };
+      return { room, stock_L: r2(v.stock), batches_L: r2(v.batches), waste_L: r2(v.waste), onHand_L: r2(onHand), limit_L: limit, state };
     })
     .sort((a, b) => a.room.localeCompare(b.room));
 }

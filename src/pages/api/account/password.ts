@@ -9,6 +9,6 @@ export const POST = endpoint(async ({ locals, request, cookies, url, clientAddre
   const user = requirePermission(locals, "update:own-account");
   const input = await readJson(request, changePasswordSchema);
   const session = await changePassword(user.id, input, { ip: clientAddress });
-  setSessionCookieFor(cookies, session.id, url);
+  setSessionCookieFor(cookies, session.id, url, request);
   return new Response(null, { status: 204 });
 });

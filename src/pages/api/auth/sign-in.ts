@@ -10,6 +10,6 @@ export const POST = endpoint(async ({ request, cookies, url, clientAddress, loca
   // A sign-in always starts a new session; any session this browser had ends.
   if (locals.session) await signOut(locals.session.id);
   const { session, user } = await signIn(input, { ip: clientAddress, userAgent: request.headers.get("user-agent") });
-  setSessionCookieFor(cookies, session.id, url);
+  setSessionCookieFor(cookies, session.id, url, request);
   return json({ user: { email: user.email, role: user.role } });
 });

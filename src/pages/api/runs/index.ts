@@ -10,9 +10,9 @@ export const GET = endpoint(async ({ locals, url }) => {
 });
 
 /** 201 with the run; 200 with the same run when the idempotency key was seen before. */
-export const POST = endpoint(async ({ locals, request }) => {
+export const POST = endpoint(async ({ locals, request, clientAddress }) => {
   const user = requirePermission(locals, "create:run");
   const input = await readJson(request, runSchema);
-  const result = await logRun(input, user);
+  const result = await logRun(input, user, clientAddress ?? null);
   return json(result, result.replayed ? 200 : 201);
 });

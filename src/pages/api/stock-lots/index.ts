@@ -1,6 +1,6 @@
 import { stockLotInputSchema, stockLotListQuery } from "../../../lib/schemas/stock-lots";
 import { endpoint, requirePermission } from "../../../lib/server/guard";
-import { HttpError, json, queryOf, validate } from "../../../lib/server/http";
+import { HttpError, json, queryOf, readBodyBytes, validate } from "../../../lib/server/http";
 import { CERTIFICATE_MAX_BYTES } from "../../../lib/server/storage";
 import { createStockLot, listStockLots } from "../../../lib/server/services/stock-lots";
 
@@ -15,11 +15,11 @@ export const POST = endpoint(async ({ locals, request, clientAddress }) => {
   if (!(request.headers.get("content-type") ?? "").toLowerCase().startsWith("multipart/form-data")) {
     throw new HttpError(415, "body: send the lot as multipart/form-data");
   }
-  const length = Number(request.headers.get("content-length") ?? 0);
-  if (length > CERTIFICATE_MAX_BYTES + 64 * 1024) throw new HttpError(400, `certificate: the upload is over the ${CERTIFICATE_MAX_BYTES / 1048576} MB limit`);
+  // Read with a cap (by Content-Length, or while a chunked upload streams in), then parse the form.
+  const raw = await readBodyBytes(request, CERTIFICATE_MAX_BYTES + 64 * 1024, `certificate: the upload is over the ${CERTIFICATE_MAX_BYTES / 1048576} MB limit`);
   let form: FormData;
   try {
-    form = await request.formData();
+    form = await new Response(raw, { headers: { "content-type": request.headers.get("content-type")! } }).formData();
   } catch {
     throw new HttpError(400, "body: not a readable multipart form");
   }
@@ -27,7 +27,8 @@ export const POST = endpoint(async ({ locals, request, clientAddress }) => {
   let file: File | null = null;
   for (const [key, value] of form.entries()) {
     if (key === "certificate") {
-      if (typeof value !== "string" && value.size > 0) file = value;
+      // A form without a chosen file sends an empty, unnamed part; an empty file that has a name was chosen, and is refused.
+      if (typeof value !== "string" && (value.size > 0 || value.name !== "")) file = value;
     } else if (typeof value === "string") fields[key] = value;
   }
   const input = validate(fields, stockLotInputSchema);

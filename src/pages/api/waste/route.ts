@@ -3,6 +3,7 @@ import { endpoint, requirePermission } from "../../../lib/server/guard";
 import { HttpError, json, readJson } from "../../../lib/server/http";
 import { checkContainerAccepts, wasteStreamForMix } from "../../../lib/server/services/waste";
 import { WasteRuleError } from "../../../lib/waste/streams";
+import { hazardSummary } from "../../../lib/labels/hazards";
 
 /** Where would this mix go, and does the container take it? The run form asks before a run is logged. */
 export const POST = endpoint(async ({ locals, request }) => {
@@ -16,5 +17,8 @@ export const POST = endpoint(async ({ locals, request }) => {
     throw error;
   }
   const acceptance = await checkContainerAccepts(input.containerId, assignment.streamId);
-  return json({ assignment, acceptance });
+  // The mix's GHS pictograms and signal word (components at 1 % or more of the liquid volume, w/v for solids).
+  const liquid = input.parts.reduce((sum, p) => sum + (p.volume_mL ?? 0), 0);
+  const hazards = hazardSummary(input.parts.map((p) => ({ reagent: p.reagentId, share_percent: (((p.volume_mL ?? 0) + (p.mass_g ?? 0)) / liquid) * 100 })));
+  return json({ assignment, acceptance, hazards: { pictograms: hazards.pictograms, signalWord: hazards.signalWord, statements: hazards.statements } });
 });

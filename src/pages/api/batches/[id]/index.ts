@@ -5,5 +5,5 @@ import { getBatch } from "../../../../lib/server/services/preparation";
 
 export const GET = endpoint(async ({ locals, params }) => {
   requirePermission(locals, "read:batch");
-  return json({ batch: await getBatch(validate(params.id, idParam)) });
+  return json({ batch: await getBatch(validate(params.id, idParam, "id")) });
 });

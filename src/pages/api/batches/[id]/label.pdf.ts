@@ -7,7 +7,7 @@ import { batchLabels } from "../../../../lib/server/services/labels";
 /** Fixed contract: `application/pdf` with `copies` labels (default: one per bottle). */
 export const GET = endpoint(async ({ locals, params, url }) => {
   requirePermission(locals, "read:batch");
-  const id = validate(params.id, idParam);
+  const id = validate(params.id, idParam, "id");
   const query = validate(queryOf(url), labelQuery);
   const { bytes, fileName, labels } = await batchLabels(id, query);
   return new Response(new Uint8Array(bytes), {

@@ -5,5 +5,5 @@ import { markInvoiceUncollectible } from "../../../../lib/server/services/billin
 
 export const POST = endpoint(async ({ locals, params, clientAddress }) => {
   const actor = requirePermission(locals, "manage:invoice");
-  return json({ invoice: await markInvoiceUncollectible(validate(params.id, idParam), actor, clientAddress) });
+  return json({ invoice: await markInvoiceUncollectible(validate(params.id, idParam, "id"), actor, clientAddress) });
 });

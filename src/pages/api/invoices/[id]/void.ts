@@ -5,5 +5,5 @@ import { voidInvoice } from "../../../../lib/server/services/billing";
 
 export const POST = endpoint(async ({ locals, params, clientAddress }) => {
   const actor = requirePermission(locals, "manage:invoice");
-  return json({ invoice: await voidInvoice(validate(params.id, idParam), actor, clientAddress) });
+  return json({ invoice: await voidInvoice(validate(params.id, idParam, "id"), actor, clientAddress) });
 });

@@ -5,7 +5,7 @@ import { approveRecipe } from "../../../../lib/server/services/recipes";
 
 export const POST = endpoint(async ({ locals, params, request, clientAddress }) => {
   const user = requirePermission(locals, "approve:recipe");
-  const id = validate(params.id, idParam);
+  const id = validate(params.id, idParam, "id");
   const { version } = await readJson(request, approveSchema);
   return json({ recipe: await approveRecipe(id, version, user, clientAddress) });
 });

@@ -5,5 +5,5 @@ import { getStatement } from "../../../../lib/server/services/billing";
 
 export const GET = endpoint(async ({ locals, params }) => {
   const user = requirePermission(locals, "read:statement", { own: true });
-  return json(await getStatement(validate(params.id, idParam), user));
+  return json(await getStatement(validate(params.id, idParam, "id"), user));
 });

@@ -6,7 +6,7 @@ import { getStatement, issueStatement } from "../../../../lib/server/services/bi
 /** Issues an internal client's chargeback statement; its period is then locked for that client. */
 export const POST = endpoint(async ({ locals, params, request, clientAddress }) => {
   const actor = requirePermission(locals, "manage:statement");
-  const id = validate(params.id, idParam);
+  const id = validate(params.id, idParam, "id");
   const input = await readJson(request, statementIssueInput);
   await issueStatement(id, input, actor, clientAddress);
   return json(await getStatement(id, actor));

@@ -5,7 +5,7 @@ import { statementPdf } from "../../../../lib/server/services/billing";
 
 export const GET = endpoint(async ({ locals, params, url }) => {
   const user = requirePermission(locals, "read:statement", { own: true });
-  const { bytes, fileName } = await statementPdf(validate(params.id, idParam), user);
+  const { bytes, fileName } = await statementPdf(validate(params.id, idParam, "id"), user);
   const disposition = url.searchParams.get("download") === "1" ? "attachment" : "inline";
   return new Response(new Uint8Array(bytes), {
     headers: { "content-type": "application/pdf", "content-disposition": `${disposition}; filename="${fileName}"`, "cache-control": "private, no-store" },

@@ -6,8 +6,8 @@ import { updateBottle } from "../../../../../lib/server/services/preparation";
 /** Marks one bottle in use, empty or discarded. */
 export const POST = endpoint(async ({ locals, params, request, clientAddress }) => {
   const user = requirePermission(locals, "update:batch");
-  const id = validate(params.id, idParam);
-  const number = validate(params.number, idParam);
+  const id = validate(params.id, idParam, "id");
+  const number = validate(params.number, idParam, "number");
   const change = await readJson(request, bottleUpdateSchema);
   return json({ batch: await updateBottle(id, number, change, user, clientAddress) });
 });
