@@ -14,7 +14,7 @@ import { tmpdir } from "node:os";
 import { join, relative, resolve, sep } from "node:path";
 import { Transform } from "node:stream";
 import { pipeline } from "node:stream/promises";
-import { ensureMariadbInstalled, rootSql, serverPaths, startMariadb } from "./mariadb.mjs";
+import { ensureMariadbInstalled, livePid, rootSql, serverPaths, startMariadb } from "./mariadb.mjs";
 import { PROFILES } from "./stack.mjs";
 import { DATA_DIR, findExecutable } from "./util.mjs";
 
@@ -84,17 +84,6 @@ function tools() {
   return { ...bins, dump, tar };
 }
 
-function livePid(pidFile) {
-  if (!existsSync(pidFile)) return null;
-  const pid = Number(readFileSync(pidFile, "utf8").trim());
-  if (!Number.isInteger(pid) || pid <= 0) return null;
-  try {
-    process.kill(pid, 0);
-    return pid;
-  } catch {
-    return null;
-  }
-}
 
 /**
  * Runs `work` against the profile's private server. A server that is already running (`npm start`,

@@ -78,7 +78,8 @@ function initialise(bins, paths) {
   return true;
 }
 
-function livePid(pidFile) {
+/** The pid in a pid file while that process lives, else null. */
+export function livePid(pidFile) {
   if (!existsSync(pidFile)) return null;
   const pid = Number(readFileSync(pidFile, "utf8").trim());
   if (!Number.isInteger(pid) || pid <= 0) return null;

@@ -4,7 +4,6 @@
 import { spawn } from "node:child_process";
 import { createHash, randomBytes } from "node:crypto";
 import { existsSync, mkdirSync, mkdtempSync, readdirSync, readFileSync, rmSync, unlinkSync, writeFileSync } from "node:fs";
-import { createServer } from "node:net";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { QueryTypes, type Sequelize } from "sequelize";
@@ -12,16 +11,8 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { ensureAppUser, startMariadb } from "../../scripts/lib/mariadb.mjs";
 import { migrator, seeder } from "../../src/db/umzug";
 import { createSequelize } from "../../src/lib/server/db";
+import { freePort } from "../support/ports";
 
-function freePort(): Promise<number> {
-  return new Promise((resolve) => {
-    const server = createServer();
-    server.listen(0, "127.0.0.1", () => {
-      const { port } = server.address() as { port: number };
-      server.close(() => resolve(port));
-    });
-  });
-}
 
 /** Runs a script of scripts/ to completion; resolves with its exit code and output. */
 function script(name: string, args: string[]): Promise<{ code: number; output: string }> {

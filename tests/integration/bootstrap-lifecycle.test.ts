@@ -1,6 +1,5 @@
 // The database lifecycle that `npm start` relies on, on a throwaway private server of its own.
 import { mkdtempSync, rmSync } from "node:fs";
-import { createServer } from "node:net";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { QueryTypes } from "sequelize";
@@ -9,16 +8,8 @@ import { afterAll, describe, expect, it } from "vitest";
 import { ensureAppUser, startMariadb } from "../../scripts/lib/mariadb.mjs";
 import { MIGRATIONS, SEEDERS, migrator, seeder } from "../../src/db/umzug";
 import { createSequelize } from "../../src/lib/server/db";
+import { freePort } from "../support/ports";
 
-function freePort(): Promise<number> {
-  return new Promise((resolve) => {
-    const server = createServer();
-    server.listen(0, "127.0.0.1", () => {
-      const { port } = server.address() as { port: number };
-      server.close(() => resolve(port));
-    });
-  });
-}
 
 const dataDir = mkdtempSync(join(tmpdir(), "decant-lifecycle-"));
 // Whatever the assertions say, the throwaway server must not outlive the test.

@@ -7,7 +7,6 @@
 import { spawn, spawnSync, type ChildProcess } from "node:child_process";
 import { randomBytes } from "node:crypto";
 import { existsSync, mkdirSync, mkdtempSync, rmSync } from "node:fs";
-import { createServer } from "node:net";
 import { tmpdir } from "node:os";
 import { join, resolve } from "node:path";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
@@ -15,19 +14,11 @@ import { ensureAppUser, startMariadb } from "../../scripts/lib/mariadb.mjs";
 import { migrator, seeder } from "../../src/db/umzug";
 import { RUN_LOG_HEADER } from "../../src/lib/imports/run-log";
 import { createSequelize } from "../../src/lib/server/db";
+import { freePort } from "../support/ports";
 
 const DAY = 86_400_000;
 const DB = "decant_faults";
 
-function freePort(): Promise<number> {
-  return new Promise((done) => {
-    const server = createServer();
-    server.listen(0, "127.0.0.1", () => {
-      const { port } = server.address() as { port: number };
-      server.close(() => done(port));
-    });
-  });
-}
 
 const sleep = (ms: number) => new Promise((r) => setTimeout(r, ms));
 

@@ -4,7 +4,6 @@
 // and the test knows the server's pid (for its memory, through /proc).
 import { spawn, type ChildProcess } from "node:child_process";
 import { mkdtempSync, readFileSync, rmSync } from "node:fs";
-import { createServer } from "node:net";
 import { tmpdir } from "node:os";
 import { join, resolve } from "node:path";
 import { QueryTypes, type Sequelize } from "sequelize";
@@ -13,6 +12,7 @@ import { migrator, seeder } from "../../src/db/umzug";
 import { createSequelize } from "../../src/lib/server/db";
 import { testEnv } from "./database";
 import { DEMO_PASSWORD, type Client } from "./http";
+import { freePort } from "./ports";
 
 export interface AppInstance {
   baseUrl: string;
@@ -28,17 +28,6 @@ export interface AppInstance {
   rss_MiB(): number;
 }
 
-function freePort(): Promise<number> {
-  return new Promise((resolvePort, reject) => {
-    const server = createServer();
-    server.once("error", reject);
-    server.listen(0, "127.0.0.1", () => {
-      const address = server.address();
-      const port = typeof address === "object" && address ? address.port : 0;
-      server.close(() => resolvePort(port));
-    });
-  });
-}
 
 export function clientOf(baseUrl: string) {
   return async (email?: string, password = DEMO_PASSWORD): Promise<Client> => {

@@ -1,0 +1,14 @@
+import { createServer } from "node:net";
+
+/** A TCP port on 127.0.0.1 that nothing listens on right now, for a throwaway server of a test's own. */
+export function freePort(): Promise<number> {
+  return new Promise((resolvePort, reject) => {
+    const server = createServer();
+    server.once("error", reject);
+    server.listen(0, "127.0.0.1", () => {
+      const address = server.address();
+      const port = typeof address === "object" && address ? address.port : 0;
+      server.close(() => resolvePort(port));
+    });
+  });
+}
