@@ -24,7 +24,7 @@ export const SOURCES = {
   CRP94: { citation: 'Debye-Hueckel A (log10, molal) derived from A_phi of Clegg, Rard, Pitzer, J. Chem. Soc. Faraday Trans. 90, 1875 (1994), as coded in pytzer', confidence: 'D' },
   Tanaka01: { citation: 'Tanaka et al., Metrologia 38, 301 (2001), density of water', confidence: 'D' },
   HR40: { citation: 'Harned, Robinson, Trans. Faraday Soc. 36, 973 (1940): pKw = 4470.99/T - 6.0875 + 0.01706 T', confidence: 'M' },
-  CRCconc: { citation: 'CRC Handbook 102nd ed., Concentrative properties of aqueous solutions (20 C), as transcribed in amosonabike/CRC-Solution-Properties-', confidence: 'C' },
+  CRCconc: { citation: 'CRC Handbook 102nd ed., Concentrative properties of aqueous solutions (20 C), as tabulated in the amosonabike/CRC-Solution-Properties- repository', confidence: 'C' },
   Merck: { citation: 'Merck Index monographs (densities d20, d25; boiling and flash points)', confidence: 'C' },
   MerckM: { citation: 'Merck Index / CRC Handbook physical constants', confidence: 'M' },
   SolventData: { citation: 'solvent data page (20 C density of acetonitrile); ECHA registration dossier', confidence: 'C' },

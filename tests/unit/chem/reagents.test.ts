@@ -64,7 +64,7 @@ describe.each([
 });
 
 describe.each([
-  // CRC Handbook 102nd ed., concentrative properties at 20 °C (via the amosonabike transcription):
+  // CRC Handbook 102nd ed., concentrative properties at 20 °C (as tabulated in the amosonabike/CRC-Solution-Properties- repository):
   ['ethanol', 0.7893], // 100 % ethanol row
   ['acetic-acid', 1.0477], // 100 % acetic acid row
   ['ammonia-solution', (0.9102 + 0.904) / 2], // 24 % and 26 % NH3 rows, 25 % by linear interpolation
