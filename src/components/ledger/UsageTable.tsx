@@ -1,3 +1,5 @@
+import { QueryClient, QueryClientProvider, useQuery } from "@tanstack/react-query";
+import { getCoreRowModel, getFilteredRowModel, getSortedRowModel, useReactTable, type ColumnDef, type SortingState } from "@tanstack/react-table";
 import { useEffect, useMemo, useState } from "react";
 import type { UsageRow } from "../../lib/server/services/usage";
 import type { GroupedUsageRow } from "../../lib/server/services/usage-groups";
@@ -34,44 +36,71 @@ const total = (r: Row) => Object.values(r.volumes_mL).reduce((a, b) => a + b, 0)
 const thirtyDaysAgo = () => new Date(Date.now() - 29 * 86_400_000).toISOString().slice(0, 10);
 const today = () => new Date().toISOString().slice(0, 10);
 
-/** Usage per project for a period, fetched from GET /api/usage: sortable, filterable, with a chart and CSV export. */
-export default function UsageTable({ initialFrom, initialTo, initialGroupBy }: { initialFrom?: string; initialTo?: string; initialGroupBy?: UsageGrouping }) {
+interface Loaded {
+  rows: Row[];
+  phases: Record<string, string>;
+  groupBy: UsageGrouping;
+}
+
+async function fetchUsage(from: string, to: string, groupBy: UsageGrouping): Promise<Loaded> {
+  const r = await fetch(`/api/usage?from=${from}&to=${to}&groupBy=${groupBy}&phases=1`);
+  const body = (await r.json().catch(() => ({}))) as { rows?: (UsageRow | GroupedUsageRow)[]; mobilePhases?: Record<string, string>; error?: string };
+  if (!r.ok) throw new Error(body.error ?? `The usage could not be loaded (${r.status}).`);
+  const rows = (body.rows ?? []).map((row) => (groupBy === "project" ? fromProject(row as UsageRow) : fromGroup(row as GroupedUsageRow)));
+  return { rows, phases: body.mobilePhases ?? {}, groupBy };
+}
+
+// Sorting and filtering through TanStack Table; the cells themselves are rendered below.
+const COLUMNS: ColumnDef<Row>[] = [
+  { id: "label", accessorFn: (r) => r.label },
+  { id: "detail", accessorFn: (r) => r.detail },
+  { id: "runs", accessorFn: (r) => r.runs ?? 0, sortDescFirst: true },
+  { id: "injections", accessorFn: (r) => r.injections ?? 0, sortDescFirst: true },
+  { id: "total", accessorFn: total, sortDescFirst: true },
+  { id: "cost", accessorFn: costOf, sortDescFirst: true },
+];
+const searchText = (r: Row) => `${r.key} ${r.label} ${r.detail} ${Object.keys(r.volumes_mL).join(" ")} ${Object.keys(r.mobilePhases_mL).join(" ")}`.toLowerCase();
+
+const queryClient = new QueryClient({ defaultOptions: { queries: { retry: 1, refetchOnWindowFocus: false } } });
+
+/** Usage for a period, fetched from GET /api/usage: grouped, sortable, filterable, with a chart and CSV export. */
+export default function UsageTable(props: { initialFrom?: string; initialTo?: string; initialGroupBy?: UsageGrouping }) {
+  return (
+    <QueryClientProvider client={queryClient}>
+      <UsageView {...props} />
+    </QueryClientProvider>
+  );
+}
+
+function UsageView({ initialFrom, initialTo, initialGroupBy }: { initialFrom?: string; initialTo?: string; initialGroupBy?: UsageGrouping }) {
   const [from, setFrom] = useState(initialFrom ?? thirtyDaysAgo());
   const [to, setTo] = useState(initialTo ?? today());
   const [groupBy, setGroupBy] = useState<UsageGrouping>(initialGroupBy ?? "project");
-  const [state, setState] = useState<{ kind: "loading" } | { kind: "error"; message: string } | { kind: "ready"; rows: Row[]; phases: Record<string, string>; groupBy: UsageGrouping }>({ kind: "loading" });
   const [filter, setFilter] = useState("");
-  const [sort, setSort] = useState<{ key: SortKey; desc: boolean }>({ key: "total", desc: true });
+  const [sorting, setSorting] = useState<SortingState>([{ id: "total", desc: true }]);
 
   useEffect(() => {
-    let live = true;
-    setState({ kind: "loading" });
     window.history.replaceState(null, "", `?from=${from}&to=${to}${groupBy === "project" ? "" : `&groupBy=${groupBy}`}`);
-    fetch(`/api/usage?from=${from}&to=${to}&groupBy=${groupBy}&phases=1`)
-      .then(async (r) => {
-        const body = (await r.json().catch(() => ({}))) as { rows?: (UsageRow | GroupedUsageRow)[]; mobilePhases?: Record<string, string>; error?: string };
-        if (!r.ok) throw new Error(body.error ?? `The usage could not be loaded (${r.status}).`);
-        const rows = (body.rows ?? []).map((r) => (groupBy === "project" ? fromProject(r as UsageRow) : fromGroup(r as GroupedUsageRow)));
-        if (live) setState({ kind: "ready", rows, phases: body.mobilePhases ?? {}, groupBy });
-      })
-      .catch((error: unknown) => live && setState({ kind: "error", message: error instanceof Error ? error.message : String(error) }));
-    return () => {
-      live = false;
-    };
   }, [from, to, groupBy]);
+  const query = useQuery({ queryKey: ["usage", from, to, groupBy], queryFn: () => fetchUsage(from, to, groupBy) });
+  const state: { kind: "loading" } | { kind: "error"; message: string } | ({ kind: "ready" } & Loaded) = query.isPending
+    ? { kind: "loading" }
+    : query.isError
+      ? { kind: "error", message: query.error instanceof Error ? query.error.message : String(query.error) }
+      : { kind: "ready", ...query.data };
 
-  const rows = useMemo(() => {
-    if (state.kind !== "ready") return [];
-    const f = filter.trim().toLowerCase();
-    const value = (r: Row): string | number => (sort.key === "total" ? total(r) : sort.key === "cost" ? costOf(r) : (r[sort.key] ?? 0));
-    return state.rows
-      .filter((r) => !f || `${r.key} ${r.label} ${r.detail} ${Object.keys(r.volumes_mL).join(" ")} ${Object.keys(r.mobilePhases_mL).join(" ")}`.toLowerCase().includes(f))
-      .sort((a, b) => {
-        const [x, y] = [value(a), value(b)];
-        const c = typeof x === "number" && typeof y === "number" ? x - y : String(x).localeCompare(String(y));
-        return sort.desc ? -c : c;
-      });
-  }, [state, filter, sort]);
+  const table = useReactTable({
+    data: state.kind === "ready" ? state.rows : [],
+    columns: COLUMNS,
+    state: { sorting, globalFilter: filter },
+    onSortingChange: setSorting,
+    globalFilterFn: (row, _column, value: string) => !value.trim() || searchText(row.original).includes(value.trim().toLowerCase()),
+    getCoreRowModel: getCoreRowModel(),
+    getSortedRowModel: getSortedRowModel(),
+    getFilteredRowModel: getFilteredRowModel(),
+  });
+  const rows = table.getRowModel().rows.map((r) => r.original);
+  const sort = { key: (sorting[0]?.id ?? "total") as SortKey, desc: sorting[0]?.desc ?? true };
   const reagents = useMemo(() => [...new Set(rows.flatMap((r) => Object.keys(r.volumes_mL)))].sort(), [rows]);
   const phases = useMemo(() => [...new Set(rows.flatMap((r) => Object.keys(r.mobilePhases_mL)))].sort(), [rows]);
   const shown = state.kind === "ready" ? state.groupBy : groupBy;
@@ -91,7 +120,7 @@ export default function UsageTable({ initialFrom, initialTo, initialGroupBy }: {
 
   const header = (key: SortKey, label: string, numeric = false) => (
     <th scope="col" className={numeric ? "num" : undefined} aria-sort={sort.key === key ? (sort.desc ? "descending" : "ascending") : "none"}>
-      <button type="button" className="cursor-pointer uppercase" onClick={() => setSort((s) => ({ key, desc: s.key === key ? !s.desc : numeric }))}>
+      <button type="button" className="cursor-pointer uppercase" onClick={() => setSorting((s) => [{ id: key, desc: s[0]?.id === key ? !s[0].desc : numeric }])}>
         {label}{sort.key === key ? (sort.desc ? " ↓" : " ↑") : ""}
       </button>
     </th>
@@ -104,7 +133,7 @@ export default function UsageTable({ initialFrom, initialTo, initialGroupBy }: {
         <div className="field"><label htmlFor="usage-to">To (included)</label><input id="usage-to" type="date" className="input" value={to} min={from} onChange={(e) => e.target.value && setTo(e.target.value)} /></div>
         <div className="field">
           <label htmlFor="usage-group">Group by</label>
-          <select id="usage-group" className="input" value={groupBy} onChange={(e) => { setGroupBy(e.target.value as UsageGrouping); setSort({ key: "total", desc: true }); }}>
+          <select id="usage-group" className="input" value={groupBy} onChange={(e) => { setGroupBy(e.target.value as UsageGrouping); setSorting([{ id: "total", desc: true }]); }}>
             {USAGE_GROUPINGS.map((g) => <option key={g} value={g}>{GROUP_LABEL[g]}</option>)}
           </select>
         </div>
