@@ -742,22 +742,14 @@ export async function handlePaymentsWebhook(rawBody: string, signatureHeader: st
 
 // ── Documents ───────────────────────────────────────────────────────────────────────────
 
-export interface StatementPdfInput {
+/** What the statement PDF shows: the statement as the screens see it, plus the facility's name. */
+export type StatementPdfInput = Pick<
+  StatementView,
+  "reference" | "clientName" | "clientKind" | "costCentre" | "billingEmail" | "periodStart" | "periodEnd" | "status" | "issuedAt" | "lines" | "total_minor" | "currency"
+> & {
   facility: string;
-  reference: string;
-  clientName: string;
-  clientKind: "internal" | "external";
-  costCentre: string | null;
-  billingEmail: string | null;
-  periodStart: string;
-  periodEnd: string;
-  status: "draft" | "issued" | "void";
-  issuedAt: string | null;
-  lines: StatementLine[];
-  total_minor: number;
-  currency: string;
-  invoice: { number: string | null; dueOn: string | null; hostedUrl: string | null; status: InvoiceStatus } | null;
-}
+  invoice: Pick<InvoiceView, "number" | "dueOn" | "hostedUrl" | "status"> | null;
+};
 
 async function pdfInput(id: number): Promise<StatementPdfInput> {
   const statement = (await Statement.findByPk(id))!;
