@@ -8,6 +8,7 @@ import { spawn } from "node:child_process";
 import { cpus } from "node:os";
 import { mkdirSync, rmSync, writeFileSync } from "node:fs";
 import { join } from "node:path";
+import { appServerCommand } from "./lib/app-server.mjs";
 import { bin, ensureNodeModules, fail, log, portAnswers, portIsFree, ProcessGroup, ROOT, run, waitFor } from "./lib/util.mjs";
 
 const PARTS = ["usage", "http", "labels", "chem", "import", "pages", "startup"];
@@ -116,7 +117,7 @@ try {
     const appEnv = { ...process.env, ...env, DECANT_OUT_DIR: OUT_DIR, HOST: "127.0.0.1", PORT: String(APP_PORT), APP_ORIGIN: baseURL, NODE_ENV: "production" };
     log("bench: building the app…");
     if ((await run(bin("astro"), ["build"], { env: appEnv, stdio: ["ignore", "ignore", "inherit"] })) !== 0) throw new Error("astro build failed");
-    app = group.spawn("bench app server", process.execPath, [join(OUT_DIR, "server/entry.mjs")], { env: appEnv, stdio: ["ignore", "ignore", "inherit"] });
+    app = group.spawn("bench app server", ...appServerCommand(OUT_DIR), { env: appEnv, stdio: ["ignore", "ignore", "inherit"] });
     await waitFor(async () => (await fetch(`${baseURL}/api/health`).then((r) => r.ok, () => false)), 60_000, 200);
     // One sign-in per role, reused by every measurement (sign-in is throttled; these never fail).
     const cookies = {};

@@ -2,6 +2,7 @@
 // one plain total over all runners: "N passed, N failed, N skipped".
 import { mkdirSync, readFileSync, rmSync } from "node:fs";
 import { join } from "node:path";
+import { appServerCommand } from "./lib/app-server.mjs";
 import { bin, ensureTestTools, ensureNodeModules, fail, log, portIsFree, portAnswers, ProcessGroup, run, waitFor } from "./lib/util.mjs";
 
 const APP_PORT = Number(process.env.DECANT_TEST_APP_PORT || 4331);
@@ -76,7 +77,7 @@ try {
   log("Building the app for the tests…");
   if ((await run(bin("astro"), ["build"], { env: testEnv, stdio: ["ignore", "ignore", "inherit"] })) !== 0) throw new Error("astro build failed");
   if (!(await portIsFree(APP_PORT))) throw new Error(`Port ${APP_PORT} for the test app is taken; set DECANT_TEST_APP_PORT to a free port.`);
-  group.spawn("test app server", process.execPath, [join(outDir, "server/entry.mjs")], { env: testEnv, stdio: ["ignore", "ignore", "inherit"] });
+  group.spawn("test app server", ...appServerCommand(outDir), { env: testEnv, stdio: ["ignore", "ignore", "inherit"] });
   await waitFor(() => portAnswers(APP_PORT), 30_000, 200);
 
   if (files.length) {

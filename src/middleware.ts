@@ -17,7 +17,6 @@ const STATE_CHANGING = new Set(["POST", "PUT", "PATCH", "DELETE"]);
  * (the label preview on a batch page); everything else may be framed by no one.
  */
 const securityHeaders = defineMiddleware(async (context, next) => {
-  const nonce = randomBytes(16).toString("base64");
   let response = await next();
   // An /api/ path that matches no route (or whose parameter Astro cannot match) answers JSON, not the 404 page.
   if (response.status === 404 && context.url.pathname.startsWith("/api/") && (response.headers.get("content-type") ?? "").startsWith("text/html")) {
@@ -28,12 +27,13 @@ const securityHeaders = defineMiddleware(async (context, next) => {
   const isPdf = type.startsWith("application/pdf");
   // The dev server injects styles and scripts from JavaScript; the policy applies to built apps.
   const enforce = !import.meta.env.DEV;
-  if (isHtml && enforce && response.body) {
+  const nonce = isHtml ? randomBytes(16).toString("base64") : null;
+  if (nonce && enforce && response.body) {
     const html = addNonces(await response.text(), nonce);
     response = new Response(html, { status: response.status, statusText: response.statusText, headers: new Headers(response.headers) });
   }
   const headers: Record<string, string> = { ...STATIC_SECURITY_HEADERS };
-  if (enforce) headers["content-security-policy"] = contentSecurityPolicy({ nonce: isHtml ? nonce : null, frameAncestors: isPdf ? "'self'" : "'none'" });
+  if (enforce) headers["content-security-policy"] = contentSecurityPolicy({ nonce, frameAncestors: isPdf ? "'self'" : "'none'" });
   headers["x-frame-options"] = isPdf ? "SAMEORIGIN" : "DENY";
   if (requestIsHttps(context.request, context.url)) headers["strict-transport-security"] = "max-age=31536000; includeSubDomains";
   // A route's own policy (a stricter one for uploaded files) stays, with frame-ancestors added.

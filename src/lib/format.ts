@@ -12,8 +12,29 @@ export function formatDate(iso: string | Date): string {
   return d.toISOString().slice(0, 10);
 }
 
+const numberFormats = new Map<string, Intl.NumberFormat>();
+
+/**
+ * A shared `Intl.NumberFormat` per locale and options. Building one is far dearer than using it
+ * (`toLocaleString` with options builds one on every call), and a page may format thousands.
+ */
+export function numberFormat(locale: string, options: Intl.NumberFormatOptions = {}): Intl.NumberFormat {
+  const key = `${locale}|${JSON.stringify(options)}`;
+  let format = numberFormats.get(key);
+  if (!format) {
+    format = new Intl.NumberFormat(locale, options);
+    numberFormats.set(key, format);
+  }
+  return format;
+}
+
+/** A number with thousands separators and at most `maximumFractionDigits`, e.g. 12345.678 → "12,345.68". */
+export function formatNumber(value: number, maximumFractionDigits = 0): string {
+  return numberFormat("en-GB", { maximumFractionDigits }).format(value);
+}
+
 /** Volumes: mL below a litre, L above, e.g. 950 → "950 mL", 12 345 → "12.35 L". */
 export function formatVolume(mL: number): string {
-  if (Math.abs(mL) >= 1000) return `${(mL / 1000).toLocaleString("en-GB", { maximumFractionDigits: 2 })} L`;
-  return `${mL.toLocaleString("en-GB", { maximumFractionDigits: 1 })} mL`;
+  if (Math.abs(mL) >= 1000) return `${formatNumber(mL / 1000, 2)} L`;
+  return `${formatNumber(mL, 1)} mL`;
 }

@@ -10,6 +10,7 @@ import { existsSync, mkdirSync, mkdtempSync, rmSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join, resolve } from "node:path";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { appServerCommand } from "../../scripts/lib/app-server.mjs";
 import { ensureAppUser, startMariadb } from "../../scripts/lib/mariadb.mjs";
 import { migrator, seeder } from "../../src/db/umzug";
 import { RUN_LOG_HEADER } from "../../src/lib/imports/run-log";
@@ -185,7 +186,7 @@ beforeAll(async () => {
   // The fakes run in one process each (node --import tsx), so SIGSTOP pauses exactly the fake.
   payments = new Child("payments fake", process.execPath, ["--import", "tsx", "fakes/payments/server.ts"], { ...env, FAKE_PORT: String(paymentsPort) });
   const smtp = new Child("smtp fake", process.execPath, ["--import", "tsx", "fakes/smtp/server.ts"], { ...env, FAKE_PORT: String(smtpPort) });
-  app = new Child("app", process.execPath, [entry], env);
+  app = new Child("app", ...appServerCommand(outDir), env);
   children.push(payments, smtp, app);
   await until("the fakes", async () => (await fetch(`${paymentsBase}/_fake/health`).then((r) => r.ok, () => false)) && payments.alive && smtp.alive, 30_000, 200);
   await until("the app", async () => (await health().then((h) => h.status === 200, () => false)) || (!app.alive && Promise.reject(new Error(`the app exited:\n${app.output}`))), 30_000, 200);

@@ -8,6 +8,7 @@ import { tmpdir } from "node:os";
 import { join, resolve } from "node:path";
 import { QueryTypes, type Sequelize } from "sequelize";
 import { afterAll, beforeAll } from "vitest";
+import { appServerCommand } from "../../scripts/lib/app-server.mjs";
 import { migrator, seeder } from "../../src/db/umzug";
 import { createSequelize } from "../../src/lib/server/db";
 import { testEnv } from "./database";
@@ -50,8 +51,8 @@ export function clientOf(baseUrl: string) {
   };
 }
 
-/** Starts the built app (DECANT_OUT_DIR, built by `npm test`) on a database of its own. */
-export function useAppInstance(): AppInstance {
+/** Starts the built app (DECANT_OUT_DIR, built by `npm test`) on a database of its own; `extraEnv` adds to its environment. */
+export function useAppInstance(extraEnv: NodeJS.ProcessEnv = {}): AppInstance {
   const handle = {} as AppInstance;
   let child: ChildProcess | null = null;
   let output = "";
@@ -67,10 +68,9 @@ export function useAppInstance(): AppInstance {
     const port = await freePort();
     const uploadDir = mkdtempSync(join(tmpdir(), "decant-uploads-"));
     const baseUrl = `http://127.0.0.1:${port}`;
-    const entry = resolve(process.env.DECANT_OUT_DIR ?? "dist", "server/entry.mjs");
-    child = spawn(process.execPath, [entry], {
+    child = spawn(...appServerCommand(process.env.DECANT_OUT_DIR ?? "dist"), {
       // No scheduled jobs: they would write while a test compares the database before and after.
-      env: { ...process.env, DATABASE_NAME: name, HOST: "127.0.0.1", PORT: String(port), APP_ORIGIN: baseUrl, UPLOAD_DIR: uploadDir, NODE_ENV: "production", DECANT_NO_SCHEDULE: "1" },
+      env: { ...process.env, DATABASE_NAME: name, HOST: "127.0.0.1", PORT: String(port), APP_ORIGIN: baseUrl, UPLOAD_DIR: uploadDir, NODE_ENV: "production", DECANT_NO_SCHEDULE: "1", ...extraEnv },
       stdio: ["ignore", "pipe", "pipe"],
     });
     child.stdout?.on("data", (d: Buffer) => (output = (output + d.toString()).slice(-4000)));

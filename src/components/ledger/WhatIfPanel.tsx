@@ -1,7 +1,7 @@
 import { useMemo, useState } from "react";
 import type { ProgramPoint, SolventUseResult } from "../../lib/chem/solvent-use";
 import { ChemInputError } from "../../lib/chem/warnings";
-import { formatVolume } from "../../lib/format";
+import { formatNumber, formatVolume } from "../../lib/format";
 import { whatIf, type WhatIfResult } from "../../lib/ledger/what-if";
 
 interface Props {
@@ -14,7 +14,7 @@ interface Props {
 type RunText = { percentB: string; retention_min: string };
 
 const num = (s: string) => (s.trim() === "" ? Number.NaN : Number(s.replace(",", ".")));
-const min = (v: number) => `${v.toLocaleString("en-GB", { maximumFractionDigits: 2 })} min`;
+const min = (v: number) => `${formatNumber(v, 2)} min`;
 const sign = (v: number) => (v > 0 ? "+" : v < 0 ? "−" : "±");
 
 /** The solvent (and waste) of one scenario, per injection and per 100. */

@@ -3,6 +3,8 @@
  * Never a float of major units; arithmetic stays in integers and only `formatMoney` turns an
  * amount into text. Pure: runs in the browser and on the server.
  */
+import { numberFormat } from "../format";
+
 export interface Money {
   /** Integer minor units, e.g. 1234 for €12.34. */
   amount: number;
@@ -12,7 +14,7 @@ export interface Money {
 
 /** Digits after the decimal point for a currency: 2 for EUR, 0 for JPY. */
 export function minorDigits(currency: string): number {
-  return new Intl.NumberFormat("en", { style: "currency", currency }).resolvedOptions().maximumFractionDigits ?? 2;
+  return numberFormat("en", { style: "currency", currency }).resolvedOptions().maximumFractionDigits ?? 2;
 }
 
 /**
@@ -24,7 +26,7 @@ export function minorDigits(currency: string): number {
 export function formatMoney(money: Money, locale = "en-GB"): string {
   if (!Number.isInteger(money.amount)) throw new RangeError(`Money amounts are integer minor units, got ${money.amount}`);
   const digits = minorDigits(money.currency);
-  return new Intl.NumberFormat(locale, { style: "currency", currency: money.currency, minimumFractionDigits: digits, maximumFractionDigits: digits }).format(money.amount / 10 ** digits);
+  return numberFormat(locale, { style: "currency", currency: money.currency, minimumFractionDigits: digits, maximumFractionDigits: digits }).format(money.amount / 10 ** digits);
 }
 
 /** Adds amounts of one currency; mixing currencies is a programming error. */

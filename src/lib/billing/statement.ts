@@ -7,7 +7,7 @@
  * rounded once, half away from zero; the statement total is the sum of the rounded lines, so
  * the total equals the sum of the invoice items sent for it.
  */
-import { formatVolume } from "../format";
+import { formatNumber, formatVolume } from "../format";
 import { minorDigits, type Money } from "./money";
 import { exactCost, rateInForce, roundMinor, toMicro, type PriceList, type Rate, type RateKind, type RateUnit } from "./rates";
 
@@ -312,7 +312,7 @@ export function nextDay(day: string): string {
 export function quantityLabel(line: Pick<StatementLine, "quantity" | "quantityUnit">): string {
   const q = Number(line.quantity);
   if (line.quantityUnit === "mL") return formatVolume(q);
-  if (line.quantityUnit === "g") return `${q.toLocaleString("en-GB", { maximumFractionDigits: 3 })} g`;
+  if (line.quantityUnit === "g") return `${formatNumber(q, 3)} g`;
   if (line.quantityUnit === "batch") return `${q} ${q === 1 ? "batch" : "batches"}`;
   return `${q} ${q === 1 ? "injection" : "injections"}`;
 }

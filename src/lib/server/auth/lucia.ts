@@ -1,7 +1,8 @@
 import { Lucia, TimeSpan, type Adapter, type DatabaseSession, type DatabaseUser } from "lucia";
-import { Op } from "sequelize";
+import { Op, QueryTypes } from "sequelize";
+import { getSequelize } from "../db";
 import type { Role } from "../../permissions";
-import { Session, User } from "../models/auth";
+import { Session } from "../models/auth";
 
 /** What the app reads about the signed-in user on every request. */
 export interface SessionUserAttributes {
@@ -11,17 +12,35 @@ export interface SessionUserAttributes {
   clientId: number | null;
 }
 
+interface SessionUserRow {
+  id: string;
+  user_id: number;
+  expires_at: Date | string;
+  email: string;
+  name: string;
+  role: Role;
+  client_id: number | null;
+}
+
 const toDatabaseSession = (s: Session): DatabaseSession => ({ id: s.id, userId: s.userId, expiresAt: s.expiresAt, attributes: {} });
 
 /** Lucia's adapter over the Sequelize models: sessions live in MariaDB, shared by every app instance. */
 export class SequelizeSessionAdapter implements Adapter {
+  /**
+   * Runs on every signed-in request, so it is one plain join read straight into lucia's shapes,
+   * without building model instances (about a third of a signed-in JSON read's time otherwise).
+   */
   async getSessionAndUser(sessionId: string): Promise<[DatabaseSession | null, DatabaseUser | null]> {
-    const session = await Session.findByPk(sessionId, { include: [{ model: User, required: true }] });
-    const user = (session as (Session & { User?: User }) | null)?.User;
-    if (!session || !user || !user.active) return [null, null];
+    const [row] = await getSequelize().query<SessionUserRow>(
+      `SELECT s.id, s.user_id, s.expires_at, u.email, u.name, u.role, u.client_id
+         FROM sessions s JOIN users u ON u.id = s.user_id
+        WHERE s.id = :sessionId AND u.active = 1`,
+      { type: QueryTypes.SELECT, replacements: { sessionId } },
+    );
+    if (!row) return [null, null];
     return [
-      toDatabaseSession(session),
-      { id: user.id, attributes: { email: user.email, name: user.name, role: user.role, clientId: user.clientId } },
+      { id: row.id, userId: row.user_id, expiresAt: new Date(row.expires_at), attributes: {} },
+      { id: row.user_id, attributes: { email: row.email, name: row.name, role: row.role, clientId: row.client_id } },
     ];
   }
 

@@ -13,6 +13,7 @@ import { getSequelize } from "../db";
 import type { SignedInUser } from "../guard";
 import { HttpError } from "../http";
 import { appendEntries, ensureCatalogueRows, type NewLedgerEntry } from "./ledger";
+import { lastInsertId } from "./sql";
 import { drawFromBatches, loadBatches, planRun, wasteProblem, type InstrumentForUse, type MethodForUse, type RunPlan } from "./runs";
 
 export interface ImportReport {
@@ -159,7 +160,9 @@ export async function commitRunLog(content: string, fileName: string, actor: Sig
   const sequelize = getSequelize();
   try {
     return await sequelize.transaction(async (transaction) => {
-      const { report, planned } = await prepare(content, fileName, actor, transaction);
+      const prepared = await prepare(content, fileName, actor, transaction);
+      const { report } = prepared;
+      const planned: (PlannedRow | null)[] = prepared.planned;
       if (report.issues.length) {
         throw new HttpError(400, `The file has ${report.issues.length} problem${report.issues.length === 1 ? "" : "s"}; nothing was written.`, { issues: report.issues, report });
       }
@@ -168,36 +171,38 @@ export async function commitRunLog(content: string, fileName: string, actor: Sig
         replacements: [fileName.slice(0, 255), report.checksum, report.newRuns, actor.id, now, now],
         transaction,
       });
-      const [{ id: rawId }] = (await sequelize.query<{ id: number }>("SELECT LAST_INSERT_ID() AS id", { type: QueryTypes.SELECT, transaction })) as [{ id: number }];
-      const importId = Number(rawId);
+      const importId = await lastInsertId(transaction);
       report.importId = importId;
 
+      // Chunk by chunk: the runs, then their ledger entries and batch use, so that the entries of a
+      // 50,000-run file never sit in memory all at once (each chunk's plans are dropped once written).
+      const reagents = new Set(prepared.planned.flatMap((p) => p.plan.entries.map((e) => e.reagentId)));
+      await ensureCatalogueRows(reagents, transaction);
+      const batchUse = new Map<number, number>();
+      const tuple = `(${RUN_COLUMNS.map(() => "?").join(",")})`;
+      let lastRunId = 0;
       for (let start = 0; start < planned.length; start += RUNS_PER_INSERT) {
-        const slice = planned.slice(start, start + RUNS_PER_INSERT);
+        const slice = planned.slice(start, start + RUNS_PER_INSERT).filter((p): p is PlannedRow => p !== null);
+        planned.fill(null, start, start + RUNS_PER_INSERT);
         const values: unknown[] = [];
         for (const p of slice) {
           values.push(p.instrument.id, p.method.id, p.projectId, p.operatorId, p.row.reference, p.row.startedAt, p.row.injections, p.row.blanks, p.row.purge_mL.toFixed(3), JSON.stringify(p.channelBatches), JSON.stringify(p.plan.channelVolumes), importId, now, now);
         }
-        const tuple = `(${RUN_COLUMNS.map(() => "?").join(",")})`;
         await sequelize.query(`INSERT INTO runs (${RUN_COLUMNS.join(",")}) VALUES ${slice.map(() => tuple).join(",")}`, { replacements: values, transaction });
-      }
-      const ids = new Map<string, number>();
-      for (const r of await sequelize.query<{ id: number; instrument_id: number; reference: string }>("SELECT id, instrument_id, reference FROM runs WHERE import_id = ?", { type: QueryTypes.SELECT, replacements: [importId], transaction })) {
-        ids.set(`${r.instrument_id}\u0000${r.reference}`, r.id);
-      }
-      const entries: NewLedgerEntry[] = [];
-      const batchUse = new Map<number, number>();
-      const reagents = new Set<string>();
-      for (const p of planned) {
-        const runId = ids.get(`${p.instrument.id}\u0000${p.row.reference}`);
-        for (const e of p.plan.entries) {
-          entries.push({ ...e, sourceKind: "import", sourceId: `run:${runId}` });
-          reagents.add(e.reagentId);
+        // This chunk's runs: this import's rows past the last chunk's (a range on the import_id index).
+        const ids = new Map<string, number>();
+        for (const r of await sequelize.query<{ id: number; instrument_id: number; reference: string }>("SELECT id, instrument_id, reference FROM runs WHERE import_id = :importId AND id > :lastRunId", { type: QueryTypes.SELECT, replacements: { importId, lastRunId }, transaction })) {
+          ids.set(`${r.instrument_id}\u0000${r.reference}`, r.id);
+          lastRunId = Math.max(lastRunId, r.id);
         }
-        for (const [batchId, v] of p.plan.batchUse) batchUse.set(batchId, (batchUse.get(batchId) ?? 0) + v);
+        const entries: NewLedgerEntry[] = [];
+        for (const p of slice) {
+          const runId = ids.get(`${p.instrument.id}\u0000${p.row.reference}`);
+          for (const e of p.plan.entries) entries.push({ ...e, sourceKind: "import", sourceId: `run:${runId}` });
+          for (const [batchId, v] of p.plan.batchUse) batchUse.set(batchId, (batchUse.get(batchId) ?? 0) + v);
+        }
+        await appendEntries(entries, transaction);
       }
-      await ensureCatalogueRows(reagents, transaction);
-      await appendEntries(entries, transaction);
       await drawFromBatches(batchUse, transaction);
       await recordAudit(
         { actorId: actor.id, action: "import.commit", entity: "import", entityId: importId, ip, after: { fileName, checksum: report.checksum, rowCount: report.rowCount, newRuns: report.newRuns, alreadyRecorded: report.alreadyRecorded, entries: report.entries, volume_mL: report.volume_mL } },
