@@ -107,7 +107,7 @@ const list: Reagent[] = [
   }),
   reagent({
     id: 'acetonitrile', name: 'Acetonitrile', formula: 'CH3CN', form: 'liquid', role: 'solvent',
-    density_g_mL: { at20_C: { value: 0.782, source: 'SolventData' }, at25_C: { value: 0.7766, source: 'MerckM' } },
+    density_g_mL: { at20_C: { value: 0.782, source: 'SolventData', note: 'ThermoML record of doi:10.1016/j.jct.2006.01.015 gives 0.7821' }, at25_C: { value: 0.7768, source: 'ThermoMLjct06' } },
     uvCutoff_nm: { value: 190, source: 'SKD10' },
     polarityIndex: { value: 5.8, source: 'Snyder78' },
     ghs: { pictograms: ['GHS02', 'GHS07'], signalWord: 'Danger', hazardStatements: ['H225', 'H302', 'H312', 'H332', 'H319'], source: 'CLP' },
@@ -134,7 +134,7 @@ const list: Reagent[] = [
   }),
   reagent({
     id: 'isopropanol', name: '2-Propanol', formula: '(CH3)2CHOH', form: 'liquid', role: 'solvent',
-    density_g_mL: { at20_C: { value: 0.7855, source: 'MerckM' }, at25_C: { value: 0.7813, source: 'MerckM' } },
+    density_g_mL: { at20_C: { value: 0.7848, source: 'CRCconc', note: '100 % row of the 2-propanol table' }, at25_C: { value: 0.7813, source: 'MerckM' } },
     uvCutoff_nm: { value: 205, source: 'SKD10' },
     polarityIndex: { value: 3.9, source: 'Snyder78' },
     ghs: { pictograms: ['GHS02', 'GHS07'], signalWord: 'Danger', hazardStatements: ['H225', 'H319', 'H336'], source: 'CLPM' },
