@@ -48,13 +48,13 @@ export const ACID_SYSTEMS: Readonly<Record<AcidSystemId, AcidSystem>> = Object.f
   }),
   formate: sys({
     id: 'formate', name: 'formic acid', z0: 0, species: ['HCOOH', 'HCOO-'],
-    pKa25: [3.75], dH_kJ_mol: [0], dCp_J_K_mol: [null], volatile: true,
-    source: { pKa: 'CRCpKa', note: 'ΔH° taken as about 0 (CRC, from memory)' },
+    pKa25: [3.745], dH_kJ_mol: [0], dCp_J_K_mol: [null], volatile: true,
+    source: { pKa: 'NIST46', note: 'CRC lists 3.75 (from memory); ΔH° taken as about 0 (from memory, not in the sources seen)' },
   }),
   acetate: sys({
     id: 'acetate', name: 'acetic acid', z0: 0, species: ['CH3COOH', 'CH3COO-'],
     pKa25: [4.756], dH_kJ_mol: [-0.41], dCp_J_K_mol: [-142], volatile: true,
-    source: { pKa: 'Harris', thermo: 'GKL02', note: 'sign of ΔH° from the Ka maximum near 22–23 °C' },
+    source: { pKa: 'Harris', thermo: 'GKL02', note: 'NIST 46 gives 4.757; sign of ΔH° from the Ka maximum near 22–23 °C' },
   }),
   citrate: sys({
     id: 'citrate', name: 'citric acid', z0: 0, species: ['H3Cit', 'H2Cit-', 'HCit^2-', 'Cit^3-'],
@@ -68,8 +68,8 @@ export const ACID_SYSTEMS: Readonly<Record<AcidSystemId, AcidSystem>> = Object.f
   }),
   carbonate: sys({
     id: 'carbonate', name: 'carbonic acid', z0: 0, species: ['H2CO3*', 'HCO3-', 'CO3^2-'],
-    pKa25: [6.351, 10.329], dH_kJ_mol: [9.15, 14.7], dCp_J_K_mol: [-371, -249], volatile: true,
-    source: { pKa: 'GKL02', thermo: 'GKL02', note: 'closed system: loss of CO2 to air is not modelled' },
+    pKa25: [6.352, 10.329], dH_kJ_mol: [9.16, 14.6], dCp_J_K_mol: [-371, -249], volatile: true,
+    source: { pKa: 'NIST46', thermo: 'NIST46', note: 'ΔCp° from Goldberg et al. 2002 (from memory), which gives 6.351 / 10.329 and ΔH° 9.15 / 14.70; closed system: loss of CO2 to air is not modelled' },
   }),
   tris: sys({
     id: 'tris', name: 'Tris', z0: 1, species: ['TrisH+', 'Tris'],
@@ -78,8 +78,8 @@ export const ACID_SYSTEMS: Readonly<Record<AcidSystemId, AcidSystem>> = Object.f
   }),
   borate: sys({
     id: 'borate', name: 'boric acid', z0: 0, species: ['B(OH)3', 'B(OH)4-'],
-    pKa25: [9.237], dH_kJ_mol: [13.8], dCp_J_K_mol: [-240], volatile: false,
-    source: { pKa: 'GKL02', thermo: 'GKL02', note: 'polyborates neglected (fine below about 0.025 mol/L boron)' },
+    pKa25: [9.236], dH_kJ_mol: [13.8], dCp_J_K_mol: [-240], volatile: false,
+    source: { pKa: 'NIST46', thermo: 'GKL02', note: 'Goldberg et al. 2002 give 9.237 (from memory); NIST 46 gives ΔH° 13 kJ/mol; polyborates neglected (fine below about 0.025 mol/L boron)' },
   }),
   phthalate: sys({
     id: 'phthalate', name: 'phthalic acid', z0: 0, species: ['H2Phth', 'HPhth-', 'Phth^2-'],

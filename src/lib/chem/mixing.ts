@@ -10,7 +10,7 @@
  * product as sold.
  */
 import { lookupReagent, validateTemperature } from './equilibrium';
-import { CONTRACTION_TABLES, volumeRatio } from './excess-volume';
+import { CONTRACTION_TABLES, contractionCoverage, volumeRatio } from './excess-volume';
 import { reagentDensity, reagentPurity, type Reagent } from './reagents';
 import { concentratedWarning, flammableWarning, nonVolatileWarning, uvCutoffWarning } from './safety';
 import { mgToG, mLToL, mMToMolar } from './units';
@@ -65,7 +65,15 @@ export function mixedVolume(volumes: readonly { reagent: Reagent; volume_mL: num
     if (rhoOrganic !== undefined) {
       const mOrganic = organic.volume_mL * rhoOrganic;
       const mWater = water.volume_mL * waterDensity_g_mL(temperature_C);
-      return ideal * volumeRatio(table, mOrganic / (mOrganic + mWater));
+      const w = mOrganic / (mOrganic + mWater);
+      if (contractionCoverage(table, w) === 'estimated') {
+        pushWarning(warnings, {
+          code: 'contraction-estimated',
+          message: `Volume-of-mixing data for ${organic.reagent.name} + water do not reach this composition: the final volume is an estimate and may be overstated by a little.`,
+          reagent: organic.reagent.id,
+        });
+      }
+      return ideal * volumeRatio(table, w);
     }
   }
   const names = present.map((v) => v.reagent.name).join(' + ');

@@ -21,6 +21,8 @@ export const WARNING_CODES = [
   'flammable',
   /** No published volume-of-mixing data for these solvents: the final volume assumes ideal mixing. */
   'no-contraction-data',
+  /** Volume-of-mixing data exist for these solvents, but not at this composition: the contraction is an estimate. */
+  'contraction-estimated',
   /** No published viscosity table for this mix at this temperature. */
   'no-viscosity-data',
   /** Temperature outside the range of the activity and pKa data (0–50 °C). */

@@ -20,7 +20,7 @@ export function waterDensity_g_mL(temperature_C: number): number {
 
 /**
  * pKw on the activity scale, from Harned & Robinson, Trans. Faraday Soc. 36,
- * 973 (1940) (from memory): pKw = 4470.99/T − 6.0875 + 0.01706·T. Gives
+ * 973 (1940), as given in Stumm & Morgan (1981): pKw = 4470.99/T − 6.0875 + 0.01706·T. Gives
  * 13.995 at 25 °C; fitted over 0–60 °C.
  */
 export function pKw(temperature_C: number): number {
