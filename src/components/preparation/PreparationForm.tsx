@@ -6,7 +6,8 @@ import { batchExpiry, lotExpired, type ExpiryRule } from "../../lib/preparation/
 import { preparationPlan, type PreparationPlan } from "../../lib/preparation/plan";
 import { batchCreateSchema, type BatchCreateInput } from "../../lib/schemas/preparation";
 import type { PreparableRecipe } from "../../lib/server/services/recipes";
-import { postJson, useZodForm } from "../forms/form";
+import { useZodForm } from "../forms/form";
+import { postJson } from "../forms/post-json";
 
 /** The recipe as the page hands it to the form (the service's shape, without the recipe id). */
 export type FormRecipe = Omit<PreparableRecipe, "recipeId">;

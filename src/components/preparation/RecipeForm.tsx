@@ -3,7 +3,8 @@ import { useFieldArray } from "react-hook-form";
 import { ADDITIVE_UNITS, ChemInputError, reagents } from "../../lib/chem";
 import { describeSpec, preparationPlan } from "../../lib/preparation/plan";
 import { recipeInputSchema, recipeSpecSchema, type RecipeInput } from "../../lib/schemas/recipes";
-import { Field, postJson, useZodForm } from "../forms/form";
+import { Field, useZodForm } from "../forms/form";
+import { postJson } from "../forms/post-json";
 
 const SOLVENTS = reagents.filter((r) => r.form === "liquid" && r.polarityIndex !== undefined);
 const NON_SOLVENTS = reagents.filter((r) => r.role !== "solvent");
