@@ -99,3 +99,20 @@ test("a technician writes a recipe: the form checks it, says it in words and per
   await expect(page).toHaveURL(/\/recipes\/\d+\?saved=1$/);
   await expect(page.getByRole("heading", { name: "Water–acetonitrile 70:30 with formic acid" })).toBeVisible();
 });
+
+test("the recipe form still saves, checked by the server, when its checks and preview cannot be loaded", async ({ page }) => {
+  await signIn(page, "tech@demo.test");
+  // The resolver, the recipe schema and (through it) the preview are fetched on demand: refuse them.
+  await page.route(/\/_astro\/(zod|recipes|RecipePreview)\.[^/]+\.js$/, (route) => route.abort());
+  await page.goto("/recipes/new");
+  await expect(page.locator("astro-island[ssr]")).toHaveCount(0);
+  await expect(page.getByText("The preview could not be loaded; the recipe can still be saved.")).toBeVisible();
+
+  // Sent unchecked, the API route's own schema names the field.
+  await page.getByRole("button", { name: "Create the recipe" }).click();
+  await expect(page.getByRole("alert")).toContainText("Give the recipe a name (3–160 characters)");
+
+  await page.getByLabel("Name").fill("Plain water for rinsing");
+  await page.getByRole("button", { name: "Create the recipe" }).click();
+  await expect(page).toHaveURL(/\/recipes\/\d+\?saved=1$/);
+});
