@@ -1,4 +1,4 @@
-import { expect, test } from "@playwright/test";
+import { expect, test, type Locator } from "@playwright/test";
 import { signIn } from "./support";
 
 
@@ -35,10 +35,24 @@ test("a technician logs a run in the browser and sees the batch's remaining volu
   await expect(page.getByRole("cell", { name: "47.2168 mL" })).toBeVisible();
 });
 
-test("a manager sees the usage table for a period", async ({ page }) => {
+const day = (daysAgo: number) => new Date(Date.now() - daysAgo * 86_400_000).toISOString().slice(0, 10);
+
+/** What the first column of the usage table shows, row by row. */
+const tableGroups = (table: Locator) => table.locator("tbody tr td:first-child").allInnerTexts();
+
+/** The bars the usage chart draws, in order (the canvas lists them in `data-groups`). */
+const chartGroups = async (chart: Locator) => JSON.parse((await chart.getAttribute("data-groups")) ?? "[]") as string[];
+
+test("a manager sees the usage table and its chart for a period, under the page's security policy", async ({ page }) => {
+  // Anything the policy refuses (an injected style or script) is recorded here.
+  await page.addInitScript(() => {
+    const seen: string[] = [];
+    Object.assign(window, { cspViolations: seen });
+    document.addEventListener("securitypolicyviolation", (e) => seen.push(`${e.violatedDirective} ${e.blockedURI}`));
+  });
   await signIn(page, "manager@demo.test");
-  const day = (daysAgo: number) => new Date(Date.now() - daysAgo * 86_400_000).toISOString().slice(0, 10);
-  await page.goto(`/usage?from=${day(30)}&to=${day(0)}`);
+  const response = await page.goto(`/usage?from=${day(30)}&to=${day(0)}`);
+  expect(response?.headers()["content-security-policy"]).toMatch(/style-src 'self' 'nonce-[^']+'/);
   const table = page.getByRole("table", { name: "Usage per project" });
   await expect(table).toBeVisible();
   // A longer period: the island fetches GET /api/usage again.
@@ -47,8 +61,40 @@ test("a manager sees the usage table for a period", async ({ page }) => {
   await expect(page.getByRole("figure")).toContainText(`${day(60)} to ${day(0)}`);
   await expect(table.locator("tr[data-project='PMG-ROOT-26']")).toBeVisible();
   await expect(table.locator("tr[data-project='QFT-IMP-014']")).toContainText("€");
-  await expect(page.getByRole("img", { name: "Bar chart of the volume per project" })).toBeVisible();
+
+  // The chart draws one bar per row of the table, in the table's order, in Decant's teal.
+  const chart = page.getByRole("img", { name: /^Bar chart of the volume( and cost)? per project$/ });
+  await expect(chart).toBeVisible();
+  await expect.poll(() => chartGroups(chart)).toEqual(await tableGroups(table));
+  await expect(chart).toHaveAccessibleDescription(/PMG-ROOT-26: [\d.,]+ (mL|L)/);
+  await expect.poll(() => chart.evaluate((canvas: HTMLCanvasElement) => {
+    const { data } = canvas.getContext("2d")!.getImageData(0, 0, canvas.width, canvas.height);
+    let teal = 0;
+    for (let i = 0; i < data.length; i += 4) if (data[i] === 0x14 && data[i + 1] === 0x5f && data[i + 2] === 0x66) teal++;
+    return teal;
+  })).toBeGreaterThan(500);
+
+  // The chart follows the table's filter and grouping.
   await page.getByLabel("Filter").fill("QFT");
   await expect(table.locator("tbody tr")).toHaveCount(2);
+  await expect.poll(() => chartGroups(chart)).toEqual(await tableGroups(table));
+  await page.getByLabel("Filter").fill("");
+  await page.getByLabel("Group by").selectOption("client");
+  const byClient = page.getByRole("table", { name: "Usage per client" });
+  await expect(byClient).toBeVisible();
+  const clientChart = page.getByRole("img", { name: /^Bar chart of the volume( and cost)? per client$/ });
+  await expect.poll(() => chartGroups(clientChart)).toEqual(await tableGroups(byClient));
+  expect(await page.evaluate(() => (window as unknown as { cspViolations: string[] }).cspViolations)).toEqual([]);
   await page.screenshot({ path: `${process.env.DECANT_TEST_DATA_DIR ?? ".data/test"}/playwright-output/ledger-usage.png`, fullPage: true });
+});
+
+test("the usage table stays usable when the chart cannot be loaded", async ({ page }) => {
+  await signIn(page, "manager@demo.test");
+  await page.route(/\/_astro\/UsageChart\.[^/]+\.js$/, (route) => route.abort());
+  await page.goto(`/usage?from=${day(60)}&to=${day(0)}`);
+  await expect(page.getByText("The chart could not be loaded. The table above has every figure.")).toBeVisible();
+  const table = page.getByRole("table", { name: "Usage per project" });
+  await page.getByLabel("Filter").fill("QFT");
+  await expect(table.locator("tbody tr")).toHaveCount(2);
+  await expect(page.getByRole("img", { name: /^Bar chart/ })).toHaveCount(0);
 });

@@ -70,3 +70,49 @@ test("a technician prepares a batch from a demo recipe, records it and prints it
   await expect(page).toHaveURL(/\/batches\/\d+$/);
   await expect(page.getByRole("heading", { level: 1 })).toHaveText(code);
 });
+
+test("a technician writes a recipe: the form checks it, says it in words and per litre, and saves it", async ({ page }) => {
+  await signIn(page, "tech@demo.test");
+  await page.goto("/recipes/new");
+  await expect(page.locator("astro-island[ssr]")).toHaveCount(0);
+  // The preview arrives with the chemistry, just after the form.
+  const words = page.getByTestId("recipe-description");
+  await expect(words).toHaveText("Water 100 %");
+
+  // The checks (the API route's own schema) run when the form is first sent.
+  await page.getByRole("button", { name: "Create the recipe" }).click();
+  await expect(page.getByText("Give the recipe a name (3–160 characters)")).toBeVisible();
+
+  await page.getByLabel("Name").fill("Water–acetonitrile 70:30 with formic acid");
+  await page.getByLabel("%", { exact: true }).first().fill("70");
+  await page.getByRole("button", { name: "Add a solvent" }).click();
+  await page.getByLabel("Solvent 2").selectOption({ label: "Acetonitrile" });
+  await page.getByLabel("%", { exact: true }).nth(1).fill("30");
+  await page.getByRole("button", { name: "Add an additive" }).click();
+  await expect(page.getByLabel("Additive 1")).toHaveValue("formic-acid");
+  await expect(words).toHaveText("Water 70 % + Acetonitrile 30 % · formic acid 0.1 %v/v");
+  const litre = page.getByTestId("recipe-litre");
+  await expect(litre.getByRole("listitem").filter({ hasText: "Acetonitrile" })).toContainText("300.0 mL");
+  await expect(litre.getByRole("listitem").filter({ hasText: "Water" })).toContainText("700.0 mL");
+
+  await page.getByRole("button", { name: "Create the recipe" }).click();
+  await expect(page).toHaveURL(/\/recipes\/\d+\?saved=1$/);
+  await expect(page.getByRole("heading", { name: "Water–acetonitrile 70:30 with formic acid" })).toBeVisible();
+});
+
+test("the recipe form still saves, checked by the server, when its checks and preview cannot be loaded", async ({ page }) => {
+  await signIn(page, "tech@demo.test");
+  // The resolver, the recipe schema and (through it) the preview are fetched on demand: refuse them.
+  await page.route(/\/_astro\/(zod|recipes|RecipePreview)\.[^/]+\.js$/, (route) => route.abort());
+  await page.goto("/recipes/new");
+  await expect(page.locator("astro-island[ssr]")).toHaveCount(0);
+  await expect(page.getByText("The preview could not be loaded; the recipe can still be saved.")).toBeVisible();
+
+  // Sent unchecked, the API route's own schema names the field.
+  await page.getByRole("button", { name: "Create the recipe" }).click();
+  await expect(page.getByRole("alert")).toContainText("Give the recipe a name (3–160 characters)");
+
+  await page.getByLabel("Name").fill("Plain water for rinsing");
+  await page.getByRole("button", { name: "Create the recipe" }).click();
+  await expect(page).toHaveURL(/\/recipes\/\d+\?saved=1$/);
+});

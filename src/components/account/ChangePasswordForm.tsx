@@ -1,6 +1,7 @@
 import { useState } from "react";
 import { changePasswordSchema, type ChangePasswordInput } from "../../lib/schemas/auth";
-import { Field, postJson, useZodForm } from "../forms/form";
+import { Field, useZodForm } from "../forms/form";
+import { postJson } from "../forms/post-json";
 
 export default function ChangePasswordForm({ email }: { email: string }) {
   const { register, handleSubmit, formState, reset, setError } = useZodForm<ChangePasswordInput>(changePasswordSchema);

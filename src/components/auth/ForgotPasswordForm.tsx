@@ -1,6 +1,7 @@
 import { useState } from "react";
 import { forgotPasswordSchema, type ForgotPasswordInput } from "../../lib/schemas/auth";
-import { Field, postJson, useZodForm } from "../forms/form";
+import { Field, useZodForm } from "../forms/form";
+import { postJson } from "../forms/post-json";
 
 export default function ForgotPasswordForm() {
   const { register, handleSubmit, formState } = useZodForm<ForgotPasswordInput>(forgotPasswordSchema);

@@ -1,6 +1,7 @@
 import { useState } from "react";
 import { setPasswordSchema, type SetPasswordInput } from "../../lib/schemas/auth";
-import { Field, postJson, useZodForm } from "../forms/form";
+import { Field, useZodForm } from "../forms/form";
+import { postJson } from "../forms/post-json";
 
 export default function SetPasswordForm({ token, email }: { token: string; email: string }) {
   const { register, handleSubmit, formState } = useZodForm<SetPasswordInput>(setPasswordSchema, { defaultValues: { token } });

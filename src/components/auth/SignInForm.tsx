@@ -1,6 +1,7 @@
 import { useState } from "react";
 import { signInSchema, type SignInInput } from "../../lib/schemas/auth";
-import { Field, postJson, useZodForm } from "../forms/form";
+import { Field, useZodForm } from "../forms/form";
+import { postJson } from "../forms/post-json";
 
 export default function SignInForm({ next, email = "" }: { next: string; email?: string }) {
   // No defaultValues: react-hook-form would then overwrite what was typed before hydration.

@@ -1,5 +1,5 @@
 import { useState } from "react";
-import { postJson } from "../forms/form";
+import { postJson } from "../forms/post-json";
 
 interface Props {
   clientId: number;

@@ -2,7 +2,7 @@ import { useId, useState, type FormEvent } from "react";
 import { parseMajorAmount } from "../../lib/billing/statement";
 import { rateInput } from "../../lib/schemas/billing";
 import { fieldErrors } from "../../lib/schemas/zod-error";
-import { postJson } from "../forms/form";
+import { postJson } from "../forms/post-json";
 
 export interface ReagentOption {
   id: string;

@@ -1,13 +1,40 @@
-import { zodResolver } from "@hookform/resolvers/zod";
-import { useId, type InputHTMLAttributes, type ReactNode, type SelectHTMLAttributes } from "react";
-import { useForm, type FieldValues, type UseFormProps, type UseFormRegisterReturn } from "react-hook-form";
+import { useId, useState, type InputHTMLAttributes, type ReactNode, type SelectHTMLAttributes } from "react";
+import { useForm, type FieldValues, type Resolver, type UseFormProps, type UseFormRegisterReturn } from "react-hook-form";
 import type { ZodType, ZodTypeDef } from "zod";
 
+type FormSchema<T> = ZodType<T, ZodTypeDef, unknown>;
+
+/**
+ * The schema itself, or a function that imports it. A form whose schema pulls in much (zod, the
+ * reagent catalogue) passes `() => import("…").then((m) => m.schema)`, so the page does not carry it.
+ */
+export type SchemaSource<T> = FormSchema<T> | (() => Promise<FormSchema<T>>);
+
+/**
+ * zodResolver and the schema, loaded at the form's first check (a field left, or a submit) rather
+ * than with the page. Should that load fail, the form goes out unchecked: the API route parses the
+ * same schema and answers with the field at fault, which every form shows. The next check retries.
+ */
+function deferredResolver<T extends FieldValues>(load: () => Promise<FormSchema<T>>): Resolver<T> {
+  let loading: Promise<Resolver<T>> | null = null;
+  return async (values, context, options) => {
+    // The resolver's overloads want the schema's input type to be FieldValues; ours is `unknown`.
+    loading ??= Promise.all([import("@hookform/resolvers/zod"), load()]).then(([{ zodResolver }, schema]) => zodResolver(schema as never) as unknown as Resolver<T>);
+    let resolve: Resolver<T>;
+    try {
+      resolve = await loading;
+    } catch {
+      loading = null;
+      return { values, errors: {} };
+    }
+    return resolve(values, context, options);
+  };
+}
+
 /** react-hook-form bound to the same zod schema the API route parses with. */
-export function useZodForm<T extends FieldValues>(schema: ZodType<T, ZodTypeDef, unknown>, options: Omit<UseFormProps<T>, "resolver"> = {}) {
-  // The resolver's overloads want the schema's input type to be FieldValues; ours is `unknown`.
-  const resolver = zodResolver(schema as unknown as Parameters<typeof zodResolver>[0]);
-  return useForm<T>({ ...options, resolver: resolver as never, mode: "onTouched" });
+export function useZodForm<T extends FieldValues>(schema: SchemaSource<T>, options: Omit<UseFormProps<T>, "resolver"> = {}) {
+  const [resolver] = useState(() => deferredResolver(typeof schema === "function" ? schema : async () => schema));
+  return useForm<T>({ ...options, resolver, mode: "onTouched" });
 }
 
 interface FieldProps extends InputHTMLAttributes<HTMLInputElement> {
@@ -64,13 +91,4 @@ export function SelectField({ label, registration, options, error, placeholder, 
       )}
     </div>
   );
-}
-
-/** Posts JSON to an API route; throws with the route's message on failure. */
-export async function postJson<T = unknown>(url: string, body: unknown, method = "POST"): Promise<T> {
-  const response = await fetch(url, { method, headers: { "content-type": "application/json" }, body: JSON.stringify(body) });
-  if (response.status === 204) return undefined as T;
-  const data = (await response.json().catch(() => ({}))) as { error?: string };
-  if (!response.ok) throw new Error(data.error ?? `The request failed (${response.status}).`);
-  return data as T;
 }

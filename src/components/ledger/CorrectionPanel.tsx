@@ -1,5 +1,5 @@
 import { useState } from "react";
-import { postJson } from "../forms/form";
+import { postJson } from "../forms/post-json";
 
 /** Reverses a run's entries (never edits them): the reason and your name stay with the correction. */
 export default function CorrectionPanel({ runId, open }: { runId: number; open: number }) {

@@ -1,7 +1,8 @@
 import { useEffect, useState } from "react";
 import { formatVolume } from "../../lib/format";
 import { DRAW_PURPOSES, drawSchema, type DrawInput } from "../../lib/schemas/runs";
-import { Field, postJson, useZodForm } from "../forms/form";
+import { Field, useZodForm } from "../forms/form";
+import { postJson } from "../forms/post-json";
 import { newKey } from "./keys";
 
 interface Props {

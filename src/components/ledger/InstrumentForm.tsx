@@ -1,7 +1,8 @@
 import { useState } from "react";
 import { CHANNELS } from "../../lib/schemas/fields";
 import { instrumentSchema, type InstrumentInput } from "../../lib/schemas/instruments";
-import { Field, postJson, useZodForm } from "../forms/form";
+import { Field, useZodForm } from "../forms/form";
+import { postJson } from "../forms/post-json";
 
 interface Props {
   instrument?: { id: number; name: string; kind: string; room: string; channels: string[]; wasteContainerId: number | null; active: boolean };

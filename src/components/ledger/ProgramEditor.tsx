@@ -4,7 +4,7 @@ import { formatVolume } from "../../lib/format";
 import { programChannels, rowsToProgram } from "../../lib/ledger/program";
 import { fieldErrors } from "../../lib/schemas/zod-error";
 import { methodSchema, programRowSchema, type ProgramRow } from "../../lib/schemas/methods";
-import { postJson } from "../forms/form";
+import { postJson } from "../forms/post-json";
 import ProgramChart from "./ProgramChart";
 
 type RowText = Record<keyof ProgramRow, string>;

@@ -5,7 +5,8 @@ import { formatVolume } from "../../lib/format";
 import { programChannels } from "../../lib/ledger/program";
 import { CHANNELS } from "../../lib/schemas/fields";
 import { runSchema, type RunInput } from "../../lib/schemas/runs";
-import { Field, postJson, useZodForm } from "../forms/form";
+import { Field, useZodForm } from "../forms/form";
+import { postJson } from "../forms/post-json";
 import { newKey, utcInputValue } from "./keys";
 
 interface Option { id: number; label: string; /** exact mL left, for tests and screen readers' titles */ ml?: number }

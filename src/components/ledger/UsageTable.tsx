@@ -1,12 +1,18 @@
 import { QueryClient, QueryClientProvider, useQuery } from "@tanstack/react-query";
 import { getCoreRowModel, getFilteredRowModel, getSortedRowModel, useReactTable, type ColumnDef, type SortingState } from "@tanstack/react-table";
-import { useEffect, useMemo, useState } from "react";
+import { lazy, Suspense, useEffect, useMemo, useState } from "react";
 import type { UsageRow } from "../../lib/server/services/usage";
 import type { GroupedUsageRow } from "../../lib/server/services/usage-groups";
 import { USAGE_GROUPINGS, type UsageGrouping } from "../../lib/ledger/usage-groupings";
 import { formatMoney } from "../../lib/billing/money";
 import { csvField } from "../../lib/imports/csv";
 import { formatVolume } from "../../lib/format";
+import { usageChartSeries } from "../../lib/ledger/usage-chart";
+import { LoadBoundary } from "../common/LoadBoundary";
+
+// Chart.js is about as heavy as the rest of the page together: it is fetched only once there is
+// usage to draw, so the page itself stays inside its JavaScript budget (DEVELOPERS.md, Usage).
+const UsageChart = lazy(() => import("./UsageChart"));
 
 /** One row of any grouping, in one shape for the table. */
 interface Row {
@@ -99,13 +105,16 @@ function UsageView({ initialFrom, initialTo, initialGroupBy }: { initialFrom?: s
     getSortedRowModel: getSortedRowModel(),
     getFilteredRowModel: getFilteredRowModel(),
   });
-  const rows = table.getRowModel().rows.map((r) => r.original);
+  // TanStack Table keeps the row model while nothing changes: so do the rows, and the chart with them.
+  const rowModel = table.getRowModel();
+  const rows = useMemo(() => rowModel.rows.map((r) => r.original), [rowModel]);
   const sort = { key: (sorting[0]?.id ?? "total") as SortKey, desc: sorting[0]?.desc ?? true };
   const reagents = useMemo(() => [...new Set(rows.flatMap((r) => Object.keys(r.volumes_mL)))].sort(), [rows]);
   const phases = useMemo(() => [...new Set(rows.flatMap((r) => Object.keys(r.mobilePhases_mL)))].sort(), [rows]);
   const shown = state.kind === "ready" ? state.groupBy : groupBy;
   const phaseName = (code: string) => (state.kind === "ready" ? state.phases[code] : undefined) ?? code;
-  const max = Math.max(1, ...rows.map(total));
+  const chartSeries = useMemo(() => usageChartSeries(rows.map((r) => ({ label: r.label, volume_mL: total(r), costs: r.costs }))), [rows]);
+  const groupNoun = GROUP_LABEL[shown].toLowerCase();
 
   function exportCsv() {
     const header = [shown, `${shown}_name`, "detail", "runs", "injections", ...reagents.map((r) => `${r}_mL`), ...phases.map((p) => `phase_${p}_mL`), "total_mL", "cost_minor", "currency"];
@@ -146,7 +155,7 @@ function UsageView({ initialFrom, initialTo, initialGroupBy }: { initialFrom?: s
       {rows.length > 0 && (
         <>
           <div className="card overflow-x-auto">
-            <table className="table" aria-label={`Usage per ${GROUP_LABEL[shown].toLowerCase()}`}>
+            <table className="table" aria-label={`Usage per ${groupNoun}`}>
               <thead>
                 <tr>
                   {header("label", GROUP_LABEL[shown])}
@@ -181,16 +190,12 @@ function UsageView({ initialFrom, initialTo, initialGroupBy }: { initialFrom?: s
             </table>
           </div>
           <figure className="card m-0 p-4">
-            <figcaption className="mb-2 text-sm font-semibold">Volume per {GROUP_LABEL[shown].toLowerCase()}, {from} to {to}</figcaption>
-            <svg viewBox={`0 0 600 ${rows.length * 26 + 8}`} width="100%" role="img" aria-label={`Bar chart of the volume per ${GROUP_LABEL[shown].toLowerCase()}`}>
-              {rows.map((r, i) => (
-                <g key={r.key} transform={`translate(0 ${i * 26 + 4})`}>
-                  <text x="0" y="15" fontSize="11" fill="#1c2733" fontFamily="IBM Plex Mono, monospace">{r.label.length > 18 ? `${r.label.slice(0, 17)}…` : r.label}</text>
-                  <rect x="120" y="3" height="16" width={Math.max(1, (total(r) / max) * 380)} fill="#145f66" rx="2" />
-                  <text x={126 + (total(r) / max) * 380} y="15" fontSize="11" fill="#4a5663">{formatVolume(total(r))}</text>
-                </g>
-              ))}
-            </svg>
+            <figcaption className="mb-2 text-sm font-semibold">{chartSeries.cost ? "Volume and cost" : "Volume"} per {groupNoun}, {from} to {to}</figcaption>
+            <LoadBoundary fallback={<p className="notice">The chart could not be loaded. The table above has every figure.</p>}>
+              <Suspense fallback={<p className="text-sm text-[var(--color-muted)]" role="status">Loading the chart…</p>}>
+                <UsageChart series={chartSeries} name={`Bar chart of the ${chartSeries.cost ? "volume and cost" : "volume"} per ${groupNoun}`} />
+              </Suspense>
+            </LoadBoundary>
           </figure>
         </>
       )}

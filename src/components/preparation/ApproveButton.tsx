@@ -1,5 +1,5 @@
 import { useState } from "react";
-import { postJson } from "../forms/form";
+import { postJson } from "../forms/post-json";
 
 export default function ApproveButton({ recipeId, version }: { recipeId: number; version: number }) {
   const [error, setError] = useState<string | null>(null);

@@ -1,12 +1,13 @@
 import convert from "convert-units";
 import { useEffect, useMemo, useRef, useState } from "react";
-import { ChemInputError } from "../../lib/chem";
+import { ChemInputError } from "../../lib/chem/warnings";
 import { findDeviations, type Tolerances } from "../../lib/preparation/deviations";
 import { batchExpiry, lotExpired, type ExpiryRule } from "../../lib/preparation/expiry";
 import { preparationPlan, type PreparationPlan } from "../../lib/preparation/plan";
-import { batchCreateSchema, type BatchCreateInput } from "../../lib/schemas/preparation";
+import type { BatchCreateInput } from "../../lib/schemas/preparation";
 import type { PreparableRecipe } from "../../lib/server/services/recipes";
-import { postJson, useZodForm } from "../forms/form";
+import { useZodForm } from "../forms/form";
+import { postJson } from "../forms/post-json";
 
 /** The recipe as the page hands it to the form (the service's shape, without the recipe id). */
 export type FormRecipe = Omit<PreparableRecipe, "recipeId">;
@@ -35,6 +36,10 @@ interface Props {
 type VolumeUnit = "ml" | "l";
 type MassUnit = "g" | "mg";
 
+// With zod and the schema the page would pass its JavaScript budget: they load at the form's first
+// check (a field left, or a submit) instead; the chemistry, which the first view needs, comes first.
+const loadBatchSchema = () => import("../../lib/schemas/preparation").then((m) => m.batchCreateSchema);
+
 const ROLE_LABEL: Record<string, string> = { solvent: "solvent", buffer: "buffer", titrant: "to pH", additive: "additive" };
 
 function newKey(): string {
@@ -51,7 +56,7 @@ function fmt(n: number, digits = 4): string {
 export default function PreparationForm({ recipes, lots, tolerances, expiryRules, initialRecipeVersionId, rooms = [] }: Props) {
   const key = useRef(newKey());
   const first = recipes.find((r) => r.versionId === initialRecipeVersionId) ?? recipes[0];
-  const form = useZodForm<BatchCreateInput>(batchCreateSchema, {
+  const form = useZodForm<BatchCreateInput>(loadBatchSchema, {
     defaultValues: {
       idempotencyKey: key.current, recipeVersionId: first?.versionId ?? 0, volume_mL: 1000, bottles: 1, bottleSize_mL: 1000, temperature_C: 22,
       measuredPH: null, phMeterTemperature_C: null, components: [], deviationReason: "",

@@ -2,7 +2,7 @@ import { useState } from "react";
 import type { PreparationSettings } from "../../lib/schemas/preparation";
 import { preparationSettingsSchema } from "../../lib/schemas/preparation";
 import { formatZodError } from "../../lib/schemas/zod-error";
-import { postJson } from "../forms/form";
+import { postJson } from "../forms/post-json";
 
 /** Expiry rules, deviation tolerances and label stocks, for a manager. */
 export default function PreparationSettingsForm({ initial }: { initial: PreparationSettings }) {

@@ -1,14 +1,19 @@
-import { useMemo, useState } from "react";
+import { lazy, Suspense, useState } from "react";
 import { useFieldArray } from "react-hook-form";
-import { ADDITIVE_UNITS, ChemInputError, reagents } from "../../lib/chem";
-import { describeSpec, preparationPlan } from "../../lib/preparation/plan";
-import { recipeInputSchema, recipeSpecSchema, type RecipeInput } from "../../lib/schemas/recipes";
-import { Field, postJson, useZodForm } from "../forms/form";
+import type { RecipeChoices } from "../../lib/preparation/recipe-choices";
+import type { RecipeInput } from "../../lib/schemas/recipes";
+import { LoadBoundary } from "../common/LoadBoundary";
+import { Field, useZodForm } from "../forms/form";
+import { postJson } from "../forms/post-json";
 
-const SOLVENTS = reagents.filter((r) => r.form === "liquid" && r.polarityIndex !== undefined);
-const NON_SOLVENTS = reagents.filter((r) => r.role !== "solvent");
+// The chemistry behind the preview, the reagent catalogue and zod would take the page past its
+// JavaScript budget: they load after the form is up (the preview) or at its first check (the schema).
+const RecipePreview = lazy(() => import("./RecipePreview"));
+const loadRecipeSchema = () => import("../../lib/schemas/recipes").then((m) => m.recipeInputSchema);
 
 interface Props {
+  /** Reagents and units the lists offer, from the catalogue (`recipeChoices()` on the page). */
+  choices: RecipeChoices;
   recipeId?: number;
   initial?: RecipeInput;
   /** The latest version is approved or used: saving makes a new version. */
@@ -20,8 +25,8 @@ const EMPTY: RecipeInput = {
   spec: { solvents: [{ reagent: "water", percent: 100 }], additives: [], labile: false },
 };
 
-export default function RecipeForm({ recipeId, initial, makesNewVersion = false }: Props) {
-  const form = useZodForm<RecipeInput>(recipeInputSchema, { defaultValues: initial ?? EMPTY });
+export default function RecipeForm({ choices, recipeId, initial, makesNewVersion = false }: Props) {
+  const form = useZodForm<RecipeInput>(loadRecipeSchema, { defaultValues: initial ?? EMPTY });
   const { register, control, handleSubmit, watch, setValue, formState } = form;
   const solvents = useFieldArray({ control, name: "spec.solvents" });
   const additives = useFieldArray({ control, name: "spec.additives" });
@@ -30,17 +35,6 @@ export default function RecipeForm({ recipeId, initial, makesNewVersion = false 
   const spec = watch("spec");
   const hasBuffer = Boolean(spec.buffer);
   const errors = formState.errors;
-
-  const preview = useMemo(() => {
-    const parsed = recipeSpecSchema.safeParse(spec);
-    if (!parsed.success) return { text: null, error: parsed.error.issues[0]?.message ?? "Incomplete", plan: null };
-    try {
-      return { text: describeSpec(parsed.data), error: null, plan: preparationPlan({ spec: parsed.data, volume_mL: 1000, detection_nm: Number(watch("detection_nm")) || null }) };
-    } catch (e) {
-      return { text: describeSpec(parsed.data), error: e instanceof ChemInputError ? e.message : "Cannot be computed", plan: null };
-    }
-    // eslint-disable-next-line react-hooks/exhaustive-deps
-  }, [JSON.stringify(spec), watch("detection_nm")]);
 
   const onSubmit = handleSubmit(async (values) => {
     setError(null);
@@ -82,7 +76,7 @@ export default function RecipeForm({ recipeId, initial, makesNewVersion = false 
                 <div className="field min-w-48 flex-1">
                   <label htmlFor={`solvent-${i}`}>Solvent {i + 1}</label>
                   <select id={`solvent-${i}`} className="input" {...register(`spec.solvents.${i}.reagent` as const)}>
-                    {SOLVENTS.map((r) => <option key={r.id} value={r.id}>{r.name}</option>)}
+                    {choices.solvents.map((r) => <option key={r.id} value={r.id}>{r.name}</option>)}
                   </select>
                 </div>
                 <div className="field w-28">
@@ -110,7 +104,7 @@ export default function RecipeForm({ recipeId, initial, makesNewVersion = false 
                 <div key={k} className="field">
                   <label htmlFor={`buffer-${k}`}>{k === 0 ? "First reagent (fixed concentration)" : "Second reagent (conjugate or titrant)"}</label>
                   <select id={`buffer-${k}`} className="input" {...register(k === 0 ? "spec.buffer.reagents.0" : "spec.buffer.reagents.1")}>
-                    {NON_SOLVENTS.map((r) => <option key={r.id} value={r.id}>{r.name}</option>)}
+                    {choices.solutes.map((r) => <option key={r.id} value={r.id}>{r.name}</option>)}
                   </select>
                 </div>
               ))}
@@ -137,7 +131,7 @@ export default function RecipeForm({ recipeId, initial, makesNewVersion = false 
                 <div className="field min-w-48 flex-1">
                   <label htmlFor={`additive-${i}`}>Additive {i + 1}</label>
                   <select id={`additive-${i}`} className="input" {...register(`spec.additives.${i}.reagent` as const)}>
-                    {NON_SOLVENTS.map((r) => <option key={r.id} value={r.id}>{r.name}</option>)}
+                    {choices.solutes.map((r) => <option key={r.id} value={r.id}>{r.name}</option>)}
                   </select>
                 </div>
                 <div className="field w-24">
@@ -147,7 +141,7 @@ export default function RecipeForm({ recipeId, initial, makesNewVersion = false 
                 <div className="field w-28">
                   <label htmlFor={`additive-unit-${i}`}>Unit</label>
                   <select id={`additive-unit-${i}`} className="input" {...register(`spec.additives.${i}.unit` as const)}>
-                    {ADDITIVE_UNITS.map((u) => <option key={u} value={u}>{u}</option>)}
+                    {choices.additiveUnits.map((u) => <option key={u} value={u}>{u}</option>)}
                   </select>
                 </div>
                 <button type="button" className="btn btn-quiet" onClick={() => additives.remove(i)}>Remove</button>
@@ -169,17 +163,11 @@ export default function RecipeForm({ recipeId, initial, makesNewVersion = false 
       <aside className="grid content-start gap-4">
         <section className="card p-4 text-sm">
           <h2 className="text-base">In words</h2>
-          <p className="mt-1" data-testid="recipe-description">{preview.text ?? "–"}</p>
-          {preview.error && <p className="field-error mt-2">{preview.error}</p>}
-          {preview.plan && (
-            <>
-              <h3 className="mt-3 font-medium">For 1 L</h3>
-              <ul className="mt-1 space-y-0.5">
-                {preview.plan.components.map((c) => <li key={`${c.role}:${c.reagent}`} className="flex justify-between gap-2"><span>{c.name}</span><span className="num">{c.target.toFixed(c.target >= 10 ? 1 : 3)} {c.unit}</span></li>)}
-              </ul>
-              {preview.plan.warnings.length > 0 && <ul className="notice mt-3 ml-0 list-none space-y-1">{preview.plan.warnings.map((w) => <li key={`${w.code}:${w.reagent ?? ""}`}>{w.message}</li>)}</ul>}
-            </>
-          )}
+          <LoadBoundary fallback={<p className="field-error mt-1">The preview could not be loaded; the recipe can still be saved.</p>}>
+            <Suspense fallback={<p className="mt-1 text-[var(--color-muted)]" role="status">Working out the amounts…</p>}>
+              <RecipePreview spec={spec} detection_nm={Number(watch("detection_nm")) || null} />
+            </Suspense>
+          </LoadBoundary>
         </section>
         {makesNewVersion && <p className="notice text-sm">This recipe's latest version is approved or in use: saving makes a new version, which a manager approves before batches are made from it. Batches already made keep their version.</p>}
         {error && <p className="notice notice-danger" role="alert">{error}</p>}

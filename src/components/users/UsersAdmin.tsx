@@ -3,7 +3,8 @@ import { formatDateTime } from "../../lib/format";
 import { ROLE_LABELS, ROLES, type Role } from "../../lib/permissions";
 import { inviteUserSchema, type InviteUserInput } from "../../lib/schemas/auth";
 import type { ClientOption, UserRow } from "../../lib/server/services/users";
-import { Field, postJson, SelectField, useZodForm } from "../forms/form";
+import { Field, SelectField, useZodForm } from "../forms/form";
+import { postJson } from "../forms/post-json";
 
 interface Props {
   users: UserRow[];

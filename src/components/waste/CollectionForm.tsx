@@ -1,6 +1,7 @@
 import { useState } from "react";
 import { collectionSchema, type CollectionInput } from "../../lib/schemas/waste";
-import { Field, postJson, useZodForm } from "../forms/form";
+import { Field, useZodForm } from "../forms/form";
+import { postJson } from "../forms/post-json";
 
 /** Records that a requested pickup was collected, with the manifest or reference number. */
 export default function CollectionForm({ pickupId, reference }: { pickupId: number; reference: string }) {

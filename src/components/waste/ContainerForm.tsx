@@ -1,6 +1,7 @@
 import { useState } from "react";
 import { containerSchema, type ContainerInput } from "../../lib/schemas/waste";
-import { Field, postJson, SelectField, useZodForm } from "../forms/form";
+import { Field, SelectField, useZodForm } from "../forms/form";
+import { postJson } from "../forms/post-json";
 
 interface Props {
   /** Editing this container; creating a new one when absent. */

@@ -1,5 +1,5 @@
 import { useState } from "react";
-import { postJson } from "../forms/form";
+import { postJson } from "../forms/post-json";
 
 /** Requests a pickup for one or more containers, after a confirmation step with an optional note. */
 export default function PickupButton({ containerIds, codes, label = "Request pickup" }: { containerIds: number[]; codes: string[]; label?: string }) {

@@ -1,6 +1,7 @@
 import { useState } from "react";
 import { readingSchema, type ReadingInput } from "../../lib/schemas/waste";
-import { Field, postJson, useZodForm } from "../forms/form";
+import { Field, useZodForm } from "../forms/form";
+import { postJson } from "../forms/post-json";
 
 /** A manual level reading. The answer shows the difference from Decant's estimate, which is kept. */
 export default function ReadingForm({ containerId, estimated_mL }: { containerId: number; estimated_mL: number }) {

@@ -1,5 +1,5 @@
 import { useState } from "react";
-import { postJson } from "../forms/form";
+import { postJson } from "../forms/post-json";
 
 /** Marks a container full (it then takes no more runs) or back in use. */
 export default function StatusButtons({ containerId, status }: { containerId: number; status: "in_use" | "full" }) {

@@ -1,7 +1,8 @@
 import { useState } from "react";
 import { z } from "zod";
 import { streamSchema } from "../../lib/schemas/waste";
-import { Field, postJson, useZodForm } from "../forms/form";
+import { Field, useZodForm } from "../forms/form";
+import { postJson } from "../forms/post-json";
 
 // The form edits "also accepts" as a comma-separated list; the API takes an array.
 const formSchema = streamSchema.extend({ alsoAccepts: z.string().max(400).default("") });

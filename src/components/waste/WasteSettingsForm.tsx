@@ -1,7 +1,8 @@
 import { useState } from "react";
 import { z } from "zod";
 import { wasteSettingsSchema } from "../../lib/schemas/waste";
-import { Field, postJson, useZodForm } from "../forms/form";
+import { Field, useZodForm } from "../forms/form";
+import { postJson } from "../forms/post-json";
 
 // Room limits and reagent overrides are edited as "key = value" lines; the API takes objects.
 const lines = z.string().max(4000).default("");

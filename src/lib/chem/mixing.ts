@@ -9,6 +9,7 @@
  * substance itself (H3PO4 for phosphoric acid 85 %); volume units refer to the
  * product as sold.
  */
+import { ADDITIVE_UNITS, type AdditiveUnit } from './additive-units';
 import { lookupReagent, validateTemperature } from './equilibrium';
 import { CONTRACTION_TABLES, contractionCoverage, volumeRatio } from './excess-volume';
 import { reagentDensity, reagentPurity, type Reagent } from './reagents';
@@ -16,9 +17,6 @@ import { concentratedWarning, flammableWarning, nonVolatileWarning, uvCutoffWarn
 import { mgToG, mLToL, mMToMolar } from './units';
 import { ChemInputError, type ChemWarning, pushWarning, requireFinite, isList } from './warnings';
 import { waterDensity_g_mL } from './water';
-
-export const ADDITIVE_UNITS = ['%v/v', '%w/v', 'mL/L', 'g/L', 'mg/L', 'mM'] as const;
-export type AdditiveUnit = (typeof ADDITIVE_UNITS)[number];
 
 /** Organic fraction (v/v) above which a buffer salt may precipitate (common practice). */
 export const PRECIPITATION_ORGANIC_PERCENT = 50;

@@ -1,10 +1,9 @@
 /**
- * Shelf life of a made mobile phase. The kind comes from what is in the bottle; the rule table
- * is the facility's (settings), with these common-practice defaults. A batch expires at the
- * earlier of its rule and the end of the expiry day of any stock lot in it.
+ * Shelf life of a made mobile phase. The kind comes from what is in the bottle
+ * (`mixture-kind.ts`); the rule table is the facility's (settings), with these common-practice
+ * defaults. A batch expires at the earlier of its rule and the end of the expiry day of any
+ * stock lot in it. Free of the reagent catalogue, so forms that only edit the rules stay light.
  */
-import { getReagent } from "../chem";
-import type { RecipeSpec } from "../schemas/recipes";
 
 export const MIXTURE_KINDS = ["labile-additive", "aqueous-buffer", "aqueous-acidified", "aqueous-organic", "neat-organic"] as const;
 export type MixtureKind = (typeof MIXTURE_KINDS)[number];
@@ -25,23 +24,6 @@ export const DEFAULT_EXPIRY_RULES: readonly ExpiryRule[] = [
   { kind: "aqueous-organic", label: "Aqueous with organic", shelfLife_h: 7 * 24, reason: "Organic solvent slows microbial growth, but evaporation shifts the composition; common practice is about a week." },
   { kind: "neat-organic", label: "Neat organic (with or without additive)", shelfLife_h: 30 * 24, reason: "Organic solvents with volatile additives keep about a month capped; common practice." },
 ];
-
-/** Reagents that degrade or evaporate fast enough to set a short shelf life (common practice). */
-export const LABILE_REAGENTS = new Set(["ammonium-bicarbonate", "ammonia-solution", "sodium-bicarbonate", "sodium-carbonate"]);
-
-export function mixtureKind(spec: Pick<RecipeSpec, "solvents" | "buffer" | "additives" | "labile">): MixtureKind {
-  const ids = [...(spec.buffer?.reagents ?? []), ...(spec.additives ?? []).map((a) => a.reagent)];
-  if (spec.labile || ids.some((id) => LABILE_REAGENTS.has(id))) return "labile-additive";
-  const water = spec.solvents.filter((s) => s.reagent === "water").reduce((a, s) => a + s.percent, 0);
-  const organic = 100 - water;
-  if (water <= 0) return "neat-organic";
-  if (organic > 0) return "aqueous-organic";
-  const salt = Boolean(spec.buffer) || (spec.additives ?? []).some((a) => {
-    const r = getReagent(a.reagent);
-    return r !== undefined && r.form === "solid";
-  });
-  return salt ? "aqueous-buffer" : "aqueous-acidified";
-}
 
 export interface LotExpiry {
   lotNumber: string;

@@ -3,9 +3,14 @@
  * same function runs live in the preparation form and again on the server when the batch is
  * recorded, so the stored targets are exactly what the form showed.
  */
-import { ChemInputError, designBuffer, getReagent, mixMobilePhase, mixtureProperties, type ChemWarning } from "../chem";
+import { designBuffer } from "../chem/buffer";
+import { mixMobilePhase } from "../chem/mixing";
+import { mixtureProperties } from "../chem/mixture-properties";
+import { getReagent } from "../chem/reagents";
+import { ChemInputError, type ChemWarning } from "../chem/warnings";
 import type { RecipeSpec } from "../schemas/recipes";
-import { mixtureKind, type MixtureKind } from "./expiry";
+import type { MixtureKind } from "./expiry";
+import { mixtureKind } from "./mixture-kind";
 
 export type ComponentRole = "solvent" | "buffer" | "titrant" | "additive";
 

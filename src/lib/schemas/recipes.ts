@@ -1,5 +1,6 @@
 import { z } from "zod";
-import { ADDITIVE_UNITS, getReagent } from "../chem";
+import { ADDITIVE_UNITS } from "../chem/additive-units";
+import { getReagent } from "../chem/reagents";
 
 const reagentId = (what: string) =>
   z.string({ required_error: `Pick a ${what}` }).min(1, `Pick a ${what}`).max(64, `Unknown ${what}`).refine((id) => getReagent(id) !== undefined, { message: `Unknown ${what}` });

@@ -1,7 +1,8 @@
 import { describe, expect, it } from "vitest";
 import { batchCodeBase, nextBatchCode } from "../../../src/lib/preparation/batch-code";
 import { DEFAULT_TOLERANCES, findDeviations } from "../../../src/lib/preparation/deviations";
-import { batchExpiry, DEFAULT_EXPIRY_RULES, lotExpired, mixtureKind, type MixtureKind } from "../../../src/lib/preparation/expiry";
+import { batchExpiry, DEFAULT_EXPIRY_RULES, lotExpired, type MixtureKind } from "../../../src/lib/preparation/expiry";
+import { mixtureKind } from "../../../src/lib/preparation/mixture-kind";
 import { preparationPlan } from "../../../src/lib/preparation/plan";
 import { mixMobilePhase } from "../../../src/lib/chem";
 import type { RecipeSpec } from "../../../src/lib/schemas/recipes";
