@@ -27,7 +27,11 @@ export const wholeNumber = (options: { min?: number; max?: number } = {}) =>
       .max(options.max ?? 1_000_000, `must be at most ${options.max ?? 1_000_000}`),
   );
 
-/** A moment, ISO 8601 (a value without a zone is read as UTC). */
+/** The years a stored moment or day may fall in: within what the database's DATETIME holds, and sane for a lab. */
+const FIRST_YEAR = 1970;
+const LAST_YEAR = 2199;
+
+/** A moment, ISO 8601 (a value without a zone is read as UTC), in FIRST_YEAR…LAST_YEAR. */
 export const instant = (label = "Enter a date and time") =>
   z.preprocess(
     (v) => {
@@ -38,15 +42,19 @@ export const instant = (label = "Enter a date and time") =>
       const d = new Date(withZone.replace(" ", "T"));
       return Number.isNaN(d.getTime()) ? "invalid" : d;
     },
-    z.date({ required_error: label, invalid_type_error: `${label} as YYYY-MM-DDTHH:MM` }),
+    z
+      .date({ required_error: label, invalid_type_error: `${label} as YYYY-MM-DDTHH:MM` })
+      .min(new Date(Date.UTC(FIRST_YEAR, 0, 1)), `must be in ${FIRST_YEAR} or later`)
+      .max(new Date(Date.UTC(LAST_YEAR + 1, 0, 1) - 1), `must be in ${LAST_YEAR} or earlier`),
   );
 
-/** A day, YYYY-MM-DD, that exists in the calendar. */
+/** A day, YYYY-MM-DD, that exists in the calendar, in FIRST_YEAR…LAST_YEAR. */
 export const day = (label: string) =>
   z
     .string({ required_error: `${label}: give a day as YYYY-MM-DD` })
     .regex(/^\d{4}-\d{2}-\d{2}$/, "give a day as YYYY-MM-DD")
-    .refine((v) => !Number.isNaN(Date.parse(`${v}T00:00:00Z`)) && new Date(`${v}T00:00:00Z`).toISOString().startsWith(v), "is not a calendar day");
+    .refine((v) => !Number.isNaN(Date.parse(`${v}T00:00:00Z`)) && new Date(`${v}T00:00:00Z`).toISOString().startsWith(v), "is not a calendar day")
+    .refine((v) => Number(v.slice(0, 4)) >= FIRST_YEAR && Number(v.slice(0, 4)) <= LAST_YEAR, `must be in ${FIRST_YEAR}–${LAST_YEAR}`);
 
 export const CHANNELS = ["A", "B", "C", "D"] as const;
 export type Channel = (typeof CHANNELS)[number];

@@ -116,6 +116,20 @@ describe("the run, draw, correction and import routes", () => {
     expect(((await badMode.json()) as { error: string }).error).toMatch(/mode/);
   });
 
+  it.each(["0001-01-01T00:00Z", "+010000-01-01T00:00Z", "1969-12-31T23:59Z", "2200-01-01T00:00Z"])(
+    "refuses a draw dated %s, outside the years a ledger entry can hold, with 400 naming occurredAt",
+    async (occurredAt) => {
+      const tech = await client("tech@demo.test");
+      const draw = await tech.fetch("/api/draws", {
+        method: "POST",
+        headers: { "content-type": "application/json" },
+        body: JSON.stringify({ batchId: 4, volume_mL: 1, purpose: "spill", occurredAt, idempotencyKey: `api-test-date-${occurredAt.replace(/[^0-9]/g, "")}` }),
+      });
+      expect(draw.status).toBe(400);
+      expect(((await draw.json()) as { error: string }).error).toMatch(/occurredAt: must be in (1970 or later|2199 or earlier)/);
+    },
+  );
+
   it("a check of a file that is not a run log answers one clear message and writes nothing", async () => {
     const tech = await client("tech@demo.test");
     const [before] = await sequelize.query<{ n: number }>("SELECT COUNT(*) AS n FROM imports", { type: QueryTypes.SELECT });
