@@ -177,3 +177,21 @@ describe("corrections and invoiced periods", () => {
     for (const d of dates) expect(new Date(d.occurred_at).toISOString()).toBe(nextDay.toISOString());
   });
 });
+
+describe("the time an entry is stored at", () => {
+  it("is the UTC time of the run, whatever time zone the server process runs in", async () => {
+    // The ledger's bulk writes hand dates to the driver, which on its own would write the process's local time.
+    const zone = process.env.TZ;
+    process.env.TZ = "America/New_York";
+    try {
+      const startedAt = "2026-11-30T23:30:00.000Z"; // 18:30 on the 30th in New York, the 1st of December nowhere
+      const { run } = await logRun(scoutRun({ injections: 1, blanks: 0, purge_mL: 0, startedAt }), tech);
+      const rows = await q<{ at: string }>("SELECT DATE_FORMAT(occurred_at, '%Y-%m-%d %H:%i:%s') AS at FROM ledger_entries WHERE source_id = ?", [`run:${run.id}`]);
+      expect(rows.length).toBeGreaterThan(0);
+      for (const r of rows) expect(r.at).toBe("2026-11-30 23:30:00");
+    } finally {
+      if (zone === undefined) delete process.env.TZ;
+      else process.env.TZ = zone;
+    }
+  });
+});

@@ -13,7 +13,7 @@ import { getSequelize } from "../db";
 import type { SignedInUser } from "../guard";
 import { HttpError } from "../http";
 import { appendEntries, ensureCatalogueRows, type NewLedgerEntry } from "./ledger";
-import { lastInsertId } from "./sql";
+import { driverQuery, lastInsertId } from "./sql";
 import { drawFromBatches, loadBatches, planRun, wasteProblem, type InstrumentForUse, type MethodForUse, type RunPlan } from "./runs";
 
 export interface ImportReport {
@@ -188,7 +188,7 @@ export async function commitRunLog(content: string, fileName: string, actor: Sig
         for (const p of slice) {
           values.push(p.instrument.id, p.method.id, p.projectId, p.operatorId, p.row.reference, p.row.startedAt, p.row.injections, p.row.blanks, p.row.purge_mL.toFixed(3), JSON.stringify(p.channelBatches), JSON.stringify(p.plan.channelVolumes), importId, now, now);
         }
-        await sequelize.query(`INSERT INTO runs (${RUN_COLUMNS.join(",")}) VALUES ${slice.map(() => tuple).join(",")}`, { replacements: values, transaction });
+        await driverQuery(transaction, `INSERT INTO runs (${RUN_COLUMNS.join(",")}) VALUES ${slice.map(() => tuple).join(",")}`, values);
         // This chunk's runs: this import's rows past the last chunk's (a range on the import_id index).
         const ids = new Map<string, number>();
         for (const r of await sequelize.query<{ id: number; instrument_id: number; reference: string }>("SELECT id, instrument_id, reference FROM runs WHERE import_id = :importId AND id > :lastRunId", { type: QueryTypes.SELECT, replacements: { importId, lastRunId }, transaction })) {

@@ -12,6 +12,7 @@ import type { SignedInUser } from "../guard";
 import { HttpError } from "../http";
 import type { LedgerKind, LedgerSource } from "../models/ledger";
 import { openDateForProject } from "./billing";
+import { driverQuery } from "./sql";
 
 export interface NewLedgerEntry {
   occurredAt: Date;
@@ -81,7 +82,6 @@ export async function ensureCatalogueRows(reagentIds: Iterable<string>, transact
 
 /** Appends entries with multi-row INSERTs inside the caller's transaction. */
 export async function appendEntries(entries: readonly NewLedgerEntry[], transaction: Transaction): Promise<void> {
-  const sequelize = getSequelize();
   const now = new Date();
   for (let start = 0; start < entries.length; start += ROWS_PER_INSERT) {
     const slice = entries.slice(start, start + ROWS_PER_INSERT);
@@ -93,7 +93,7 @@ export async function appendEntries(entries: readonly NewLedgerEntry[], transact
       );
     }
     const row = `(${COLUMNS.map(() => "?").join(",")})`;
-    await sequelize.query(`INSERT INTO ledger_entries (${COLUMNS.join(",")}) VALUES ${slice.map(() => row).join(",")}`, { replacements: values, transaction });
+    await driverQuery(transaction, `INSERT INTO ledger_entries (${COLUMNS.join(",")}) VALUES ${slice.map(() => row).join(",")}`, values);
   }
 }
 
