@@ -1,5 +1,7 @@
 // `npm start` (and `npm run dev` with --dev): sets everything up on a fresh clone and runs Decant.
+import { resolve } from "node:path";
 import { appServerCommand } from "./lib/app-server.mjs";
+import { buildIsCurrent, sourceStamp, stampBuild } from "./lib/build-stamp.mjs";
 import { ensureNodeModules, fail, log, portIsFree, ProcessGroup, run, bin, ROOT } from "./lib/util.mjs";
 
 const dev = process.argv.includes("--dev");
@@ -39,8 +41,16 @@ try {
   if (dev) {
     group.spawn("astro dev", bin("astro"), ["dev", "--host", host, "--port", String(port)], { env: appEnv });
   } else {
-    log("Building the app…");
-    if ((await run(bin("astro"), ["build"], { env: appEnv })) !== 0) throw new Error("astro build failed");
+    // The stamp is taken before building, so a file changed during the build means a new build next time.
+    const stamp = sourceStamp(ROOT);
+    const builtDir = resolve(ROOT, outDir);
+    if (buildIsCurrent(builtDir, stamp)) {
+      log(`The app in ${outDir}/ was built from these very sources; serving it without building again.`);
+    } else {
+      log("Building the app…");
+      if ((await run(bin("astro"), ["build"], { env: appEnv })) !== 0) throw new Error("astro build failed");
+      stampBuild(builtDir, stamp);
+    }
     // React's server renderer in its production build: the development build is several times slower.
     group.spawn("app server", ...appServerCommand(outDir), { env: { ...appEnv, NODE_ENV: "production" }, cwd: ROOT });
   }

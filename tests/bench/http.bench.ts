@@ -15,7 +15,7 @@ import { join, resolve } from "node:path";
 import autocannon from "autocannon";
 import { benchEnv, emit, fmt, main, row, stats, type BenchRow } from "./lib";
 
-const SECONDS = Number(process.env.BENCH_HTTP_SECONDS ?? 10);
+const SECONDS = Number(process.env.BENCH_HTTP_SECONDS ?? 6);
 const REPS = Number(process.env.BENCH_HTTP_REPS ?? 5);
 const CONNECTIONS = 50;
 const BARE_PORT = Number(process.env.BENCH_BARE_PORT ?? 4349);
