@@ -171,18 +171,18 @@ function UsageView({ initialFrom, initialTo, initialGroupBy }: { initialFrom?: s
               <tbody>
                 {rows.map((r) => (
                   <tr key={r.key} data-project={shown === "project" ? r.key : undefined} data-group={r.key}>
-                    <td>{shown === "project" || shown === "month" ? <code>{r.label}</code> : r.label}</td>
+                    <td className="whitespace-nowrap">{shown === "project" || shown === "month" ? <code>{r.label}</code> : r.label}</td>
                     {shown === "project" && <td className="text-sm">{r.detail}</td>}
                     {shown !== "reagent" && <td className="num">{r.runs}</td>}
                     {shown !== "reagent" && <td className="num">{r.injections}</td>}
                     <td className="text-xs">
-                      {Object.entries(r.volumes_mL).filter(([, v]) => v !== 0).map(([id, v]) => <div key={id}>{id}: <span className="num">{formatVolume(v)}</span></div>)}
-                      {Object.entries(r.masses_g).filter(([, g]) => g !== 0).map(([id, g]) => <div key={id}>{id}: <span className="num">{g.toFixed(3)} g</span></div>)}
+                      {Object.entries(r.volumes_mL).filter(([, v]) => v !== 0).map(([id, v]) => <div key={id}>{id}: <span className="num whitespace-nowrap">{formatVolume(v)}</span></div>)}
+                      {Object.entries(r.masses_g).filter(([, g]) => g !== 0).map(([id, g]) => <div key={id}>{id}: <span className="num whitespace-nowrap">{g.toFixed(3)} g</span></div>)}
                     </td>
                     <td className="text-xs" data-testid="usage-phases">
-                      {Object.entries(r.mobilePhases_mL).filter(([, v]) => v !== 0).map(([code, v]) => <div key={code} title={phaseName(code)}>{code === "none" ? "not from a batch" : code}: <span className="num">{formatVolume(v)}</span></div>)}
+                      {Object.entries(r.mobilePhases_mL).filter(([, v]) => v !== 0).map(([code, v]) => <div key={code} title={phaseName(code)}>{code === "none" ? "not from a batch" : code}: <span className="num whitespace-nowrap">{formatVolume(v)}</span></div>)}
                     </td>
-                    <td className="num" data-testid="usage-total">{formatVolume(total(r))}</td>
+                    <td className="num whitespace-nowrap" data-testid="usage-total">{formatVolume(total(r))}</td>
                     <td className="num">{r.costs.map((c) => <div key={c.currency}>{formatMoney(c)}</div>)}{r.uncosted.length > 0 && <div className="text-xs text-[var(--color-amber)]" title={`No rate for ${r.uncosted.join(", ")}`}>+ uncosted</div>}</td>
                   </tr>
                 ))}
