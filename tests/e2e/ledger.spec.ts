@@ -1,9 +1,15 @@
-import { expect, test, type Locator } from "@playwright/test";
+import { expect, test, type Locator, type Page } from "@playwright/test";
+import { formatVolume } from "../../src/lib/format";
 import { signIn } from "./support";
 
 
-test("a technician logs a run in the browser and sees the batch's remaining volume drop", async ({ page }) => {
-  await signIn(page, "tech@demo.test");
+/**
+ * Fills the run form as a technician would: the demo scout gradient on Wren for PMG-ROOT-26,
+ * 10 injections + 2 blanks + 5 mL purge, batches B26-1103 (A) and B26-1104 (B), and records it.
+ * Worked by hand: A = 12 × 3.522 + 5 = 47.264 mL, B = 12 × 2.478 + 5 = 34.736 mL (see
+ * tests/integration/ledger/runs-ledger.test.ts). Answers channel A's batch option as it was before.
+ */
+async function recordScoutRun(page: Page) {
   await page.goto("/runs/new");
   await page.locator("astro-island:not([ssr])").first().waitFor(); // hydrated: what is typed now stays
   await page.getByLabel("Instrument").selectOption({ label: "Wren" });
@@ -18,12 +24,19 @@ test("a technician logs a run in the browser and sees the batch's remaining volu
   await channelA.selectOption({ value: await optionA.getAttribute("value") ?? "" });
   const channelB = page.getByLabel(/^Channel B/);
   await channelB.selectOption({ value: (await channelB.locator("option", { hasText: "B26-1104" }).getAttribute("value")) ?? "" });
-  // The live preview, worked by hand: A = 12 × 3.522 + 5 = 47.264 mL (see tests/integration/ledger/runs-ledger.test.ts)
+  // The live preview shows what the run will take from each bottle.
   await expect(page.getByText("Channel A", { exact: true }).locator("xpath=following-sibling::dd[1]")).toHaveText("47.3 mL");
+  await expect(page.getByText("Channel B", { exact: true }).locator("xpath=following-sibling::dd[1]")).toHaveText("34.7 mL");
   await page.getByRole("button", { name: "Record the run" }).click();
+  await expect(page.getByTestId("run-recorded")).toContainText("Run recorded");
+  return { optionA, before };
+}
+
+test("a technician logs a run in the browser and sees the batch's remaining volume drop", async ({ page }) => {
+  await signIn(page, "tech@demo.test");
+  const { optionA, before } = await recordScoutRun(page);
 
   const recorded = page.getByTestId("run-recorded");
-  await expect(recorded).toContainText("Run recorded");
   const after = Number(await page.getByTestId("left-B26-1103").getAttribute("data-ml"));
   expect(before - after).toBeCloseTo(47.264, 4);
   // The batch list in the form shows the new remaining volume too.
@@ -36,6 +49,32 @@ test("a technician logs a run in the browser and sees the batch's remaining volu
 });
 
 const day = (daysAgo: number) => new Date(Date.now() - daysAgo * 86_400_000).toISOString().slice(0, 10);
+
+test("a run a technician logs shows in the project's usage, up by exactly the run's volume", async ({ browser }) => {
+  // Usage is the facility manager's view (technicians do not see costs); the two work side by side.
+  const manager = await (await browser.newContext()).newPage();
+  await signIn(manager, "manager@demo.test");
+  const usageOf = async () => {
+    await manager.goto(`/usage?from=${day(30)}&to=${day(0)}`);
+    const total = manager.getByRole("table", { name: "Usage per project" }).locator("tr[data-project='PMG-ROOT-26'] [data-testid='usage-total']");
+    await expect(total).toBeVisible();
+    const api = (await (await manager.request.get(`/api/usage?from=${day(30)}&to=${day(0)}&groupBy=project`)).json()) as { rows: { projectCode: string; volumes_mL: Record<string, number> }[] };
+    const row = api.rows.find((r) => r.projectCode === "PMG-ROOT-26");
+    return { shown: await total.innerText(), mL: Object.values(row?.volumes_mL ?? {}).reduce((a, b) => a + b, 0) };
+  };
+  const before = await usageOf();
+
+  const technician = await (await browser.newContext()).newPage();
+  await signIn(technician, "tech@demo.test");
+  await recordScoutRun(technician);
+
+  const after = await usageOf();
+  expect(after.mL - before.mL).toBeCloseTo(47.264 + 34.736, 3);
+  // The page shows the same totals as the API, before and after.
+  expect(before.shown).toBe(formatVolume(before.mL));
+  expect(after.shown).toBe(formatVolume(after.mL));
+  await expect(manager.getByRole("img", { name: /per project$/ })).toHaveAccessibleDescription(/PMG-ROOT-26: /);
+});
 
 /** What the first column of the usage table shows, row by row. */
 const tableGroups = (table: Locator) => table.locator("tbody tr td:first-child").allInnerTexts();
