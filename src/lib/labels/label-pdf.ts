@@ -2,10 +2,9 @@
  * Bottle labels as PDF: pdf-lib with the app's own font embedded (subset), the batch code as a
  * Code 128 barcode drawn as vector bars, GHS pictograms drawn as vectors.
  */
-import fontkit from "@pdf-lib/fontkit";
 import { PDFDocument, rgb, type PDFFont, type PDFPage } from "pdf-lib";
 import type { LabelStock } from "../schemas/labels";
-import { labelFonts } from "./fonts";
+import { labelFontkit, labelFonts } from "./fonts";
 import { DIAMOND, PICTOGRAM_SHAPES, SYMBOL_SCALE } from "./ghs-pictograms";
 import { layoutLabel, type LabelContent, type LabelLayout, type Measurer } from "./layout";
 import { MM_TO_PT, pageGeometry, labelsPerPage } from "./stocks";
@@ -67,7 +66,7 @@ export function measurerFor(fonts: LabelFonts): Measurer {
 }
 
 export async function embedLabelFonts(doc: PDFDocument): Promise<LabelFonts> {
-  doc.registerFontkit(fontkit);
+  doc.registerFontkit(labelFontkit);
   const bytes = labelFonts();
   return { regular: await doc.embedFont(bytes.regular, { subset: true }), bold: await doc.embedFont(bytes.bold, { subset: true }) };
 }
