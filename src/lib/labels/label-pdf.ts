@@ -2,7 +2,7 @@
  * Bottle labels as PDF: pdf-lib with the app's own font embedded (subset), the batch code as a
  * Code 128 barcode drawn as vector bars, GHS pictograms drawn as vectors.
  */
-import { PDFDocument, rgb, type PDFFont, type PDFPage } from "pdf-lib";
+import { PDFDocument, fill, popGraphicsState, pushGraphicsState, rectangle, rgb, setFillingColor, type PDFFont, type PDFPage } from "pdf-lib";
 import type { LabelStock } from "../schemas/labels";
 import { labelFontkit, labelFonts } from "./fonts";
 import { DIAMOND, PICTOGRAM_SHAPES, SYMBOL_SCALE } from "./ghs-pictograms";
@@ -74,8 +74,9 @@ export async function embedLabelFonts(doc: PDFDocument): Promise<LabelFonts> {
 function drawLayout(page: PDFPage, layout: LabelLayout, ox: number, oy: number, fonts: LabelFonts, outline: boolean) {
   const clean = sanitizer(fonts.regular);
   if (outline) page.drawRectangle({ x: ox + 0.25, y: oy + 0.25, width: layout.width - 0.5, height: layout.height - 0.5, borderColor: rgb(0.75, 0.75, 0.75), borderWidth: 0.5 });
+  // One fill per bar (a single rectangle is what viewers snap to whole pixels), in one graphics state.
   const b = layout.barcode;
-  for (const bar of b.bars) page.drawRectangle({ x: ox + bar.x, y: oy + b.y, width: bar.width, height: b.height, color: BLACK });
+  page.pushOperators(pushGraphicsState(), setFillingColor(BLACK), ...b.bars.flatMap((bar) => [rectangle(ox + bar.x, oy + b.y, bar.width, b.height), fill()]), popGraphicsState());
   for (const t of layout.texts) page.drawText(clean(t.text), { x: ox + t.x, y: oy + t.y, size: t.size, font: t.bold ? fonts.bold : fonts.regular, color: INK });
   for (const p of layout.pictograms) {
     const scale = p.half / 50;
