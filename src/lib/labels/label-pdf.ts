@@ -2,7 +2,11 @@
  * Bottle labels as PDF: pdf-lib with the app's own font embedded (subset), the batch code as a
  * Code 128 barcode drawn as vector bars, GHS pictograms drawn as vectors.
  */
-import { PDFDocument, fill, popGraphicsState, pushGraphicsState, rectangle, rgb, setFillingColor, type PDFFont, type PDFPage } from "pdf-lib";
+import {
+  PDFDocument, PDFName, concatTransformationMatrix, drawObject, drawSvgPath, fill, popGraphicsState, pushGraphicsState, rectangle, rgb, setFillingColor,
+  type PDFFont, type PDFPage, type PDFRef,
+} from "pdf-lib";
+import type { GhsPictogram } from "../chem";
 import type { LabelStock } from "../schemas/labels";
 import { labelFontkit, labelFonts } from "./fonts";
 import { DIAMOND, PICTOGRAM_SHAPES, SYMBOL_SCALE } from "./ghs-pictograms";
@@ -71,20 +75,48 @@ export async function embedLabelFonts(doc: PDFDocument): Promise<LabelFonts> {
   return { regular: await doc.embedFont(bytes.regular, { subset: true }), bold: await doc.embedFont(bytes.bold, { subset: true }) };
 }
 
-function drawLayout(page: PDFPage, layout: LabelLayout, ox: number, oy: number, fonts: LabelFonts, outline: boolean) {
+type PlacePictogram = (page: PDFPage, code: GhsPictogram, cx: number, cy: number, half: number) => void;
+
+/**
+ * Draws each pictogram once per document, as a form XObject in the drawings' −50…50 box, and
+ * places it on every label: parsing and writing the SVG paths for every label was a tenth of the
+ * time and most of the file. The border width is part of the drawing, so it is a separate form
+ * per width (one per batch in practice: the stock fixes the pictogram size).
+ */
+function pictogramPlacer(doc: PDFDocument): PlacePictogram {
+  const forms = new Map<string, { name: PDFName; ref: PDFRef }>();
+  const formOf = (code: GhsPictogram, borderWidth: number) => {
+    const key = `${code}-${borderWidth}`;
+    let form = forms.get(key);
+    if (!form) {
+      const operators = [
+        ...drawSvgPath(DIAMOND, { x: 0, y: 0, scale: 1, color: WHITE, borderColor: GHS_RED, borderWidth }),
+        ...PICTOGRAM_SHAPES[code].flatMap((shape) => drawSvgPath(shape.d, { x: 0, y: 0, scale: SYMBOL_SCALE, color: shape.fill === "black" ? BLACK : WHITE, borderColor: undefined, borderWidth: 0 })),
+      ];
+      const reach = 50 + borderWidth;
+      const stream = doc.context.formXObject(operators, { BBox: [-reach, -reach, reach, reach] });
+      form = { name: PDFName.of(`${code}-${forms.size + 1}`), ref: doc.context.register(stream) };
+      forms.set(key, form);
+    }
+    return form;
+  };
+  return (page, code, cx, cy, half) => {
+    const scale = half / 50;
+    // Widths are in the drawing's box, so they scale with the pictogram.
+    const form = formOf(code, Math.max(0.8, half * 0.1));
+    page.node.setXObject(form.name, form.ref);
+    page.pushOperators(pushGraphicsState(), concatTransformationMatrix(scale, 0, 0, scale, cx, cy), drawObject(form.name), popGraphicsState());
+  };
+}
+
+function drawLayout(page: PDFPage, layout: LabelLayout, ox: number, oy: number, fonts: LabelFonts, outline: boolean, placePictogram: PlacePictogram) {
   const clean = sanitizer(fonts.regular);
   if (outline) page.drawRectangle({ x: ox + 0.25, y: oy + 0.25, width: layout.width - 0.5, height: layout.height - 0.5, borderColor: rgb(0.75, 0.75, 0.75), borderWidth: 0.5 });
   // One fill per bar (a single rectangle is what viewers snap to whole pixels), in one graphics state.
   const b = layout.barcode;
   page.pushOperators(pushGraphicsState(), setFillingColor(BLACK), ...b.bars.flatMap((bar) => [rectangle(ox + bar.x, oy + b.y, bar.width, b.height), fill()]), popGraphicsState());
   for (const t of layout.texts) page.drawText(clean(t.text), { x: ox + t.x, y: oy + t.y, size: t.size, font: t.bold ? fonts.bold : fonts.regular, color: INK });
-  for (const p of layout.pictograms) {
-    const scale = p.half / 50;
-    page.drawSvgPath(DIAMOND, { x: ox + p.cx, y: oy + p.cy, scale, color: WHITE, borderColor: GHS_RED, borderWidth: Math.max(0.8, p.half * 0.1) });
-    for (const shape of PICTOGRAM_SHAPES[p.code]) {
-      page.drawSvgPath(shape.d, { x: ox + p.cx, y: oy + p.cy, scale: scale * SYMBOL_SCALE, color: shape.fill === "black" ? BLACK : WHITE });
-    }
-  }
+  for (const p of layout.pictograms) placePictogram(page, p.code, ox + p.cx, oy + p.cy, p.half);
 }
 
 export interface RenderLabelsInput {
@@ -115,6 +147,7 @@ export async function renderLabels(input: RenderLabelsInput): Promise<RenderedLa
   const geometry = pageGeometry(stock);
   const perPage = labelsPerPage(stock);
   const size = { width: stock.width_mm * MM_TO_PT, height: stock.height_mm * MM_TO_PT };
+  const placePictogram = pictogramPlacer(doc);
   const labels: RenderedLabels["labels"] = [];
   let page: PDFPage | null = null;
   for (let i = 0; i < copies; i++) {
@@ -123,7 +156,7 @@ export async function renderLabels(input: RenderLabelsInput): Promise<RenderedLa
     const bottle = input.bottle ?? (i % Math.max(1, content.bottles)) + 1;
     const layout = layoutLabel(content, bottle, size, measure);
     const at = geometry.slots[slot]!;
-    drawLayout(page!, layout, at.x, at.y, fonts, stock.kind === "sheet");
+    drawLayout(page!, layout, at.x, at.y, fonts, stock.kind === "sheet", placePictogram);
     labels.push({ bottle, page: doc.getPageCount(), layout });
   }
   const bytes = await doc.save();
