@@ -148,13 +148,19 @@ export async function renderLabels(input: RenderLabelsInput): Promise<RenderedLa
   const perPage = labelsPerPage(stock);
   const size = { width: stock.width_mm * MM_TO_PT, height: stock.height_mm * MM_TO_PT };
   const placePictogram = pictogramPlacer(doc);
+  // Labels of one batch differ only by the bottle number.
+  const layouts = new Map<number, LabelLayout>();
   const labels: RenderedLabels["labels"] = [];
   let page: PDFPage | null = null;
   for (let i = 0; i < copies; i++) {
     const slot = i % perPage;
     if (slot === 0) page = doc.addPage([geometry.width, geometry.height]);
     const bottle = input.bottle ?? (i % Math.max(1, content.bottles)) + 1;
-    const layout = layoutLabel(content, bottle, size, measure);
+    let layout = layouts.get(bottle);
+    if (!layout) {
+      layout = layoutLabel(content, bottle, size, measure);
+      layouts.set(bottle, layout);
+    }
     const at = geometry.slots[slot]!;
     drawLayout(page!, layout, at.x, at.y, fonts, stock.kind === "sheet", placePictogram);
     labels.push({ bottle, page: doc.getPageCount(), layout });
