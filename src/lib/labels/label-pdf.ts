@@ -3,7 +3,8 @@
  * Code 128 barcode drawn as vector bars, GHS pictograms drawn as vectors.
  */
 import {
-  PDFDocument, PDFName, concatTransformationMatrix, drawObject, drawSvgPath, fill, popGraphicsState, pushGraphicsState, rectangle, rgb, setFillingColor,
+  PDFDocument, PDFName, beginText, concatTransformationMatrix, drawObject, drawSvgPath, endText, fill, popGraphicsState, pushGraphicsState, rectangle, rgb,
+  setFillingColor, setFontAndSize, setTextMatrix, showText,
   type PDFFont, type PDFPage, type PDFRef,
 } from "pdf-lib";
 import type { GhsPictogram } from "../chem";
@@ -109,14 +110,38 @@ function pictogramPlacer(doc: PDFDocument): PlacePictogram {
   };
 }
 
-function drawLayout(page: PDFPage, layout: LabelLayout, ox: number, oy: number, fonts: LabelFonts, outline: boolean, placePictogram: PlacePictogram) {
+/** Draws laid-out labels onto the document's pages. */
+function labelDrawer(doc: PDFDocument, fonts: LabelFonts, outline: boolean) {
   const clean = sanitizer(fonts.regular);
-  if (outline) page.drawRectangle({ x: ox + 0.25, y: oy + 0.25, width: layout.width - 0.5, height: layout.height - 0.5, borderColor: rgb(0.75, 0.75, 0.75), borderWidth: 0.5 });
-  // One fill per bar (a single rectangle is what viewers snap to whole pixels), in one graphics state.
-  const b = layout.barcode;
-  page.pushOperators(pushGraphicsState(), setFillingColor(BLACK), ...b.bars.flatMap((bar) => [rectangle(ox + bar.x, oy + b.y, bar.width, b.height), fill()]), popGraphicsState());
-  for (const t of layout.texts) page.drawText(clean(t.text), { x: ox + t.x, y: oy + t.y, size: t.size, font: t.bold ? fonts.bold : fonts.regular, color: INK });
-  for (const p of layout.pictograms) placePictogram(page, p.code, ox + p.cx, oy + p.cy, p.half);
+  const placePictogram = pictogramPlacer(doc);
+  // One font resource per font and page (page.drawText adds a resource entry on every call).
+  const fontKeys = new WeakMap<PDFPage, { regular: PDFName; bold: PDFName }>();
+  const keysOf = (page: PDFPage) => {
+    let keys = fontKeys.get(page);
+    if (!keys) {
+      keys = { regular: page.node.newFontDictionary(fonts.regular.name, fonts.regular.ref), bold: page.node.newFontDictionary(fonts.bold.name, fonts.bold.ref) };
+      fontKeys.set(page, keys);
+    }
+    return keys;
+  };
+  return (page: PDFPage, layout: LabelLayout, ox: number, oy: number) => {
+    if (outline) page.drawRectangle({ x: ox + 0.25, y: oy + 0.25, width: layout.width - 0.5, height: layout.height - 0.5, borderColor: rgb(0.75, 0.75, 0.75), borderWidth: 0.5 });
+    // One fill per bar (a single rectangle is what viewers snap to whole pixels), in one graphics state.
+    const b = layout.barcode;
+    page.pushOperators(pushGraphicsState(), setFillingColor(BLACK), ...b.bars.flatMap((bar) => [rectangle(ox + bar.x, oy + b.y, bar.width, b.height), fill()]), popGraphicsState());
+    // All the text in one text object.
+    const keys = keysOf(page);
+    page.pushOperators(
+      pushGraphicsState(), beginText(), setFillingColor(INK),
+      ...layout.texts.flatMap((t) => [
+        setFontAndSize(t.bold ? keys.bold : keys.regular, t.size),
+        setTextMatrix(1, 0, 0, 1, ox + t.x, oy + t.y),
+        showText((t.bold ? fonts.bold : fonts.regular).encodeText(clean(t.text))),
+      ]),
+      endText(), popGraphicsState(),
+    );
+    for (const p of layout.pictograms) placePictogram(page, p.code, ox + p.cx, oy + p.cy, p.half);
+  };
 }
 
 export interface RenderLabelsInput {
@@ -147,7 +172,7 @@ export async function renderLabels(input: RenderLabelsInput): Promise<RenderedLa
   const geometry = pageGeometry(stock);
   const perPage = labelsPerPage(stock);
   const size = { width: stock.width_mm * MM_TO_PT, height: stock.height_mm * MM_TO_PT };
-  const placePictogram = pictogramPlacer(doc);
+  const draw = labelDrawer(doc, fonts, stock.kind === "sheet");
   // Labels of one batch differ only by the bottle number.
   const layouts = new Map<number, LabelLayout>();
   const labels: RenderedLabels["labels"] = [];
@@ -162,7 +187,7 @@ export async function renderLabels(input: RenderLabelsInput): Promise<RenderedLa
       layouts.set(bottle, layout);
     }
     const at = geometry.slots[slot]!;
-    drawLayout(page!, layout, at.x, at.y, fonts, stock.kind === "sheet", placePictogram);
+    draw(page!, layout, at.x, at.y);
     labels.push({ bottle, page: doc.getPageCount(), layout });
   }
   const bytes = await doc.save();
