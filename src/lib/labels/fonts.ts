@@ -25,12 +25,15 @@ type Font = ReturnType<Fontkit["create"]>;
 
 const parsed = new WeakMap<Uint8Array, Font>();
 const MAX_SHAPED_STRINGS = 20_000;
+// pdf-lib places glyphs by their advance widths and ignores fontkit's positions, so the
+// positioning features (kerning, mark placement) are work thrown away: a quarter of the time.
+const SUBSTITUTIONS_ONLY = { kern: false, mark: false, mkmk: false };
 
 /**
  * fontkit for pdf-lib that parses each font once per process and shapes each distinct string
- * once. pdf-lib shapes (GSUB and GPOS) on every `drawText` and width query, and a batch's labels
- * repeat the same lines: shaping was most of the time spent drawing labels. Fonts are read-only
- * once parsed; each document still makes its own subset.
+ * once. pdf-lib shapes on every `drawText` and width query, and a batch's labels repeat the same
+ * lines: shaping was most of the time spent drawing labels. Fonts are read-only once parsed; each
+ * document still makes its own subset.
  */
 export const labelFontkit: Fontkit = {
   create(bytes) {
@@ -44,7 +47,7 @@ export const labelFontkit: Fontkit = {
         let run = runs.get(text);
         if (!run) {
           if (runs.size >= MAX_SHAPED_STRINGS) runs.clear();
-          run = layout(text);
+          run = layout(text, SUBSTITUTIONS_ONLY);
           runs.set(text, run);
         }
         return run;
