@@ -3,8 +3,8 @@
  * Code 128 barcode drawn as vector bars, GHS pictograms drawn as vectors.
  */
 import {
-  PDFDocument, PDFName, beginText, concatTransformationMatrix, drawObject, drawSvgPath, endText, fill, popGraphicsState, pushGraphicsState, rectangle, rgb,
-  setFillingColor, setFontAndSize, setTextMatrix, showText,
+  PDFDocument, PDFName, beginText, concatTransformationMatrix, degrees, drawObject, drawRectangle, drawSvgPath, endText, fill, popGraphicsState,
+  pushGraphicsState, rectangle, rgb, setFillingColor, setFontAndSize, setTextMatrix, showText,
   type PDFFont, type PDFPage, type PDFRef,
 } from "pdf-lib";
 import type { GhsPictogram } from "../chem";
@@ -76,17 +76,25 @@ export async function embedLabelFonts(doc: PDFDocument): Promise<LabelFonts> {
   return { regular: await doc.embedFont(bytes.regular, { subset: true }), bold: await doc.embedFont(bytes.bold, { subset: true }) };
 }
 
-type PlacePictogram = (page: PDFPage, code: GhsPictogram, cx: number, cy: number, half: number) => void;
+interface Form {
+  /** Its name in the resources of whatever places it. */
+  name: string;
+  ref: PDFRef;
+}
+
+/** Places a form XObject (drawn in its own box) at (x, y), scaled. */
+function place(form: Form, x: number, y: number, scale = 1) {
+  return [pushGraphicsState(), concatTransformationMatrix(scale, 0, 0, scale, x, y), drawObject(form.name), popGraphicsState()];
+}
 
 /**
- * Draws each pictogram once per document, as a form XObject in the drawings' −50…50 box, and
- * places it on every label: parsing and writing the SVG paths for every label was a tenth of the
- * time and most of the file. The border width is part of the drawing, so it is a separate form
- * per width (one per batch in practice: the stock fixes the pictogram size).
+ * Each pictogram is drawn once per document, as a form XObject in the drawings' −50…50 box.
+ * The border width is part of the drawing, so there is a form per width (one per batch in
+ * practice: the stock fixes the pictogram size).
  */
-function pictogramPlacer(doc: PDFDocument): PlacePictogram {
-  const forms = new Map<string, { name: PDFName; ref: PDFRef }>();
-  const formOf = (code: GhsPictogram, borderWidth: number) => {
+function pictogramForms(doc: PDFDocument) {
+  const forms = new Map<string, Form>();
+  return (code: GhsPictogram, borderWidth: number): Form => {
     const key = `${code}-${borderWidth}`;
     let form = forms.get(key);
     if (!form) {
@@ -95,52 +103,47 @@ function pictogramPlacer(doc: PDFDocument): PlacePictogram {
         ...PICTOGRAM_SHAPES[code].flatMap((shape) => drawSvgPath(shape.d, { x: 0, y: 0, scale: SYMBOL_SCALE, color: shape.fill === "black" ? BLACK : WHITE, borderColor: undefined, borderWidth: 0 })),
       ];
       const reach = 50 + borderWidth;
-      const stream = doc.context.formXObject(operators, { BBox: [-reach, -reach, reach, reach] });
-      form = { name: PDFName.of(`${code}-${forms.size + 1}`), ref: doc.context.register(stream) };
+      form = { name: `${code}-${forms.size + 1}`, ref: doc.context.register(doc.context.formXObject(operators, { BBox: [-reach, -reach, reach, reach] })) };
       forms.set(key, form);
     }
     return form;
   };
-  return (page, code, cx, cy, half) => {
-    const scale = half / 50;
-    // Widths are in the drawing's box, so they scale with the pictogram.
-    const form = formOf(code, Math.max(0.8, half * 0.1));
-    page.node.setXObject(form.name, form.ref);
-    page.pushOperators(pushGraphicsState(), concatTransformationMatrix(scale, 0, 0, scale, cx, cy), drawObject(form.name), popGraphicsState());
-  };
 }
 
-/** Draws laid-out labels onto the document's pages. */
-function labelDrawer(doc: PDFDocument, fonts: LabelFonts, outline: boolean) {
+/**
+ * Draws each distinct label once, as a form XObject in the label's own box, which every copy
+ * places: the labels of a batch differ only by the bottle number, so drawing and compressing each
+ * copy was most of the time and of the file.
+ */
+function labelForms(doc: PDFDocument, fonts: LabelFonts, outline: boolean) {
   const clean = sanitizer(fonts.regular);
-  const placePictogram = pictogramPlacer(doc);
-  // One font resource per font and page (page.drawText adds a resource entry on every call).
-  const fontKeys = new WeakMap<PDFPage, { regular: PDFName; bold: PDFName }>();
-  const keysOf = (page: PDFPage) => {
-    let keys = fontKeys.get(page);
-    if (!keys) {
-      keys = { regular: page.node.newFontDictionary(fonts.regular.name, fonts.regular.ref), bold: page.node.newFontDictionary(fonts.bold.name, fonts.bold.ref) };
-      fontKeys.set(page, keys);
-    }
-    return keys;
-  };
-  return (page: PDFPage, layout: LabelLayout, ox: number, oy: number) => {
-    if (outline) page.drawRectangle({ x: ox + 0.25, y: oy + 0.25, width: layout.width - 0.5, height: layout.height - 0.5, borderColor: rgb(0.75, 0.75, 0.75), borderWidth: 0.5 });
-    // One fill per bar (a single rectangle is what viewers snap to whole pixels), in one graphics state.
+  const pictogramForm = pictogramForms(doc);
+  const fontNames = { regular: "Regular", bold: "Bold" };
+  let count = 0;
+  return (layout: LabelLayout): Form => {
     const b = layout.barcode;
-    page.pushOperators(pushGraphicsState(), setFillingColor(BLACK), ...b.bars.flatMap((bar) => [rectangle(ox + bar.x, oy + b.y, bar.width, b.height), fill()]), popGraphicsState());
-    // All the text in one text object.
-    const keys = keysOf(page);
-    page.pushOperators(
+    // Widths are in the pictogram's box, so they scale with it.
+    const pictograms = layout.pictograms.map((p) => ({ p, form: pictogramForm(p.code, Math.max(0.8, p.half * 0.1)) }));
+    const operators = [
+      ...(outline ? drawRectangle({ x: 0.25, y: 0.25, width: layout.width - 0.5, height: layout.height - 0.5, borderColor: rgb(0.75, 0.75, 0.75), borderWidth: 0.5, color: undefined, rotate: degrees(0), xSkew: degrees(0), ySkew: degrees(0) }) : []),
+      // One fill per bar (a single rectangle is what viewers snap to whole pixels).
+      pushGraphicsState(), setFillingColor(BLACK), ...b.bars.flatMap((bar) => [rectangle(bar.x, b.y, bar.width, b.height), fill()]), popGraphicsState(),
       pushGraphicsState(), beginText(), setFillingColor(INK),
       ...layout.texts.flatMap((t) => [
-        setFontAndSize(t.bold ? keys.bold : keys.regular, t.size),
-        setTextMatrix(1, 0, 0, 1, ox + t.x, oy + t.y),
+        setFontAndSize(t.bold ? fontNames.bold : fontNames.regular, t.size),
+        setTextMatrix(1, 0, 0, 1, t.x, t.y),
         showText((t.bold ? fonts.bold : fonts.regular).encodeText(clean(t.text))),
       ]),
       endText(), popGraphicsState(),
-    );
-    for (const p of layout.pictograms) placePictogram(page, p.code, ox + p.cx, oy + p.cy, p.half);
+      ...pictograms.flatMap(({ p, form }) => place(form, p.cx, p.cy, p.half / 50)),
+    ];
+    const resources = {
+      Font: { [fontNames.regular]: fonts.regular.ref, [fontNames.bold]: fonts.bold.ref },
+      XObject: Object.fromEntries(pictograms.map(({ form }) => [form.name, form.ref])),
+    };
+    // The box clips, and viewers round a clip to whole pixels: a point of margin keeps the outline's edge.
+    const stream = doc.context.formXObject(operators, { BBox: [-1, -1, layout.width + 1, layout.height + 1], Resources: resources });
+    return { name: `Label-${++count}`, ref: doc.context.register(stream) };
   };
 }
 
@@ -172,23 +175,24 @@ export async function renderLabels(input: RenderLabelsInput): Promise<RenderedLa
   const geometry = pageGeometry(stock);
   const perPage = labelsPerPage(stock);
   const size = { width: stock.width_mm * MM_TO_PT, height: stock.height_mm * MM_TO_PT };
-  const draw = labelDrawer(doc, fonts, stock.kind === "sheet");
-  // Labels of one batch differ only by the bottle number.
-  const layouts = new Map<number, LabelLayout>();
+  const formOf = labelForms(doc, fonts, stock.kind === "sheet");
+  const drawn = new Map<number, { layout: LabelLayout; form: Form }>();
   const labels: RenderedLabels["labels"] = [];
   let page: PDFPage | null = null;
   for (let i = 0; i < copies; i++) {
     const slot = i % perPage;
     if (slot === 0) page = doc.addPage([geometry.width, geometry.height]);
     const bottle = input.bottle ?? (i % Math.max(1, content.bottles)) + 1;
-    let layout = layouts.get(bottle);
-    if (!layout) {
-      layout = layoutLabel(content, bottle, size, measure);
-      layouts.set(bottle, layout);
+    let label = drawn.get(bottle);
+    if (!label) {
+      const layout = layoutLabel(content, bottle, size, measure);
+      label = { layout, form: formOf(layout) };
+      drawn.set(bottle, label);
     }
     const at = geometry.slots[slot]!;
-    draw(page!, layout, at.x, at.y);
-    labels.push({ bottle, page: doc.getPageCount(), layout });
+    page!.node.setXObject(PDFName.of(label.form.name), label.form.ref);
+    page!.pushOperators(...place(label.form, at.x, at.y));
+    labels.push({ bottle, page: doc.getPageCount(), layout: label.layout });
   }
   const bytes = await doc.save();
   return { bytes, pages: doc.getPageCount(), labels };
