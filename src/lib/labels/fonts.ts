@@ -26,13 +26,13 @@ type Font = ReturnType<Fontkit["create"]>;
 const parsed = new WeakMap<Uint8Array, Font>();
 const MAX_SHAPED_STRINGS = 20_000;
 // pdf-lib places glyphs by their advance widths and ignores fontkit's positions, so the
-// positioning features (kerning, mark placement) are work thrown away: a quarter of the time.
+// positioning features (kerning, mark placement) were most of the work of shaping, thrown away.
 const SUBSTITUTIONS_ONLY = { kern: false, mark: false, mkmk: false };
 
 /**
  * fontkit for pdf-lib that parses each font once per process and shapes each distinct string
- * once. pdf-lib shapes on every `drawText` and width query, and a batch's labels repeat the same
- * lines: shaping was most of the time spent drawing labels. Fonts are read-only once parsed; each
+ * once. pdf-lib shapes every string it encodes or measures, and labels repeat the same lines:
+ * shaping was most of the time spent drawing labels. Fonts are read-only once parsed; each
  * document still makes its own subset.
  */
 export const labelFontkit: Fontkit = {

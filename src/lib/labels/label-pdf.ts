@@ -1,10 +1,12 @@
 /**
  * Bottle labels as PDF: pdf-lib with the app's own font embedded (subset), the batch code as a
- * Code 128 barcode drawn as vector bars, GHS pictograms drawn as vectors.
+ * Code 128 barcode drawn as vector bars, GHS pictograms drawn as vectors. Each distinct label
+ * (one per bottle number) and each pictogram is drawn once per document, as a form XObject, and
+ * placed wherever it is printed.
  */
 import {
-  PDFDocument, PDFName, beginText, concatTransformationMatrix, degrees, drawObject, drawRectangle, drawSvgPath, endText, fill, popGraphicsState,
-  pushGraphicsState, rectangle, rgb, setFillingColor, setFontAndSize, setTextMatrix, showText,
+  PDFDocument, PDFName, beginText, concatTransformationMatrix, drawObject, drawSvgPath, endText, fill, popGraphicsState, pushGraphicsState,
+  rectangle, rgb, setFillingColor, setFontAndSize, setLineWidth, setStrokingColor, setTextMatrix, showText, stroke,
   type PDFFont, type PDFPage, type PDFRef,
 } from "pdf-lib";
 import type { GhsPictogram } from "../chem";
@@ -18,6 +20,8 @@ const INK = rgb(0.07, 0.09, 0.12);
 const GHS_RED = rgb(0.88, 0, 0);
 const WHITE = rgb(1, 1, 1);
 const BLACK = rgb(0, 0, 0);
+/** The cut line around each label on a sheet. */
+const OUTLINE = rgb(0.75, 0.75, 0.75);
 
 export interface LabelFonts {
   regular: PDFFont;
@@ -125,7 +129,7 @@ function labelForms(doc: PDFDocument, fonts: LabelFonts, outline: boolean) {
     // Widths are in the pictogram's box, so they scale with it.
     const pictograms = layout.pictograms.map((p) => ({ p, form: pictogramForm(p.code, Math.max(0.8, p.half * 0.1)) }));
     const operators = [
-      ...(outline ? drawRectangle({ x: 0.25, y: 0.25, width: layout.width - 0.5, height: layout.height - 0.5, borderColor: rgb(0.75, 0.75, 0.75), borderWidth: 0.5, color: undefined, rotate: degrees(0), xSkew: degrees(0), ySkew: degrees(0) }) : []),
+      ...(outline ? [pushGraphicsState(), setStrokingColor(OUTLINE), setLineWidth(0.5), rectangle(0.25, 0.25, layout.width - 0.5, layout.height - 0.5), stroke(), popGraphicsState()] : []),
       // One fill per bar (a single rectangle is what viewers snap to whole pixels).
       pushGraphicsState(), setFillingColor(BLACK), ...b.bars.flatMap((bar) => [rectangle(bar.x, b.y, bar.width, b.height), fill()]), popGraphicsState(),
       pushGraphicsState(), beginText(), setFillingColor(INK),
