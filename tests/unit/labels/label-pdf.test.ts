@@ -10,6 +10,7 @@ import type { LabelContent } from "../../../src/lib/labels/layout";
 import { measureLabel, renderLabels } from "../../../src/lib/labels/label-pdf";
 import { DEFAULT_LABEL_STOCKS, labelsPerPage } from "../../../src/lib/labels/stocks";
 import { decodeCode128 } from "./code128-reference";
+import { scanLabels } from "./scan-labels";
 
 // A demanding label: long name and composition, four pictograms, a deviation.
 const hazards = hazardSummary([{ reagent: "methanol", share_percent: 40 }, { reagent: "phosphoric-acid", share_percent: 1.2 }, { reagent: "water", share_percent: 58.8 }]);
@@ -108,6 +109,15 @@ describe.each(DEFAULT_LABEL_STOCKS.map((s) => [s.id, s] as const))("label stock 
     // Bottles run 1…3 and round again.
     expect(rendered.labels.map((l) => l.bottle).slice(0, 4)).toEqual([1, 2, 3, 1].slice(0, Math.min(4, copies)));
   });
+
+  it("prints a barcode on every copy that scans back as the batch code", async () => {
+    // A full page and one more label: the second page's other slots stay blank.
+    const copies = labelsPerPage(stock) + 1;
+    const rendered = await renderLabels({ content: CONTENT, stock, copies });
+    const scanned = scanLabels(rendered.bytes, stock);
+    expect(scanned.slice(0, copies)).toEqual(Array.from({ length: copies }, () => CONTENT.code));
+    expect(scanned.slice(copies).every((s) => s === null)).toBe(true);
+  });
 });
 
 describe("label PDF text", () => {
@@ -121,6 +131,13 @@ describe("label PDF text", () => {
     for (const n of [1, 2, 3]) expect(text).toContain(`Bottle ${n} of 3`);
     expect(text).toContain("DANGER");
     expect(text.match(/B26-1203-12/g)).toHaveLength(3);
+  });
+  it("gives every copy on a sheet its own bottle line", async () => {
+    const rendered = await renderLabels({ content: CONTENT, stock: DEFAULT_LABEL_STOCKS.find((s) => s.kind === "sheet")!, copies: 13 });
+    const text = pdftotext(rendered.bytes);
+    expect(text.match(/B26-1203-12/g)).toHaveLength(13);
+    // Bottles run 1…3 and round again: 1 five times, 2 and 3 four times.
+    expect([1, 2, 3].map((n) => text.split(`Bottle ${n} of 3`).length - 1)).toEqual([5, 4, 4]);
   });
   it("prints one bottle's label when asked", async () => {
     const rendered = await renderLabels({ content: CONTENT, stock: DEFAULT_LABEL_STOCKS[0]!, copies: 2, bottle: 2 });
