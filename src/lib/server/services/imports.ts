@@ -13,7 +13,7 @@ import { getSequelize } from "../db";
 import type { SignedInUser } from "../guard";
 import { HttpError } from "../http";
 import { appendEntries, ensureCatalogueRows, type NewLedgerEntry } from "./ledger";
-import { driverQuery, lastInsertId } from "./sql";
+import { lastInsertId, pipelinedWrites } from "./sql";
 import { drawFromBatches, loadBatches, planRun, wasteProblem, type InstrumentForUse, type MethodForUse, type RunPlan } from "./runs";
 
 export interface ImportReport {
@@ -162,6 +162,7 @@ export async function commitRunLog(content: string, fileName: string, actor: Sig
     return await sequelize.transaction(async (transaction) => {
       const prepared = await prepare(content, fileName, actor, transaction);
       const { report } = prepared;
+      // The same plans, emptied run by run as their ledger entries are written.
       const planned: (PlannedRow | null)[] = prepared.planned;
       if (report.issues.length) {
         throw new HttpError(400, `The file has ${report.issues.length} problem${report.issues.length === 1 ? "" : "s"}; nothing was written.`, { issues: report.issues, report });
@@ -174,35 +175,38 @@ export async function commitRunLog(content: string, fileName: string, actor: Sig
       const importId = await lastInsertId(transaction);
       report.importId = importId;
 
-      // Chunk by chunk: the runs, then their ledger entries and batch use, so that the entries of a
-      // 50,000-run file never sit in memory all at once (each chunk's plans are dropped once written).
+      // The runs first, 1,000 to a statement, then their ledger entries, read from the plans one
+      // run at a time as the INSERTs go out (each run's plan is let go once its entries are read),
+      // so the entries of a 50,000-run file never sit in memory all at once.
       const reagents = new Set(prepared.planned.flatMap((p) => p.plan.entries.map((e) => e.reagentId)));
       await ensureCatalogueRows(reagents, transaction);
-      const batchUse = new Map<number, number>();
       const tuple = `(${RUN_COLUMNS.map(() => "?").join(",")})`;
-      let lastRunId = 0;
-      for (let start = 0; start < planned.length; start += RUNS_PER_INSERT) {
-        const slice = planned.slice(start, start + RUNS_PER_INSERT).filter((p): p is PlannedRow => p !== null);
-        planned.fill(null, start, start + RUNS_PER_INSERT);
-        const values: unknown[] = [];
-        for (const p of slice) {
-          values.push(p.instrument.id, p.method.id, p.projectId, p.operatorId, p.row.reference, p.row.startedAt, p.row.injections, p.row.blanks, p.row.purge_mL.toFixed(3), JSON.stringify(p.channelBatches), JSON.stringify(p.plan.channelVolumes), importId, now, now);
+      await pipelinedWrites(transaction, async (send) => {
+        for (let start = 0; start < prepared.planned.length; start += RUNS_PER_INSERT) {
+          const slice = prepared.planned.slice(start, start + RUNS_PER_INSERT);
+          const values: unknown[] = [];
+          for (const p of slice) {
+            values.push(p.instrument.id, p.method.id, p.projectId, p.operatorId, p.row.reference, p.row.startedAt, p.row.injections, p.row.blanks, p.row.purge_mL.toFixed(3), JSON.stringify(p.channelBatches), JSON.stringify(p.plan.channelVolumes), importId, now, now);
+          }
+          await send(`INSERT INTO runs (${RUN_COLUMNS.join(",")}) VALUES ${slice.map(() => tuple).join(",")}`, values);
         }
-        await driverQuery(transaction, `INSERT INTO runs (${RUN_COLUMNS.join(",")}) VALUES ${slice.map(() => tuple).join(",")}`, values);
-        // This chunk's runs: this import's rows past the last chunk's (a range on the import_id index).
-        const ids = new Map<string, number>();
-        for (const r of await sequelize.query<{ id: number; instrument_id: number; reference: string }>("SELECT id, instrument_id, reference FROM runs WHERE import_id = :importId AND id > :lastRunId", { type: QueryTypes.SELECT, replacements: { importId, lastRunId }, transaction })) {
-          ids.set(`${r.instrument_id}\u0000${r.reference}`, r.id);
-          lastRunId = Math.max(lastRunId, r.id);
-        }
-        const entries: NewLedgerEntry[] = [];
-        for (const p of slice) {
-          const runId = ids.get(`${p.instrument.id}\u0000${p.row.reference}`);
-          for (const e of p.plan.entries) entries.push({ ...e, sourceKind: "import", sourceId: `run:${runId}` });
+      });
+      const runIds = new Map<string, number>();
+      for (const r of await sequelize.query<{ id: number; instrument_id: number; reference: string }>("SELECT id, instrument_id, reference FROM runs WHERE import_id = ?", { type: QueryTypes.SELECT, replacements: [importId], transaction })) {
+        runIds.set(`${r.instrument_id}\u0000${r.reference}`, r.id);
+      }
+      const batchUse = new Map<number, number>();
+      function* entries(): Generator<NewLedgerEntry> {
+        for (let i = 0; i < planned.length; i++) {
+          const p = planned[i];
+          if (!p) continue;
+          planned[i] = null;
+          const sourceId = `run:${runIds.get(`${p.instrument.id}\u0000${p.row.reference}`)}`;
+          for (const e of p.plan.entries) yield { ...e, sourceKind: "import", sourceId };
           for (const [batchId, v] of p.plan.batchUse) batchUse.set(batchId, (batchUse.get(batchId) ?? 0) + v);
         }
-        await appendEntries(entries, transaction);
       }
+      await appendEntries(entries(), transaction);
       await drawFromBatches(batchUse, transaction);
       await recordAudit(
         { actorId: actor.id, action: "import.commit", entity: "import", entityId: importId, ip, after: { fileName, checksum: report.checksum, rowCount: report.rowCount, newRuns: report.newRuns, alreadyRecorded: report.alreadyRecorded, entries: report.entries, volume_mL: report.volume_mL } },

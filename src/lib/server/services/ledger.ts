@@ -12,7 +12,7 @@ import type { SignedInUser } from "../guard";
 import { HttpError } from "../http";
 import type { LedgerKind, LedgerSource } from "../models/ledger";
 import { openDateForProject } from "./billing";
-import { driverQuery } from "./sql";
+import { pipelinedWrites } from "./sql";
 
 export interface NewLedgerEntry {
   occurredAt: Date;
@@ -80,21 +80,31 @@ export async function ensureCatalogueRows(reagentIds: Iterable<string>, transact
   }
 }
 
-/** Appends entries with multi-row INSERTs inside the caller's transaction. */
-export async function appendEntries(entries: readonly NewLedgerEntry[], transaction: Transaction): Promise<void> {
+/**
+ * Appends entries with multi-row INSERTs inside the caller's transaction. The entries are read
+ * lazily, ROWS_PER_INSERT at a time, and the next statement's rows are prepared while the
+ * database writes the last (`pipelinedWrites`).
+ */
+export async function appendEntries(entries: Iterable<NewLedgerEntry>, transaction: Transaction): Promise<void> {
   const now = new Date();
-  for (let start = 0; start < entries.length; start += ROWS_PER_INSERT) {
-    const slice = entries.slice(start, start + ROWS_PER_INSERT);
-    const values: unknown[] = [];
-    for (const e of slice) {
+  const row = `(${COLUMNS.map(() => "?").join(",")})`;
+  await pipelinedWrites(transaction, async (send) => {
+    let values: unknown[] = [];
+    let rows = 0;
+    const flush = async () => {
+      await send(`INSERT INTO ledger_entries (${COLUMNS.join(",")}) VALUES ${Array.from({ length: rows }, () => row).join(",")}`, values);
+      values = [];
+      rows = 0;
+    };
+    for (const e of entries) {
       values.push(
         e.occurredAt, e.projectId, e.kind, e.batchId, e.reagentId, e.volume_mL.toFixed(4), e.mass_g === null ? null : e.mass_g.toFixed(5), e.channel,
         e.wasteStreamId, e.wasteContainerId, e.sourceKind, e.sourceId, e.authorId, e.reversesId ?? null, e.reason ?? null, now,
       );
+      if (++rows === ROWS_PER_INSERT) await flush();
     }
-    const row = `(${COLUMNS.map(() => "?").join(",")})`;
-    await driverQuery(transaction, `INSERT INTO ledger_entries (${COLUMNS.join(",")}) VALUES ${slice.map(() => row).join(",")}`, values);
-  }
+    if (rows > 0) await flush();
+  });
 }
 
 export interface LedgerLine {

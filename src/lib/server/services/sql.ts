@@ -33,3 +33,28 @@ export async function driverQuery(transaction: Transaction, sql: string, values:
     throw error;
   }
 }
+
+/** Sends one write through `pipelinedWrites`. */
+export type SendWrite = (sql: string, values: readonly unknown[]) => Promise<void>;
+
+/**
+ * Runs `write`, whose writes go out on the transaction's connection while earlier ones still run,
+ * so that the next statement is prepared while the database executes the last (two cores, both
+ * busy); at most `depth` statements are in flight. Resolves once every write has finished, and
+ * throws the first failure; nothing is still running when the caller's transaction rolls back.
+ */
+export async function pipelinedWrites(transaction: Transaction, write: (send: SendWrite) => Promise<void>, depth = 2): Promise<void> {
+  const inFlight: Promise<void>[] = [];
+  const send: SendWrite = async (sql, values) => {
+    inFlight.push(driverQuery(transaction, sql, values));
+    if (inFlight.length >= depth) await inFlight.shift();
+  };
+  try {
+    await write(send);
+  } catch (error) {
+    await Promise.allSettled(inFlight);
+    throw error;
+  }
+  const failed = (await Promise.allSettled(inFlight)).find((r): r is PromiseRejectedResult => r.status === "rejected");
+  if (failed) throw failed.reason;
+}
