@@ -22,8 +22,6 @@ export interface UsageChartSeries {
    * different currencies cannot share an axis.
    */
   cost: { currency: string; amounts: (number | null)[] } | null;
-  /** Currencies seen, when there is more than one (the chart then leaves cost to the table). */
-  currencies: string[];
   /** The chart's figures as one sentence for assistive technology. */
   description: string;
 }
@@ -41,7 +39,6 @@ export function usageChartSeries(groups: readonly UsageChartGroup[]): UsageChart
     labels: groups.map((g) => g.label),
     volumes_mL: groups.map((g) => g.volume_mL),
     cost: currency === null ? null : { currency, amounts: groups.map((g) => g.costs[0]?.amount ?? null) },
-    currencies: currencies.length > 1 ? currencies : [],
     description: `${parts.join("; ")}.${several}`,
   };
 }

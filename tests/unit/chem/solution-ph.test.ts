@@ -59,7 +59,7 @@ describe('0.05 mol/kg potassium hydrogen phthalate, 0–40 °C (Hamer, Pinching 
   });
 });
 
-describe('phosphate 0.025 + 0.025 and borax 0.01 mol/kg, 0–50 °C (HJ 1147-2020, standard buffer table, as transcribed in a public repository)', () => {
+describe('phosphate 0.025 + 0.025 and borax 0.01 mol/kg, 0–50 °C (HJ 1147-2020, standard buffer table, as copied in a public repository)', () => {
   it.each([
     // [t °C, phosphate pH, borax pH]
     [0, 6.981, 9.458],

@@ -32,7 +32,6 @@ describe("usageChartSeries", () => {
       { label: "Outside client", volume_mL: 3000, costs: [{ amount: 900, currency: "GBP" }] },
     ]);
     expect(series.cost).toBeNull();
-    expect(series.currencies).toEqual(["EUR", "GBP"]);
     expect(series.description).toBe("Internal client: 1 L; Outside client: 3 L. Costs are in EUR and GBP: the table lists them.");
   });
 

@@ -13,7 +13,7 @@ import { getSequelize } from "../db";
 import type { SignedInUser } from "../guard";
 import { HttpError } from "../http";
 import { appendEntries, ensureCatalogueRows, type NewLedgerEntry } from "./ledger";
-import { lastInsertId, pipelinedWrites } from "./sql";
+import { lastInsertId, multiRowInsert, pipelinedWrites } from "./sql";
 import { drawFromBatches, loadBatches, planRun, wasteProblem, type InstrumentForUse, type MethodForUse, type RunPlan } from "./runs";
 
 export interface ImportReport {
@@ -180,7 +180,6 @@ export async function commitRunLog(content: string, fileName: string, actor: Sig
       // so the entries of a 50,000-run file never sit in memory all at once.
       const reagents = new Set(prepared.planned.flatMap((p) => p.plan.entries.map((e) => e.reagentId)));
       await ensureCatalogueRows(reagents, transaction);
-      const tuple = `(${RUN_COLUMNS.map(() => "?").join(",")})`;
       await pipelinedWrites(transaction, async (send) => {
         for (let start = 0; start < prepared.planned.length; start += RUNS_PER_INSERT) {
           const slice = prepared.planned.slice(start, start + RUNS_PER_INSERT);
@@ -188,7 +187,7 @@ export async function commitRunLog(content: string, fileName: string, actor: Sig
           for (const p of slice) {
             values.push(p.instrument.id, p.method.id, p.projectId, p.operatorId, p.row.reference, p.row.startedAt, p.row.injections, p.row.blanks, p.row.purge_mL.toFixed(3), JSON.stringify(p.channelBatches), JSON.stringify(p.plan.channelVolumes), importId, now, now);
           }
-          await send(`INSERT INTO runs (${RUN_COLUMNS.join(",")}) VALUES ${slice.map(() => tuple).join(",")}`, values);
+          await send(multiRowInsert("runs", RUN_COLUMNS, slice.length), values);
         }
       });
       const runIds = new Map<string, number>();

@@ -12,7 +12,7 @@ import type { SignedInUser } from "../guard";
 import { HttpError } from "../http";
 import type { LedgerKind, LedgerSource } from "../models/ledger";
 import { openDateForProject } from "./billing";
-import { pipelinedWrites } from "./sql";
+import { multiRowInsert, pipelinedWrites } from "./sql";
 
 export interface NewLedgerEntry {
   occurredAt: Date;
@@ -87,12 +87,11 @@ export async function ensureCatalogueRows(reagentIds: Iterable<string>, transact
  */
 export async function appendEntries(entries: Iterable<NewLedgerEntry>, transaction: Transaction): Promise<void> {
   const now = new Date();
-  const row = `(${COLUMNS.map(() => "?").join(",")})`;
   await pipelinedWrites(transaction, async (send) => {
     let values: unknown[] = [];
     let rows = 0;
     const flush = async () => {
-      await send(`INSERT INTO ledger_entries (${COLUMNS.join(",")}) VALUES ${Array.from({ length: rows }, () => row).join(",")}`, values);
+      await send(multiRowInsert("ledger_entries", COLUMNS, rows), values);
       values = [];
       rows = 0;
     };

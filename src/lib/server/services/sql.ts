@@ -7,6 +7,12 @@ export async function lastInsertId(transaction: Transaction): Promise<number> {
   return Number(row!.id);
 }
 
+/** "INSERT INTO t (a,b) VALUES (?,?),(?,?)" for `rows` rows, the values to go with it as placeholders. */
+export function multiRowInsert(table: string, columns: readonly string[], rows: number): string {
+  const tuple = `(${columns.map(() => "?").join(",")})`;
+  return `INSERT INTO ${table} (${columns.join(",")}) VALUES ${Array.from({ length: rows }, () => tuple).join(",")}`;
+}
+
 /** The driver connection a Sequelize transaction runs on (the `mariadb` package's promise API). */
 interface DriverConnection {
   query(sql: string, values: unknown[]): Promise<unknown>;
@@ -23,7 +29,7 @@ const utcDateTime = (d: Date) => d.toISOString().slice(0, 23).replace("T", " ");
  * Dates go as UTC text: the driver itself would write them in the process's local time zone.
  * A duplicate key answers Sequelize's UniqueConstraintError, as `sequelize.query` would.
  */
-export async function driverQuery(transaction: Transaction, sql: string, values: readonly unknown[]): Promise<void> {
+async function driverQuery(transaction: Transaction, sql: string, values: readonly unknown[]): Promise<void> {
   const connection = (transaction as unknown as { connection: DriverConnection }).connection;
   try {
     await connection.query(sql, values.map((v) => (v instanceof Date ? utcDateTime(v) : v)));
