@@ -71,6 +71,24 @@ test("a technician prepares a batch from a demo recipe, records it and prints it
   await expect(page.getByRole("heading", { level: 1 })).toHaveText(code);
 });
 
+test("a recipe picked while the page is still loading is not lost: the form waits until it can take it", async ({ page }) => {
+  await signIn(page, "tech@demo.test");
+  // Hold the page's scripts back, as a slow link or a busy laptop would.
+  await page.route(/\/_astro\/.*\.js$/, async (route) => {
+    await new Promise((resolve) => setTimeout(resolve, 1500));
+    await route.continue();
+  });
+  await page.goto("/batches/new", { waitUntil: "domcontentloaded" });
+  const recipe = page.getByLabel("Recipe", { exact: true });
+  // The server-rendered form is on screen but cannot yet take input.
+  await expect(recipe).toBeDisabled();
+  await expect(page.getByRole("button", { name: "Record the batch" })).toBeDisabled();
+
+  // Picking waits for the form to be ready, and the choice reaches the amounts.
+  await recipe.selectOption({ label: "MP-FA-W · 0.1 % formic acid in water (v1, ch. A)" });
+  await expect(page.getByTestId("target-formic-acid")).toHaveText("1.000 mL");
+});
+
 test("a technician writes a recipe: the form checks it, says it in words and per litre, and saves it", async ({ page }) => {
   await signIn(page, "tech@demo.test");
   await page.goto("/recipes/new");

@@ -1,6 +1,7 @@
 import { useState } from "react";
 import { changePasswordSchema, type ChangePasswordInput } from "../../lib/schemas/auth";
 import { Field, useZodForm } from "../forms/form";
+import { IslandForm } from "../forms/island-form";
 import { postJson } from "../forms/post-json";
 
 export default function ChangePasswordForm({ email }: { email: string }) {
@@ -24,7 +25,7 @@ export default function ChangePasswordForm({ email }: { email: string }) {
   });
 
   return (
-    <form method="post" onSubmit={onSubmit} noValidate className="flex max-w-sm flex-col gap-4" aria-label="Change password">
+    <IslandForm method="post" onSubmit={onSubmit} noValidate className="flex max-w-sm flex-col gap-4" aria-label="Change password">
       <input type="email" name="username" autoComplete="username" value={email} readOnly hidden />
       <Field label="Current password" type="password" autoComplete="current-password" registration={register("currentPassword")} error={formState.errors.currentPassword?.message} />
       <Field label="New password" type="password" autoComplete="new-password" registration={register("newPassword")} error={formState.errors.newPassword?.message} hint="At least 12 characters." />
@@ -44,6 +45,6 @@ export default function ChangePasswordForm({ email }: { email: string }) {
           {formState.isSubmitting ? "Saving…" : "Change password"}
         </button>
       </div>
-    </form>
+    </IslandForm>
   );
 }

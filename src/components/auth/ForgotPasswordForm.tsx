@@ -1,6 +1,7 @@
 import { useState } from "react";
 import { forgotPasswordSchema, type ForgotPasswordInput } from "../../lib/schemas/auth";
 import { Field, useZodForm } from "../forms/form";
+import { IslandForm } from "../forms/island-form";
 import { postJson } from "../forms/post-json";
 
 export default function ForgotPasswordForm() {
@@ -32,7 +33,7 @@ export default function ForgotPasswordForm() {
   }
 
   return (
-    <form method="post" onSubmit={onSubmit} noValidate className="flex flex-col gap-4" aria-label="Forgotten password">
+    <IslandForm method="post" onSubmit={onSubmit} noValidate className="flex flex-col gap-4" aria-label="Forgotten password">
       <Field label="E-mail address" type="email" autoComplete="username" registration={register("email")} error={formState.errors.email?.message} />
       {problem && (
         <p className="notice notice-danger" role="alert">
@@ -42,6 +43,6 @@ export default function ForgotPasswordForm() {
       <button className="btn justify-center" type="submit" disabled={formState.isSubmitting}>
         {formState.isSubmitting ? "Sending…" : "Send me a link"}
       </button>
-    </form>
+    </IslandForm>
   );
 }

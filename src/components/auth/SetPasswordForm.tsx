@@ -1,6 +1,7 @@
 import { useState } from "react";
 import { setPasswordSchema, type SetPasswordInput } from "../../lib/schemas/auth";
 import { Field, useZodForm } from "../forms/form";
+import { IslandForm } from "../forms/island-form";
 import { postJson } from "../forms/post-json";
 
 export default function SetPasswordForm({ token, email }: { token: string; email: string }) {
@@ -18,7 +19,7 @@ export default function SetPasswordForm({ token, email }: { token: string; email
   });
 
   return (
-    <form method="post" onSubmit={onSubmit} noValidate className="flex flex-col gap-4" aria-label="Choose a password">
+    <IslandForm method="post" onSubmit={onSubmit} noValidate className="flex flex-col gap-4" aria-label="Choose a password">
       <input type="hidden" {...register("token")} />
       {/* Lets password managers file the new password under the right account. */}
       <input type="email" name="username" autoComplete="username" value={email} readOnly hidden />
@@ -32,6 +33,6 @@ export default function SetPasswordForm({ token, email }: { token: string; email
       <button className="btn justify-center" type="submit" disabled={formState.isSubmitting}>
         {formState.isSubmitting ? "Saving…" : "Set password"}
       </button>
-    </form>
+    </IslandForm>
   );
 }

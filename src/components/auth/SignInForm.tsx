@@ -1,6 +1,7 @@
 import { useState } from "react";
 import { signInSchema, type SignInInput } from "../../lib/schemas/auth";
 import { Field, useZodForm } from "../forms/form";
+import { IslandForm } from "../forms/island-form";
 import { postJson } from "../forms/post-json";
 
 export default function SignInForm({ next, email = "" }: { next: string; email?: string }) {
@@ -19,7 +20,7 @@ export default function SignInForm({ next, email = "" }: { next: string; email?:
   });
 
   return (
-    <form method="post" onSubmit={onSubmit} noValidate className="flex flex-col gap-4" aria-label="Sign in">
+    <IslandForm method="post" onSubmit={onSubmit} noValidate className="flex flex-col gap-4" aria-label="Sign in">
       <Field label="E-mail address" type="email" autoComplete="username" defaultValue={email || undefined} registration={register("email")} error={formState.errors.email?.message} />
       <Field label="Password" type="password" autoComplete="current-password" registration={register("password")} error={formState.errors.password?.message} />
       {problem && (
@@ -30,6 +31,6 @@ export default function SignInForm({ next, email = "" }: { next: string; email?:
       <button className="btn justify-center" type="submit" disabled={formState.isSubmitting}>
         {formState.isSubmitting ? "Signing in…" : "Sign in"}
       </button>
-    </form>
+    </IslandForm>
   );
 }

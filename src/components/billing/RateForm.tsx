@@ -3,6 +3,7 @@ import { parseMajorAmount } from "../../lib/billing/statement";
 import { rateInput } from "../../lib/schemas/billing";
 import { fieldErrors } from "../../lib/schemas/zod-error";
 import { postJson } from "../forms/post-json";
+import { IslandForm } from "../forms/island-form";
 
 export interface ReagentOption {
   id: string;
@@ -71,7 +72,7 @@ export default function RateForm({ reagents, currency, today }: Props) {
     ) : null;
 
   return (
-    <form onSubmit={submit} className="card grid gap-4 p-5 sm:grid-cols-2 lg:grid-cols-3" noValidate aria-label="Add a rate">
+    <IslandForm onSubmit={submit} className="card grid gap-4 p-5 sm:grid-cols-2 lg:grid-cols-3" noValidate aria-label="Add a rate">
       <div className="field">
         <label htmlFor={`${id}-kind`}>Priced item</label>
         <select id={`${id}-kind`} className="input" value={kind} onChange={(e) => setKind(e.target.value as Kind)}>
@@ -125,6 +126,6 @@ export default function RateForm({ reagents, currency, today }: Props) {
         <p className="text-sm text-[var(--color-muted)]">Entries before this date keep the price that was in force then.</p>
       </div>
       {problem && <p className="notice notice-danger sm:col-span-2 lg:col-span-3" role="alert">{problem}</p>}
-    </form>
+    </IslandForm>
   );
 }

@@ -1,5 +1,6 @@
 import { useState } from "react";
 import { postJson } from "../forms/post-json";
+import { IslandForm } from "../forms/island-form";
 
 /** Reverses a run's entries (never edits them): the reason and your name stay with the correction. */
 export default function CorrectionPanel({ runId, open }: { runId: number; open: number }) {
@@ -24,7 +25,7 @@ export default function CorrectionPanel({ runId, open }: { runId: number; open: 
     }
   }
   return (
-    <form onSubmit={submit} noValidate className="flex flex-col gap-3" aria-label="Reverse this run">
+    <IslandForm onSubmit={submit} noValidate className="flex flex-col gap-3" aria-label="Reverse this run">
       <div className="field">
         <label htmlFor="correction-reason">Why is this run wrong?</label>
         <input id="correction-reason" className="input" value={reason} onChange={(e) => setReason(e.target.value)} maxLength={255} aria-invalid={problem ? true : undefined} />
@@ -32,6 +33,6 @@ export default function CorrectionPanel({ runId, open }: { runId: number; open: 
       </div>
       {problem && <p className="field-error" role="alert">{problem}</p>}
       <div><button className="btn btn-quiet" type="submit" disabled={busy}>{busy ? "Reversing…" : "Reverse this run's entries"}</button></div>
-    </form>
+    </IslandForm>
   );
 }

@@ -2,6 +2,7 @@ import { useEffect, useState } from "react";
 import { formatVolume } from "../../lib/format";
 import { DRAW_PURPOSES, drawSchema, type DrawInput } from "../../lib/schemas/runs";
 import { Field, useZodForm } from "../forms/form";
+import { IslandForm } from "../forms/island-form";
 import { postJson } from "../forms/post-json";
 import { newKey } from "./keys";
 
@@ -45,7 +46,7 @@ export default function DrawForm({ batches: initial, projects, containers }: Pro
     </div>
   );
   return (
-    <form method="post" onSubmit={onSubmit} noValidate className="card flex max-w-2xl flex-col gap-4 p-5" aria-label="Log a draw">
+    <IslandForm method="post" onSubmit={onSubmit} noValidate className="card flex max-w-2xl flex-col gap-4 p-5" aria-label="Log a draw">
       <input type="hidden" {...register("idempotencyKey")} />
       {select("batchId", "Batch", batches.map((b) => ({ value: b.id, label: `${b.code} · ${b.name} · ${formatVolume(b.remaining_mL)} left` })), "Choose…", e.batchId?.message)}
       <div className="grid gap-4 md:grid-cols-2">
@@ -62,6 +63,6 @@ export default function DrawForm({ batches: initial, projects, containers }: Pro
       <div>
         <button className="btn" type="submit" disabled={formState.isSubmitting}>{formState.isSubmitting ? "Recording…" : "Record the draw"}</button>
       </div>
-    </form>
+    </IslandForm>
   );
 }

@@ -2,6 +2,7 @@ import { useState } from "react";
 import { CHANNELS } from "../../lib/schemas/fields";
 import { instrumentSchema, type InstrumentInput } from "../../lib/schemas/instruments";
 import { Field, useZodForm } from "../forms/form";
+import { IslandForm } from "../forms/island-form";
 import { postJson } from "../forms/post-json";
 
 interface Props {
@@ -33,7 +34,7 @@ export default function InstrumentForm({ instrument, containers }: Props) {
   });
   const e = formState.errors;
   return (
-    <form method="post" onSubmit={onSubmit} noValidate className="card flex flex-col gap-4 p-5" aria-label={instrument ? "Change the instrument" : "Add an instrument"}>
+    <IslandForm method="post" onSubmit={onSubmit} noValidate className="card flex flex-col gap-4 p-5" aria-label={instrument ? "Change the instrument" : "Add an instrument"}>
       <div className="grid gap-4 md:grid-cols-3">
         <Field label="Name" registration={register("name")} error={e.name?.message} />
         <Field label="System" registration={register("kind")} error={e.kind?.message} hint="e.g. UHPLC, binary pump, DAD" />
@@ -62,6 +63,6 @@ export default function InstrumentForm({ instrument, containers }: Props) {
       {problem && <p className="notice notice-danger" role="alert">{problem}</p>}
       {saved && <p className="notice" role="status">Saved.</p>}
       <div><button className="btn" type="submit" disabled={formState.isSubmitting}>{instrument ? "Save" : "Add the instrument"}</button></div>
-    </form>
+    </IslandForm>
   );
 }

@@ -6,6 +6,7 @@ import { fieldErrors } from "../../lib/schemas/zod-error";
 import { methodSchema, programRowSchema, type ProgramRow } from "../../lib/schemas/methods";
 import { postJson } from "../forms/post-json";
 import ProgramChart from "./ProgramChart";
+import { IslandForm } from "../forms/island-form";
 
 type RowText = Record<keyof ProgramRow, string>;
 
@@ -78,7 +79,7 @@ export default function ProgramEditor({ method, canEdit }: Props) {
   }
 
   return (
-    <form onSubmit={save} noValidate className="flex flex-col gap-5" aria-label="Method">
+    <IslandForm onSubmit={save} noValidate className="flex flex-col gap-5" aria-label="Method">
       <div className="grid gap-4 md:grid-cols-2">
         <div className="field">
           <label htmlFor="method-name">Name</label>
@@ -174,6 +175,6 @@ export default function ProgramEditor({ method, canEdit }: Props) {
           <button className="btn" type="submit" disabled={saving}>{saving ? "Saving…" : method ? "Save the method" : "Create the method"}</button>
         </div>
       )}
-    </form>
+    </IslandForm>
   );
 }

@@ -6,6 +6,7 @@ import { programChannels } from "../../lib/ledger/program";
 import { CHANNELS } from "../../lib/schemas/fields";
 import { runSchema, type RunInput } from "../../lib/schemas/runs";
 import { Field, useZodForm } from "../forms/form";
+import { IslandForm } from "../forms/island-form";
 import { postJson } from "../forms/post-json";
 import { newKey, utcInputValue } from "./keys";
 
@@ -84,7 +85,7 @@ export default function RunForm({ instruments, methods, projects, batches: initi
   const e = formState.errors;
   return (
     <div className="grid gap-6 lg:grid-cols-[minmax(0,1.4fr)_minmax(0,1fr)]">
-      <form method="post" onSubmit={onSubmit} noValidate className="card flex flex-col gap-4 p-5" aria-label="Log a run">
+      <IslandForm method="post" onSubmit={onSubmit} noValidate className="card flex flex-col gap-4 p-5" aria-label="Log a run">
         <input type="hidden" {...register("idempotencyKey")} />
         <div className="grid gap-4 md:grid-cols-2">
           <Select label="Instrument" options={instruments.map((i) => ({ id: i.id, label: i.name }))} registration={register("instrumentId")} error={e.instrumentId?.message} />
@@ -118,7 +119,7 @@ export default function RunForm({ instruments, methods, projects, batches: initi
         <div>
           <button className="btn" type="submit" disabled={formState.isSubmitting}>{formState.isSubmitting ? "Recording…" : "Record the run"}</button>
         </div>
-      </form>
+      </IslandForm>
 
       <aside className="flex flex-col gap-4" aria-live="polite">
         <div className="card p-4">

@@ -9,6 +9,7 @@ import { csvField } from "../../lib/imports/csv";
 import { formatVolume } from "../../lib/format";
 import { usageChartSeries } from "../../lib/ledger/usage-chart";
 import { LoadBoundary } from "../common/LoadBoundary";
+import { IslandForm } from "../forms/island-form";
 
 // Chart.js is about as heavy as the rest of the page together: it is fetched only once there is
 // usage to draw, so the page itself stays inside its JavaScript budget (DEVELOPERS.md, Usage).
@@ -137,7 +138,7 @@ function UsageView({ initialFrom, initialTo, initialGroupBy }: { initialFrom?: s
 
   return (
     <div className="flex flex-col gap-4">
-      <form className="card flex flex-wrap items-end gap-4 p-4" aria-label="Period" onSubmit={(e) => e.preventDefault()}>
+      <IslandForm className="card flex flex-wrap items-end gap-4 p-4" aria-label="Period" onSubmit={(e) => e.preventDefault()}>
         <div className="field"><label htmlFor="usage-from">From</label><input id="usage-from" type="date" className="input" value={from} max={to} onChange={(e) => e.target.value && setFrom(e.target.value)} /></div>
         <div className="field"><label htmlFor="usage-to">To (included)</label><input id="usage-to" type="date" className="input" value={to} min={from} onChange={(e) => e.target.value && setTo(e.target.value)} /></div>
         <div className="field">
@@ -148,7 +149,7 @@ function UsageView({ initialFrom, initialTo, initialGroupBy }: { initialFrom?: s
         </div>
         <div className="field"><label htmlFor="usage-filter">Filter</label><input id="usage-filter" className="input" placeholder="name, reagent or mobile phase" value={filter} onChange={(e) => setFilter(e.target.value)} /></div>
         <button type="button" className="btn btn-quiet" onClick={exportCsv} disabled={rows.length === 0}>Export CSV</button>
-      </form>
+      </IslandForm>
       {state.kind === "loading" && <p className="text-sm text-[var(--color-muted)]" role="status">Loading the usage…</p>}
       {state.kind === "error" && <p className="notice notice-danger" role="alert">{state.message}</p>}
       {state.kind === "ready" && rows.length === 0 && <p className="notice">No usage in this period.</p>}

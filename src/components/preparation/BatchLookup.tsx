@@ -1,4 +1,5 @@
 import { useId, useState } from "react";
+import { IslandForm } from "../forms/island-form";
 
 /** A code field for typing or a barcode scanner (which types the code and Enter). */
 export default function BatchLookup({ autoFocus = false }: { autoFocus?: boolean }) {
@@ -18,13 +19,13 @@ export default function BatchLookup({ autoFocus = false }: { autoFocus?: boolean
     else setError(response.status === 404 ? `No batch with the code ${code.trim().toUpperCase()}.` : (data.error ?? "The look-up failed."));
   }
   return (
-    <form onSubmit={open} className="flex flex-wrap items-end gap-2" role="search" aria-label="Open a batch by its code">
+    <IslandForm onSubmit={open} className="flex flex-wrap items-end gap-2" role="search" aria-label="Open a batch by its code">
       <div className="field">
         <label htmlFor={id}>Batch code</label>
         <input id={id} className="input w-48 font-mono uppercase" value={code} onChange={(e) => setCode(e.target.value)} placeholder="Scan or type" autoComplete="off" autoFocus={autoFocus} aria-invalid={error ? true : undefined} aria-describedby={error ? `${id}-error` : undefined} />
       </div>
       <button className="btn btn-quiet" type="submit" disabled={busy}>Open</button>
       {error && <p id={`${id}-error`} className="field-error w-full" role="alert">{error}</p>}
-    </form>
+    </IslandForm>
   );
 }

@@ -7,6 +7,7 @@ import { preparationPlan, type PreparationPlan } from "../../lib/preparation/pla
 import type { BatchCreateInput } from "../../lib/schemas/preparation";
 import type { PreparableRecipe } from "../../lib/server/services/recipes";
 import { useZodForm } from "../forms/form";
+import { IslandForm } from "../forms/island-form";
 import { postJson } from "../forms/post-json";
 
 /** The recipe as the page hands it to the form (the service's shape, without the recipe id). */
@@ -148,7 +149,7 @@ export default function PreparationForm({ recipes, lots, tolerances, expiryRules
   if (recipes.length === 0) return <p className="notice">No recipe is approved yet. A manager approves a recipe before batches are made from it.</p>;
 
   return (
-    <form onSubmit={onSubmit} noValidate className="grid gap-6 xl:grid-cols-[minmax(0,1fr)_22rem]" aria-describedby="prep-status">
+    <IslandForm onSubmit={onSubmit} noValidate className="grid gap-6 xl:grid-cols-[minmax(0,1fr)_22rem]" aria-describedby="prep-status">
       <div className="grid gap-6">
         <section className="card grid gap-4 p-5" aria-labelledby="what-heading">
           <h2 id="what-heading">What and how much</h2>
@@ -351,6 +352,6 @@ export default function PreparationForm({ recipes, lots, tolerances, expiryRules
         </div>
         <button type="submit" className="btn justify-center" disabled={saving || !plan}>{saving ? "Recording…" : "Record the batch"}</button>
       </aside>
-    </form>
+    </IslandForm>
   );
 }

@@ -3,6 +3,7 @@ import type { PreparationSettings } from "../../lib/schemas/preparation";
 import { preparationSettingsSchema } from "../../lib/schemas/preparation";
 import { formatZodError } from "../../lib/schemas/zod-error";
 import { postJson } from "../forms/post-json";
+import { IslandForm } from "../forms/island-form";
 
 /** Expiry rules, deviation tolerances and label stocks, for a manager. */
 export default function PreparationSettingsForm({ initial }: { initial: PreparationSettings }) {
@@ -34,7 +35,7 @@ export default function PreparationSettingsForm({ initial }: { initial: Preparat
   }
 
   return (
-    <form onSubmit={save} className="grid gap-6" noValidate>
+    <IslandForm onSubmit={save} className="grid gap-6" noValidate>
       <section className="card p-5" aria-labelledby="rules-heading">
         <h2 id="rules-heading">Expiry rules</h2>
         <p className="text-sm text-[var(--color-muted)]">The defaults are common practice, not regulation: set them to your facility's SOPs. A batch expires at the earlier of its rule and the expiry of any lot in it.</p>
@@ -68,6 +69,6 @@ export default function PreparationSettingsForm({ initial }: { initial: Preparat
         <button className="btn" type="submit">Save settings</button>
         {message && <p className={message.ok ? "text-sm text-[var(--color-ok)]" : "field-error"} role={message.ok ? "status" : "alert"}>{message.text}</p>}
       </div>
-    </form>
+    </IslandForm>
   );
 }

@@ -4,6 +4,7 @@ import type { RecipeChoices } from "../../lib/preparation/recipe-choices";
 import type { RecipeInput } from "../../lib/schemas/recipes";
 import { LoadBoundary } from "../common/LoadBoundary";
 import { Field, useZodForm } from "../forms/form";
+import { IslandForm } from "../forms/island-form";
 import { postJson } from "../forms/post-json";
 
 // The chemistry behind the preview, the reagent catalogue and zod would take the page past its
@@ -51,7 +52,7 @@ export default function RecipeForm({ choices, recipeId, initial, makesNewVersion
   });
 
   return (
-    <form onSubmit={onSubmit} noValidate className="grid gap-6 xl:grid-cols-[minmax(0,1fr)_22rem]">
+    <IslandForm onSubmit={onSubmit} noValidate className="grid gap-6 xl:grid-cols-[minmax(0,1fr)_22rem]">
       <div className="grid gap-6">
         <section className="card grid gap-4 p-5 sm:grid-cols-2">
           <div className="sm:col-span-2"><Field label="Name" registration={register("name")} error={errors.name?.message} placeholder="e.g. 10 mM ammonium formate, pH 3.5" /></div>
@@ -173,6 +174,6 @@ export default function RecipeForm({ choices, recipeId, initial, makesNewVersion
         {error && <p className="notice notice-danger" role="alert">{error}</p>}
         <button type="submit" className="btn justify-center" disabled={saving}>{saving ? "Saving…" : recipeId ? (makesNewVersion ? "Save as a new version" : "Save changes") : "Create the recipe"}</button>
       </aside>
-    </form>
+    </IslandForm>
   );
 }

@@ -2,6 +2,7 @@ import { useState } from "react";
 import { reagents } from "../../lib/chem";
 import { stockLotInputSchema, type StockLotInput } from "../../lib/schemas/stock-lots";
 import { Field, useZodForm } from "../forms/form";
+import { IslandForm } from "../forms/island-form";
 
 const MAX_MB = 10;
 
@@ -33,7 +34,7 @@ export default function StockLotForm() {
   });
 
   return (
-    <form onSubmit={onSubmit} noValidate className="card grid gap-4 p-5 sm:grid-cols-2 lg:grid-cols-4" aria-label="Record a stock lot">
+    <IslandForm onSubmit={onSubmit} noValidate className="card grid gap-4 p-5 sm:grid-cols-2 lg:grid-cols-4" aria-label="Record a stock lot">
       <div className="field sm:col-span-2">
         <label htmlFor="lot-reagent">Reagent</label>
         <select id="lot-reagent" className="input" {...register("reagent")}>
@@ -57,6 +58,6 @@ export default function StockLotForm() {
         <button type="submit" className="btn" disabled={saving}>{saving ? "Saving…" : "Record the lot"}</button>
         {error && <p className="field-error" role="alert">{error}</p>}
       </div>
-    </form>
+    </IslandForm>
   );
 }

@@ -4,6 +4,7 @@ import { ROLE_LABELS, ROLES, type Role } from "../../lib/permissions";
 import { inviteUserSchema, type InviteUserInput } from "../../lib/schemas/auth";
 import type { ClientOption, UserRow } from "../../lib/server/services/users";
 import { Field, SelectField, useZodForm } from "../forms/form";
+import { IslandForm } from "../forms/island-form";
 import { postJson } from "../forms/post-json";
 
 interface Props {
@@ -65,7 +66,7 @@ function InviteForm({ clients, actorRole, onInvited }: { clients: ClientOption[]
   });
 
   return (
-    <form method="post" onSubmit={onSubmit} noValidate aria-label="Invite a person" className="card grid gap-4 p-5 sm:grid-cols-2 [&>*]:min-w-0 [&_.input]:w-full [&_.input]:min-w-0">
+    <IslandForm method="post" onSubmit={onSubmit} noValidate aria-label="Invite a person" className="card grid gap-4 p-5 sm:grid-cols-2 [&>fieldset>*]:min-w-0 [&_.input]:w-full [&_.input]:min-w-0">
       <Field label="Name" autoComplete="off" registration={register("name")} error={formState.errors.name?.message} />
       <Field label="E-mail address" type="email" autoComplete="off" registration={register("email")} error={formState.errors.email?.message} />
       <SelectField label="Role" registration={register("role")} options={roleOptions(actorRole)} error={formState.errors.role?.message} />
@@ -91,7 +92,7 @@ function InviteForm({ clients, actorRole, onInvited }: { clients: ClientOption[]
         </button>
         <span className="ml-3 text-sm text-[var(--color-muted)]">The link in the e-mail works once, for 48 hours.</span>
       </div>
-    </form>
+    </IslandForm>
   );
 }
 

@@ -1,6 +1,7 @@
 import { useState } from "react";
 import { collectionSchema, type CollectionInput } from "../../lib/schemas/waste";
 import { Field, useZodForm } from "../forms/form";
+import { IslandForm } from "../forms/island-form";
 import { postJson } from "../forms/post-json";
 
 /** Records that a requested pickup was collected, with the manifest or reference number. */
@@ -17,11 +18,11 @@ export default function CollectionForm({ pickupId, reference }: { pickupId: numb
     }
   });
   return (
-    <form onSubmit={onSubmit} noValidate className="flex flex-wrap items-end gap-3" aria-label={`Record collection of ${reference}`}>
+    <IslandForm onSubmit={onSubmit} noValidate className="flex flex-wrap items-end gap-3" aria-label={`Record collection of ${reference}`}>
       <Field label="Manifest or reference number" registration={register("manifestRef")} error={formState.errors.manifestRef?.message} maxLength={64} />
       <Field label="Note (optional)" registration={register("note")} error={formState.errors.note?.message} maxLength={255} />
       <button className="btn" type="submit" disabled={formState.isSubmitting}>{formState.isSubmitting ? "Saving…" : "Record collection"}</button>
       {problem && <p className="notice notice-danger w-full" role="alert">{problem}</p>}
-    </form>
+    </IslandForm>
   );
 }

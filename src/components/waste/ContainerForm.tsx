@@ -1,6 +1,7 @@
 import { useState } from "react";
 import { containerSchema, type ContainerInput } from "../../lib/schemas/waste";
 import { Field, SelectField, useZodForm } from "../forms/form";
+import { IslandForm } from "../forms/island-form";
 import { postJson } from "../forms/post-json";
 
 interface Props {
@@ -30,7 +31,7 @@ export default function ContainerForm({ containerId, initial = {}, streams, inst
   });
   const e = formState.errors;
   return (
-    <form onSubmit={onSubmit} noValidate className="grid gap-4 sm:grid-cols-2" aria-label={containerId ? "Edit container" : "New container"}>
+    <IslandForm onSubmit={onSubmit} noValidate className="grid gap-4 sm:grid-cols-2" aria-label={containerId ? "Edit container" : "New container"}>
       <Field label="Container code" registration={register("code")} error={e.code?.message} placeholder="WC-0110" hint="Decant's own code; it is printed as a barcode on the container label." />
       <SelectField label="Waste stream" registration={register("streamId")} error={e.streamId?.message} options={streams.map((s) => ({ value: s.id, label: s.name }))} placeholder="Choose a stream…" />
       <Field label="Capacity (mL)" type="number" inputMode="numeric" min={100} step={1} registration={register("capacity_mL")} error={e.capacity_mL?.message} />
@@ -49,6 +50,6 @@ export default function ContainerForm({ containerId, initial = {}, streams, inst
       <div className="sm:col-span-2">
         <button className="btn" type="submit" disabled={formState.isSubmitting}>{formState.isSubmitting ? "Saving…" : containerId ? "Save changes" : "Add container"}</button>
       </div>
-    </form>
+    </IslandForm>
   );
 }

@@ -1,6 +1,7 @@
 import { useState } from "react";
 import { readingSchema, type ReadingInput } from "../../lib/schemas/waste";
 import { Field, useZodForm } from "../forms/form";
+import { IslandForm } from "../forms/island-form";
 import { postJson } from "../forms/post-json";
 
 /** A manual level reading. The answer shows the difference from Decant's estimate, which is kept. */
@@ -21,7 +22,7 @@ export default function ReadingForm({ containerId, estimated_mL }: { containerId
     }
   });
   return (
-    <form onSubmit={onSubmit} noValidate className="flex flex-col gap-3" aria-label="Record a level reading">
+    <IslandForm onSubmit={onSubmit} noValidate className="flex flex-col gap-3" aria-label="Record a level reading">
       <Field label="Level read off the container (mL)" type="number" inputMode="decimal" step="any" min={0} registration={register("level_mL")} error={formState.errors.level_mL?.message} hint={`Decant's estimate now: ${Math.round(estimated_mL)} mL`} />
       <Field label="Note (optional)" registration={register("note")} error={formState.errors.note?.message} maxLength={255} />
       {problem && <p className="notice notice-danger" role="alert">{problem}</p>}
@@ -29,6 +30,6 @@ export default function ReadingForm({ containerId, estimated_mL }: { containerId
       <div>
         <button className="btn" type="submit" disabled={formState.isSubmitting}>{formState.isSubmitting ? "Saving…" : "Record reading"}</button>
       </div>
-    </form>
+    </IslandForm>
   );
 }

@@ -2,6 +2,7 @@ import { useState } from "react";
 import { z } from "zod";
 import { streamSchema } from "../../lib/schemas/waste";
 import { Field, useZodForm } from "../forms/form";
+import { IslandForm } from "../forms/island-form";
 import { postJson } from "../forms/post-json";
 
 // The form edits "also accepts" as a comma-separated list; the API takes an array.
@@ -40,7 +41,7 @@ export default function StreamForm({ stream, defaults = null }: Props) {
   });
   const e = formState.errors;
   return (
-    <form onSubmit={onSubmit} noValidate className="grid gap-3 md:grid-cols-2" aria-label={stream ? `Edit ${stream.name}` : "New stream"}>
+    <IslandForm onSubmit={onSubmit} noValidate className="grid gap-3 md:grid-cols-2" aria-label={stream ? `Edit ${stream.name}` : "New stream"}>
       {!stream && <Field label="Id" registration={register("id")} error={e.id?.message} placeholder="e.g. heavy-metal-aqueous" />}
       <Field label="Name" registration={register("name")} error={e.name?.message} />
       <Field label="Restrictiveness (higher wins)" type="number" step={1} min={0} registration={register("restrictiveness")} error={e.restrictiveness?.message} />
@@ -69,6 +70,6 @@ export default function StreamForm({ stream, defaults = null }: Props) {
         <button className="btn" type="submit" disabled={formState.isSubmitting}>{formState.isSubmitting ? "Saving…" : stream ? "Save stream" : "Add stream"}</button>
         {saved && <span className="text-sm text-[var(--color-ok)]" role="status">Saved.</span>}
       </div>
-    </form>
+    </IslandForm>
   );
 }

@@ -2,6 +2,7 @@ import { useState } from "react";
 import { z } from "zod";
 import { wasteSettingsSchema } from "../../lib/schemas/waste";
 import { Field, useZodForm } from "../forms/form";
+import { IslandForm } from "../forms/island-form";
 import { postJson } from "../forms/post-json";
 
 // Room limits and reagent overrides are edited as "key = value" lines; the API takes objects.
@@ -62,7 +63,7 @@ export default function WasteSettingsForm({ settings }: Props) {
   });
   const e = formState.errors;
   return (
-    <form onSubmit={onSubmit} noValidate className="grid max-w-3xl gap-4 sm:grid-cols-3" aria-label="Waste limits">
+    <IslandForm onSubmit={onSubmit} noValidate className="grid max-w-3xl gap-4 sm:grid-cols-3" aria-label="Waste limits">
       <Field label="Fill threshold (%)" type="number" min={10} max={100} step={1} registration={register("fullThreshold_percent")} error={e.fullThreshold_percent?.message} hint="Example: 80 %" />
       <Field label="Accumulation limit (days)" type="number" min={1} step={1} registration={register("accumulationLimit_days")} error={e.accumulationLimit_days?.message} hint="Example: 180 days" />
       <Field label="Warn days before the limit" type="number" min={0} step={1} registration={register("accumulationWarning_days")} error={e.accumulationWarning_days?.message} hint="Example: 14 days" />
@@ -79,6 +80,6 @@ export default function WasteSettingsForm({ settings }: Props) {
         <button className="btn" type="submit" disabled={formState.isSubmitting}>{formState.isSubmitting ? "Saving…" : "Save limits"}</button>
         {saved && <span className="text-sm text-[var(--color-ok)]" role="status">Saved. The limits apply from the next check.</span>}
       </div>
-    </form>
+    </IslandForm>
   );
 }
