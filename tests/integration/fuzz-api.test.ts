@@ -175,7 +175,7 @@ async function send(caller: Client, sent: Sent) {
   const text = await response.text();
   record(response.status);
   const label = `${sent.init.method} ${sent.url.slice(0, 200)} ${sent.describe.slice(0, 300)} → ${response.status}`;
-  if (response.status >= 500) throw new Error(`${label}: ${text.slice(0, 300)}`);
+  if (response.status >= 500) throw new Error(`${label}: ${text.slice(0, 300)}\nThe server printed:\n${app.recentOutput().slice(-1500)}`);
   if (response.status >= 400) checkRefusal(response.status, text, label);
   else if (sent.mustRefuse || !sent.mayAccept) throw new Error(`${label}: accepted malformed input: ${text.slice(0, 300)}`);
   return { status: response.status, text };
@@ -325,7 +325,7 @@ describe.concurrent(`schema-valid extremes on every state-changing route: ${EXTR
         const answer = await response.text();
         if (response.status >= 500) {
           extremes.answered5xx++;
-          throw new Error(`${method} ${url} ${text.slice(0, 400)} → ${response.status} ${answer.slice(0, 200)}`);
+          throw new Error(`${method} ${url} ${text.slice(0, 400)} → ${response.status} ${answer.slice(0, 200)}\nThe server printed:\n${app.recentOutput().slice(-1500)}`);
         }
         if (response.status >= 400) checkRefusal(response.status, answer, `${method} ${url} ${text.slice(0, 200)}`);
       }),

@@ -27,6 +27,8 @@ export interface AppInstance {
   client(email?: string, password?: string): Promise<Client>;
   /** The server's resident memory now, in MiB (from /proc/<pid>/status). */
   rss_MiB(): number;
+  /** The last 4,000 characters the server printed: where a 500 says what went wrong. */
+  recentOutput(): string;
 }
 
 
@@ -91,6 +93,7 @@ export function useAppInstance(extraEnv: NodeJS.ProcessEnv = {}): AppInstance {
       uploadDir,
       client: clientOf(baseUrl),
       rss_MiB: () => rssOf(child!.pid!),
+      recentOutput: () => output,
     });
   });
   afterAll(async () => {

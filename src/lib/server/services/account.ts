@@ -8,6 +8,7 @@ import { consumeToken, findUsableToken, issueToken, tokensIssuedSince } from "..
 import { HttpError } from "../http";
 import { sendMail } from "../mail";
 import { User } from "../models/auth";
+import { inTransaction } from "./sql";
 
 /** At most this many reset mails per account per 15 minutes, so the form cannot flood an inbox. */
 export const MAX_RESET_MAILS = 3;
@@ -65,7 +66,7 @@ export async function describeLink(token: string): Promise<{ purpose: "invitatio
 /** Uses the link once: sets the password and ends every session the account had. */
 export async function setPasswordWithToken(input: SetPasswordInput, ctx: { ip: string | null }): Promise<{ email: string }> {
   const passwordHash = await hashPassword(input.newPassword);
-  const result = await User.sequelize!.transaction(async (transaction) => {
+  const result = await inTransaction(User.sequelize!, async (transaction) => {
     const record = await consumeToken(input.token, transaction);
     if (!record) return null;
     const user = await User.findByPk(record.userId, { transaction });

@@ -32,6 +32,7 @@ import { Client, Project } from "../models/organisation";
 import { getPayments, webhookSecret } from "../payments";
 import { can } from "../../permissions";
 import { renderStatementPdf } from "./statement-pdf";
+import { inTransaction } from "./sql";
 
 /** The Sequelize instance the models are bound to (a test's own database, or the app's). */
 const db = (): Sequelize => Statement.sequelize ?? getSequelize();
@@ -94,7 +95,7 @@ export async function listRates(now = new Date()): Promise<RateView[]> {
 
 /** Adds a rate. Rates are never edited: a new effective-from supersedes the old price from that day. */
 export async function addRate(input: RateInput, actor: SignedInUser, ip: string | null = null): Promise<RateView> {
-  return db().transaction(async (transaction) => {
+  return inTransaction(db(), async (transaction) => {
     if (input.kind === "reagent") {
       const [reagent] = await db().query<{ unit: "mL" | "g"; grades: unknown }>("SELECT unit, grades FROM reagents WHERE id = :id", { type: QueryTypes.SELECT, replacements: { id: input.reagentId }, transaction });
       if (!reagent) throw new HttpError(400, `reagentId: no reagent "${input.reagentId}" in the catalogue`);
@@ -431,7 +432,7 @@ export async function listInvoices(viewer: SignedInUser): Promise<InvoiceView[]>
 /** Opens the client's statement for a period: the existing one, or a new draft computed from the ledger. */
 export async function openStatement(input: { clientId: number; periodStart: string; periodEnd: string }, actor: SignedInUser): Promise<{ id: number; created: boolean }> {
   if (input.periodEnd < input.periodStart) throw new HttpError(400, "periodEnd: must be on or after periodStart");
-  return db().transaction(async (transaction) => {
+  return inTransaction(db(), async (transaction) => {
     const client = await Client.findByPk(input.clientId, { transaction, lock: transaction.LOCK.UPDATE });
     if (!client) throw new HttpError(400, `clientId: no client ${input.clientId}`);
     const existing = await Statement.findOne({ where: { clientId: client.id, periodStart: input.periodStart, periodEnd: input.periodEnd }, transaction });
@@ -467,7 +468,7 @@ async function issueLocked(statement: Statement, client: Client, expectedTotal: 
 
 /** Issues an internal client's chargeback statement (or an external one without invoicing it). */
 export async function issueStatement(id: number, options: { expectedTotal_minor?: number | undefined }, actor: SignedInUser, ip: string | null = null, now = new Date()): Promise<void> {
-  await db().transaction(async (transaction) => {
+  await inTransaction(db(), async (transaction) => {
     const statement = await Statement.findByPk(id, { transaction, lock: transaction.LOCK.UPDATE });
     if (!statement) throw new HttpError(404, `No statement ${id}.`);
     const client = (await Client.findByPk(statement.clientId, { transaction }))!;
@@ -532,7 +533,7 @@ export async function invoiceStatement(
 ): Promise<{ invoice: InvoiceView; created: boolean }> {
   const now = deps.now ?? new Date();
   const payments = deps.payments ?? getPayments();
-  const result = await db().transaction(async (transaction) => {
+  const result = await inTransaction(db(), async (transaction) => {
     const statement = await Statement.findByPk(id, { transaction, lock: transaction.LOCK.UPDATE });
     if (!statement) throw new HttpError(404, `No statement ${id}.`);
     const client = (await Client.findByPk(statement.clientId, { transaction, lock: transaction.LOCK.UPDATE }))!;
@@ -643,7 +644,7 @@ let mailTransport: ReturnType<typeof createTransport> | undefined;
 // ── Invoices: manager actions ───────────────────────────────────────────────────────────
 
 async function invoiceAction(id: number, action: "void" | "uncollectible", actor: SignedInUser, ip: string | null, payments = getPayments()): Promise<InvoiceView> {
-  return db().transaction(async (transaction) => {
+  return inTransaction(db(), async (transaction) => {
     const invoice = await Invoice.findByPk(id, { transaction, lock: transaction.LOCK.UPDATE });
     if (!invoice || !invoice.providerInvoiceId) throw new HttpError(404, `No sent invoice ${id}.`);
     const statement = (await Statement.findByPk(invoice.statementId, { transaction, lock: transaction.LOCK.UPDATE }))!;
@@ -706,7 +707,7 @@ export async function handlePaymentsWebhook(rawBody: string, signatureHeader: st
   } catch (error) {
     throw new HttpError(400, `Stripe-Signature: ${(error as Error).message.split("\n")[0]}`);
   }
-  return db().transaction(async (transaction) => {
+  return inTransaction(db(), async (transaction) => {
     try {
       await ProcessedEvent.create({ id: event.id, type: event.type }, { transaction });
     } catch (error) {

@@ -13,7 +13,7 @@ import { getSequelize } from "../db";
 import type { SignedInUser } from "../guard";
 import { HttpError } from "../http";
 import { appendEntries, ensureCatalogueRows, type NewLedgerEntry } from "./ledger";
-import { lastInsertId, multiRowInsert, pipelinedWrites } from "./sql";
+import { inTransaction, lastInsertId, multiRowInsert, pipelinedWrites } from "./sql";
 import { drawFromBatches, loadBatches, planRun, wasteProblem, type InstrumentForUse, type MethodForUse, type RunPlan } from "./runs";
 
 export interface ImportReport {
@@ -159,7 +159,7 @@ const RUNS_PER_INSERT = 1_000;
 export async function commitRunLog(content: string, fileName: string, actor: SignedInUser, ip: string | null = null): Promise<ImportReport> {
   const sequelize = getSequelize();
   try {
-    return await sequelize.transaction(async (transaction) => {
+    return await inTransaction(sequelize, async (transaction) => {
       const prepared = await prepare(content, fileName, actor, transaction);
       const { report } = prepared;
       // The same plans, emptied run by run as their ledger entries are written.

@@ -5,6 +5,7 @@ import { getSequelize } from "../db";
 import type { SignedInUser } from "../guard";
 import { HttpError } from "../http";
 import { Instrument } from "../models/ledger";
+import { inTransaction } from "./sql";
 
 export interface InstrumentSummary {
   id: number;
@@ -55,7 +56,7 @@ function duplicateName(error: unknown, name: string): never {
 
 export async function createInstrument(input: InstrumentInput, actor: SignedInUser): Promise<{ id: number }> {
   await checkContainer(input.wasteContainerId);
-  return getSequelize().transaction(async (transaction) => {
+  return inTransaction(getSequelize(), async (transaction) => {
     const created = await Instrument.create({ name: input.name, kind: input.kind, room: input.room, channels: input.channels, wasteContainerId: input.wasteContainerId, active: input.active }, { transaction }).catch((e: unknown) => duplicateName(e, input.name));
     await recordAudit({ actorId: actor.id, action: "instrument.create", entity: "instrument", entityId: created.id, after: snapshot(created) }, transaction);
     return { id: created.id };
@@ -64,7 +65,7 @@ export async function createInstrument(input: InstrumentInput, actor: SignedInUs
 
 export async function updateInstrument(id: number, input: InstrumentInput, actor: SignedInUser): Promise<{ id: number }> {
   await checkContainer(input.wasteContainerId);
-  return getSequelize().transaction(async (transaction) => {
+  return inTransaction(getSequelize(), async (transaction) => {
     const instrument = await Instrument.findByPk(id, { transaction, lock: transaction.LOCK.UPDATE });
     if (!instrument) throw new HttpError(404, `id: no instrument ${id}`);
     const before = snapshot(instrument);

@@ -12,7 +12,7 @@ import type { SignedInUser } from "../guard";
 import { HttpError } from "../http";
 import type { LedgerKind, LedgerSource } from "../models/ledger";
 import { openDateForProject } from "./billing";
-import { multiRowInsert, pipelinedWrites } from "./sql";
+import { inTransaction, multiRowInsert, pipelinedWrites } from "./sql";
 
 export interface NewLedgerEntry {
   occurredAt: Date;
@@ -205,7 +205,7 @@ const DRAWN_FROM_BATCH = new Set<LedgerKind>(["run", "draw", "discard"]);
  */
 export async function reverseEntries(input: { entryIds: number[]; runId?: number | undefined; reason: string }, actor: SignedInUser, ip: string | null = null): Promise<{ corrections: LedgerLine[] }> {
   const sequelize = getSequelize();
-  const ids = await sequelize.transaction(async (transaction) => {
+  const ids = await inTransaction(sequelize, async (transaction) => {
     const conditions: string[] = [];
     const replacements: Record<string, unknown> = {};
     if (input.entryIds.length) {

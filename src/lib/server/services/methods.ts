@@ -7,6 +7,7 @@ import { getSequelize } from "../db";
 import type { SignedInUser } from "../guard";
 import { HttpError } from "../http";
 import { Method } from "../models/ledger";
+import { inTransaction } from "./sql";
 
 export interface MethodSummary {
   id: number;
@@ -60,7 +61,7 @@ function duplicateName(error: unknown, name: string): never {
 }
 
 export async function createMethod(input: MethodInput, actor: SignedInUser): Promise<{ id: number }> {
-  return getSequelize().transaction(async (transaction) => {
+  return inTransaction(getSequelize(), async (transaction) => {
     const created = await Method.create(toColumns(input), { transaction }).catch((e: unknown) => duplicateName(e, input.name));
     await recordAudit({ actorId: actor.id, action: "method.create", entity: "method", entityId: created.id, after: toColumns(input) }, transaction);
     return { id: created.id };
@@ -72,7 +73,7 @@ export async function createMethod(input: MethodInput, actor: SignedInUser): Pro
  * run and in the ledger), so editing a program never rewrites history.
  */
 export async function updateMethod(id: number, input: MethodInput, actor: SignedInUser): Promise<{ id: number }> {
-  return getSequelize().transaction(async (transaction) => {
+  return inTransaction(getSequelize(), async (transaction) => {
     const method = await Method.findByPk(id, { transaction, lock: transaction.LOCK.UPDATE });
     if (!method) throw new HttpError(404, `id: no method ${id}`);
     const before = { name: method.name, program: method.program, reEquilibrationMin: method.reEquilibrationMin };

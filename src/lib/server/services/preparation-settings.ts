@@ -7,6 +7,7 @@ import { preparationSettingsSchema, type PreparationSettings } from "../../schem
 import { recordAudit } from "../audit";
 import { getSequelize } from "../db";
 import type { SignedInUser } from "../guard";
+import { inTransaction } from "./sql";
 
 const KEYS = {
   expiryRules: "expiry.rules",
@@ -47,7 +48,7 @@ export async function getPreparationSettings(): Promise<PreparationSettings> {
 
 export async function savePreparationSettings(settings: PreparationSettings, actor: SignedInUser, ip: string | null = null): Promise<PreparationSettings> {
   const before = await getPreparationSettings();
-  await getSequelize().transaction(async (transaction) => {
+  await inTransaction(getSequelize(), async (transaction) => {
     for (const [field, key] of Object.entries(KEYS) as [keyof typeof KEYS, string][]) {
       await getSequelize().query(
         "INSERT INTO settings (`key`, value, updated_by, updated_at) VALUES (?, ?, ?, NOW(3)) ON DUPLICATE KEY UPDATE value = VALUES(value), updated_by = VALUES(updated_by), updated_at = NOW(3)",

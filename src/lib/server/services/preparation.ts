@@ -22,7 +22,7 @@ import { HttpError } from "../http";
 import { appendEntries, ensureCatalogueRows, wasteStreamOf, type NewLedgerEntry } from "./ledger";
 import { getPreparationSettings } from "./preparation-settings";
 import { getRecipeVersion } from "./recipes";
-import { lastInsertId } from "./sql";
+import { inTransaction, lastInsertId } from "./sql";
 import { getStockLots } from "./stock-lots";
 
 export type BottleStatus = "ready" | "in_use" | "empty" | "discarded";
@@ -205,41 +205,32 @@ export async function recordBatch(input: BatchCreateInput, actor: SignedInUser, 
   }
   let batchId = 0;
   try {
-    for (let attempt = 1; ; attempt++) {
-      try {
-        await sql().transaction(async (transaction) => {
-          batchId = await insertBatch({ ...input, room: room ?? undefined }, snapshot, expiry, deviations, reason, actor, now, transaction);
-          await ensureCatalogueRows(pairs.map((p) => p.planned.reagent), transaction);
-          const ledger: NewLedgerEntry[] = [];
-          for (const { planned, given } of pairs) {
-            const actual = given.actualAmount ?? planned.target;
-            await sql().query(
-              "INSERT INTO batch_components (batch_id, reagent_id, stock_lot_id, role, unit, target_amount, actual_amount) VALUES (?, ?, ?, ?, ?, ?, ?)",
-              { replacements: [batchId, planned.reagent, given.stockLotId, planned.role, planned.unit, planned.target.toFixed(5), given.actualAmount == null ? null : given.actualAmount.toFixed(5)], transaction },
-            );
-            await sql().query("UPDATE stock_lots SET remaining = GREATEST(0, remaining - ?), opened_on = COALESCE(opened_on, ?), updated_at = NOW(3) WHERE id = ?", {
-              replacements: [actual.toFixed(3), now.toISOString().slice(0, 10), given.stockLotId], transaction,
-            });
-            ledger.push({
-              occurredAt: now, projectId: null, kind: "preparation", batchId, reagentId: planned.reagent,
-              volume_mL: planned.unit === "mL" ? actual : 0, mass_g: planned.unit === "g" ? actual : null, channel: null,
-              wasteStreamId: null, wasteContainerId: null, sourceKind: "manual", sourceId: `batch:${batchId}`, authorId: actor.id,
-            });
-          }
-          await appendEntries(ledger, transaction);
-          for (let n = 1; n <= input.bottles; n++) {
-            await sql().query("INSERT INTO batch_bottles (batch_id, number, status, updated_by, created_at, updated_at) VALUES (?, ?, 'ready', ?, NOW(3), NOW(3))", { replacements: [batchId, n, actor.id], transaction });
-          }
-          await recordAudit({ actorId: actor.id, action: "record", entity: "batch", entityId: batchId, ip, after: { ...input, room, expiresAt: expiry.expiresAt.toISOString(), deviations } }, transaction);
+    // Two batches recorded at the same moment can deadlock on the day's code range; inTransaction tries again.
+    await inTransaction(sql(), async (transaction) => {
+      batchId = await insertBatch({ ...input, room: room ?? undefined }, snapshot, expiry, deviations, reason, actor, now, transaction);
+      await ensureCatalogueRows(pairs.map((p) => p.planned.reagent), transaction);
+      const ledger: NewLedgerEntry[] = [];
+      for (const { planned, given } of pairs) {
+        const actual = given.actualAmount ?? planned.target;
+        await sql().query(
+          "INSERT INTO batch_components (batch_id, reagent_id, stock_lot_id, role, unit, target_amount, actual_amount) VALUES (?, ?, ?, ?, ?, ?, ?)",
+          { replacements: [batchId, planned.reagent, given.stockLotId, planned.role, planned.unit, planned.target.toFixed(5), given.actualAmount == null ? null : given.actualAmount.toFixed(5)], transaction },
+        );
+        await sql().query("UPDATE stock_lots SET remaining = GREATEST(0, remaining - ?), opened_on = COALESCE(opened_on, ?), updated_at = NOW(3) WHERE id = ?", {
+          replacements: [actual.toFixed(3), now.toISOString().slice(0, 10), given.stockLotId], transaction,
         });
-        break;
-      } catch (error) {
-        // Two batches recorded at the same moment can deadlock on the day's code range; MariaDB
-        // rolls one back, which is simply tried again.
-        if (attempt < 3 && error instanceof Error && /deadlock/i.test(error.message)) continue;
-        throw error;
+        ledger.push({
+          occurredAt: now, projectId: null, kind: "preparation", batchId, reagentId: planned.reagent,
+          volume_mL: planned.unit === "mL" ? actual : 0, mass_g: planned.unit === "g" ? actual : null, channel: null,
+          wasteStreamId: null, wasteContainerId: null, sourceKind: "manual", sourceId: `batch:${batchId}`, authorId: actor.id,
+        });
       }
-    }
+      await appendEntries(ledger, transaction);
+      for (let n = 1; n <= input.bottles; n++) {
+        await sql().query("INSERT INTO batch_bottles (batch_id, number, status, updated_by, created_at, updated_at) VALUES (?, ?, 'ready', ?, NOW(3), NOW(3))", { replacements: [batchId, n, actor.id], transaction });
+      }
+      await recordAudit({ actorId: actor.id, action: "record", entity: "batch", entityId: batchId, ip, after: { ...input, room, expiresAt: expiry.expiresAt.toISOString(), deviations } }, transaction);
+    });
   } catch (error) {
     await sql().query("DELETE FROM idempotency_keys WHERE `key` = ? AND scope = 'batch'", { replacements: [input.idempotencyKey] });
     throw error;
@@ -338,7 +329,7 @@ export async function updateBottle(batchId: number, number: number, change: { st
   const share = Math.min(batch.bottleSize_mL, batch.volume_mL / batch.bottles);
   const discarded = change.status === "discarded" ? Math.min(change.discarded_mL ?? share, batch.remaining_mL) : 0;
   const now = new Date();
-  await sql().transaction(async (transaction) => {
+  await inTransaction(sql(), async (transaction) => {
     await sql().query("SELECT id FROM batches WHERE id = ? FOR UPDATE", { type: QueryTypes.SELECT, replacements: [batchId], transaction });
     await sql().query("UPDATE batch_bottles SET status = ?, discarded_ml = ?, updated_by = ?, updated_at = NOW(3) WHERE batch_id = ? AND number = ?", {
       replacements: [change.status, change.status === "discarded" ? discarded.toFixed(4) : null, actor.id, batchId, number], transaction,

@@ -11,7 +11,7 @@ import { recordAudit } from "../audit";
 import { getSequelize } from "../db";
 import type { SignedInUser } from "../guard";
 import { HttpError } from "../http";
-import { lastInsertId } from "./sql";
+import { inTransaction, lastInsertId } from "./sql";
 
 export type RecipeState = "approved" | "pending" | "retired";
 
@@ -140,7 +140,7 @@ export async function createRecipe(input: RecipeInput, actor: SignedInUser, ip: 
   const code = input.code ?? (await uniqueCode(codeFrom(input.name)));
   let id = 0;
   try {
-    await sequelize.transaction(async (transaction) => {
+    await inTransaction(sequelize, async (transaction) => {
       await sequelize.query("INSERT INTO recipes (code, name, channel, status, created_by, created_at, updated_at) VALUES (?, ?, ?, 'draft', ?, NOW(3), NOW(3))", {
         replacements: [code, input.name, input.channel ?? null, actor.id], transaction,
       });
@@ -165,7 +165,7 @@ export async function updateRecipe(id: number, input: RecipeInput, actor: Signed
   const latest = before.versions[0]!;
   const frozen = latest.approvedAt !== null || latest.batches > 0;
   const sequelize = getSequelize();
-  await sequelize.transaction(async (transaction) => {
+  await inTransaction(sequelize, async (transaction) => {
     await sequelize.query("UPDATE recipes SET name = ?, channel = ?, updated_at = NOW(3) WHERE id = ?", { replacements: [input.name, input.channel ?? null, id], transaction });
     if (frozen) {
       await sequelize.query(
@@ -190,7 +190,7 @@ export async function approveRecipe(id: number, version: number, actor: SignedIn
   if (latest.approvedAt) throw new HttpError(409, `Version ${version} is approved already.`);
   if (latest.createdById === actor.id) throw new HttpError(403, "A recipe version is approved by someone other than its author.");
   const sequelize = getSequelize();
-  await sequelize.transaction(async (transaction) => {
+  await inTransaction(sequelize, async (transaction) => {
     await sequelize.query("UPDATE recipe_versions SET approved_by = ?, approved_at = NOW(3) WHERE id = ? AND approved_at IS NULL", { replacements: [actor.id, latest.id], transaction });
     await sequelize.query("UPDATE recipes SET status = 'approved', updated_at = NOW(3) WHERE id = ?", { replacements: [id], transaction });
     await recordAudit({ actorId: actor.id, action: "approve", entity: "recipe", entityId: id, ip, after: { version } }, transaction);

@@ -14,6 +14,7 @@ import type { SignedInUser } from "../guard";
 import { HttpError } from "../http";
 import { appendEntries, ensureCatalogueRows, wasteStreamOf, type NewLedgerEntry } from "./ledger";
 import { checkContainerAccepts, wasteStreamForMix } from "./waste";
+import { inTransaction } from "./sql";
 
 /** A batch as a run needs it: state, dates, what is left and what is in it. */
 export interface BatchForUse {
@@ -165,11 +166,14 @@ export async function loadBatches(where: { ids?: number[]; codes?: string[] }, t
   const ids = where.ids ?? [];
   const codes = where.codes ?? [];
   if (ids.length === 0 && codes.length === 0) return new Map();
+  // Only the conditions that name something: with "OR code IN ('')" beside the ids, the optimizer may
+  // scan the whole table, and FOR UPDATE would then lock every batch and not only those used.
+  const conditions = [...(ids.length ? ["b.id IN (:ids)"] : []), ...(codes.length ? ["b.code IN (:codes)"] : [])];
   const rows = await sequelize.query<BatchRow>(
     `SELECT b.id, b.code, b.status, b.prepared_at, b.expires_at, b.remaining_ml, b.volume_ml, v.spec
        FROM batches b JOIN recipe_versions v ON v.id = b.recipe_version_id
-      WHERE b.id IN (:ids) OR b.code IN (:codes) ${lock ? "FOR UPDATE" : ""}`,
-    { type: QueryTypes.SELECT, replacements: { ids: ids.length ? ids : [0], codes: codes.length ? codes : [""] }, ...(transaction ? { transaction } : {}) },
+      WHERE ${conditions.join(" OR ")} ${lock ? "FOR UPDATE" : ""}`,
+    { type: QueryTypes.SELECT, replacements: { ids, codes }, ...(transaction ? { transaction } : {}) },
   );
   const parts = rows.length
     ? await sequelize.query<{ batch_id: number; reagent_id: string; unit: "mL" | "g"; amount: string }>(
@@ -333,7 +337,7 @@ export async function logRun(input: RunInput, actor: SignedInUser, ip: string | 
 
   let runId: number;
   try {
-    runId = await sequelize.transaction(async (transaction) => {
+    runId = await inTransaction(sequelize, async (transaction) => {
       const [instrument, method] = await Promise.all([loadInstrument(input.instrumentId, transaction), loadMethod(input.methodId, transaction)]);
       const problems: RunProblem[] = [];
       if (!instrument) problems.push({ field: "instrumentId", message: `no instrument with id ${input.instrumentId}` });
@@ -431,7 +435,7 @@ export async function logDraw(input: DrawInput, actor: SignedInUser, ip: string 
   if (earlier) return earlier;
   const occurredAt = input.occurredAt ?? new Date();
   try {
-    return await sequelize.transaction(async (transaction) => {
+    return await inTransaction(sequelize, async (transaction) => {
       const batches = await loadBatches({ ids: [input.batchId] }, transaction, true);
       const batch = batches.get(input.batchId);
       const problems: RunProblem[] = [];

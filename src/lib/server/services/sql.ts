@@ -1,5 +1,30 @@
-import { QueryTypes, UniqueConstraintError, type Transaction } from "sequelize";
+import { QueryTypes, UniqueConstraintError, type Sequelize, type Transaction } from "sequelize";
 import { getSequelize } from "../db";
+
+/** True when MariaDB rolled the transaction back to break a deadlock (error 1213, SQLSTATE 40001). */
+export function isDeadlock(error: unknown): boolean {
+  const e = error as { errno?: number; parent?: { errno?: number } } | null;
+  return (e?.parent?.errno ?? e?.errno) === 1213;
+}
+
+/**
+ * A managed transaction that is run again, up to `attempts` times in all, when MariaDB rolls it
+ * back to break a deadlock: two requests writing the same rows (the ledger's daily sums, a batch,
+ * an invoice) at the same moment can each wait on the other, and trying again is the remedy the
+ * database documents. `work` must leave nothing outside the database that a second attempt would
+ * repeat, or do it idempotently (the payments provider calls carry idempotency keys).
+ */
+export async function inTransaction<T>(sequelize: Sequelize, work: (transaction: Transaction) => Promise<T>, attempts = 3): Promise<T> {
+  for (let attempt = 1; ; attempt++) {
+    try {
+      return await sequelize.transaction(work);
+    } catch (error) {
+      if (attempt >= attempts || !isDeadlock(error)) throw error;
+      // A short random pause, so that the two do not meet again at once.
+      await new Promise((resolve) => setTimeout(resolve, Math.random() * 20 * attempt));
+    }
+  }
+}
 
 /** The id of the row just inserted on this transaction's connection. */
 export async function lastInsertId(transaction: Transaction): Promise<number> {

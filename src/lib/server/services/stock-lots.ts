@@ -8,7 +8,7 @@ import { getSequelize } from "../db";
 import type { SignedInUser } from "../guard";
 import { HttpError } from "../http";
 import { readUpload, removeUpload, storeCertificate } from "../storage";
-import { lastInsertId } from "./sql";
+import { inTransaction, lastInsertId } from "./sql";
 import { ensureCatalogueRows } from "./ledger";
 
 /** A lot is low when less than this share of what was received is left (or below the reagent's reorder level). */
@@ -91,7 +91,7 @@ export async function createStockLot(input: StockLotInput, certificate: { bytes:
   const sequelize = getSequelize();
   let id = 0;
   try {
-    await sequelize.transaction(async (transaction) => {
+    await inTransaction(sequelize, async (transaction) => {
       await ensureCatalogueRows([input.reagent], transaction);
       await sequelize.query(
         `INSERT INTO stock_lots (reagent_id, lot_number, supplier, grade, received_on, opened_on, expires_on, quantity, remaining, room,

@@ -10,6 +10,7 @@ import { HttpError } from "../http";
 import { sendMail } from "../mail";
 import { User } from "../models/auth";
 import { Client } from "../models/organisation";
+import { inTransaction } from "./sql";
 
 /** Who does it, from where, and the origin for links in e-mails. */
 export interface ActorContext {
@@ -103,7 +104,7 @@ export async function inviteUser(input: InviteUserInput, ctx: ActorContext): Pro
   const sequelize = User.sequelize!;
   let created: { user: User; token: string };
   try {
-    created = await sequelize.transaction(async (transaction) => {
+    created = await inTransaction(sequelize, async (transaction) => {
       const user = await User.create({ email: input.email, name: input.name, role: input.role, clientId, passwordHash: null, lastSignInAt: null }, { transaction });
       const { token } = await issueToken(user.id, "invitation", ctx.actor.id, { transaction });
       await recordAudit({ actorId: ctx.actor.id, action: "user-invited", entity: "user", entityId: user.id, ip: ctx.ip, after: { email: user.email, name: user.name, role: user.role, clientId } }, transaction);
@@ -138,7 +139,7 @@ export async function updateUser(id: number, input: UpdateUserInput, ctx: ActorC
   const before = { role: user.role, clientId: user.clientId, active: user.active };
   const active = input.active ?? user.active;
 
-  await User.sequelize!.transaction(async (transaction) => {
+  await inTransaction(User.sequelize!, async (transaction) => {
     await user.update({ role, clientId, active }, { transaction });
     if (before.role !== role || before.clientId !== clientId) {
       await recordAudit({ actorId: ctx.actor.id, action: "user-role-changed", entity: "user", entityId: user.id, ip: ctx.ip, before: { role: before.role, clientId: before.clientId }, after: { role, clientId } }, transaction);

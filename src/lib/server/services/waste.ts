@@ -19,6 +19,7 @@ import type { ReportData } from "../../waste/report";
 import { HttpError } from "../http";
 import { Setting } from "../models/audit";
 import { Pickup, WasteContainer, WasteReading, WasteStream, type ContainerStatus } from "../models/waste";
+import { inTransaction } from "./sql";
 
 interface Actor {
   id: number;
@@ -85,7 +86,7 @@ export async function updateWasteSettings(input: WasteSettingsInput, ctx: Contex
   for (const [reagent, stream] of Object.entries(input.reagentStreams)) {
     if (!streams.has(stream)) throw new HttpError(400, `reagentStreams.${reagent}: no stream "${stream}"`);
   }
-  return db().transaction(async (transaction) => {
+  return inTransaction(db(), async (transaction) => {
     const before = await readWasteSettings(transaction);
     for (const [field, key] of Object.entries(SETTING_KEYS) as [keyof typeof SETTING_KEYS, string][]) {
       await Setting.upsert({ key, value: input[field], updatedBy: ctx.actor.id }, { transaction });
@@ -145,7 +146,7 @@ function streamSnapshot(row: WasteStream) {
 }
 
 export async function createStream(input: StreamInput, ctx: Context): Promise<StreamView> {
-  await db().transaction(async (transaction) => {
+  await inTransaction(db(), async (transaction) => {
     if (await WasteStream.findByPk(input.id, { transaction })) throw new HttpError(409, `id: a stream "${input.id}" exists already`);
     await checkAccepted(input.alsoAccepts, input.id, transaction);
     const row = await WasteStream.create(
@@ -165,7 +166,7 @@ async function checkAccepted(ids: readonly string[] | null, self: string, transa
 }
 
 export async function updateStream(id: string, input: StreamUpdate, ctx: Context): Promise<StreamView> {
-  await db().transaction(async (transaction) => {
+  await inTransaction(db(), async (transaction) => {
     const row = await WasteStream.findByPk(id, { transaction, lock: transaction.LOCK.UPDATE });
     if (!row) throw new HttpError(404, `No waste stream "${id}".`);
     await checkAccepted(input.alsoAccepts, id, transaction);
@@ -385,7 +386,7 @@ async function requireStream(streamId: string, transaction: Transaction) {
 }
 
 export async function createContainer(input: ContainerInput, ctx: Context): Promise<ContainerView> {
-  const id = await db().transaction(async (transaction) => {
+  const id = await inTransaction(db(), async (transaction) => {
     await requireStream(input.streamId, transaction);
     if (await WasteContainer.findOne({ where: { code: input.code }, transaction })) throw new HttpError(409, `code: a container ${input.code} exists already`);
     const container = await WasteContainer.create(
@@ -400,7 +401,7 @@ export async function createContainer(input: ContainerInput, ctx: Context): Prom
 }
 
 export async function updateContainer(id: number, input: ContainerInput, ctx: Context): Promise<ContainerView> {
-  await db().transaction(async (transaction) => {
+  await inTransaction(db(), async (transaction) => {
     const container = await WasteContainer.findByPk(id, { transaction, lock: transaction.LOCK.UPDATE });
     if (!container) throw new HttpError(404, `No waste container with id ${id}.`);
     if (container.status === "collected") throw new HttpError(409, `${container.code} was collected; it stays in the history as it was.`);
@@ -421,7 +422,7 @@ export async function updateContainer(id: number, input: ContainerInput, ctx: Co
 export async function recordReading(id: number, input: ReadingInput, ctx: Context): Promise<{ container: ContainerView; estimatedBefore_mL: number; difference_mL: number }> {
   const readAt = input.readAt ? new Date(input.readAt) : new Date();
   if (readAt.getTime() > Date.now() + 5 * 60_000) throw new HttpError(400, "readAt: cannot be in the future");
-  const result = await db().transaction(async (transaction) => {
+  const result = await inTransaction(db(), async (transaction) => {
     const container = await WasteContainer.findByPk(id, { transaction, lock: transaction.LOCK.UPDATE });
     if (!container) throw new HttpError(404, `No waste container with id ${id}.`);
     if (container.status === "collected") throw new HttpError(409, `${container.code} was collected; a reading no longer applies.`);
@@ -442,7 +443,7 @@ export async function recordReading(id: number, input: ReadingInput, ctx: Contex
 
 /** Marks a container full (it then takes no more runs) or back in use. */
 export async function setContainerStatus(id: number, status: "in_use" | "full", ctx: Context): Promise<ContainerView> {
-  await db().transaction(async (transaction) => {
+  await inTransaction(db(), async (transaction) => {
     const container = await WasteContainer.findByPk(id, { transaction, lock: transaction.LOCK.UPDATE });
     if (!container) throw new HttpError(404, `No waste container with id ${id}.`);
     if (container.status === "awaiting_pickup" || container.status === "collected") {
@@ -632,7 +633,7 @@ async function nextPickupReference(now: Date, transaction: Transaction): Promise
 /** Requests a pickup for containers that are full or in use: they wait for collection and take no more waste. */
 export async function requestPickup(input: PickupRequest, ctx: Context): Promise<PickupView> {
   const now = new Date();
-  const pickupId = await db().transaction(async (transaction) => {
+  const pickupId = await inTransaction(db(), async (transaction) => {
     const containers = await WasteContainer.findAll({ where: { id: input.containerIds }, transaction, lock: transaction.LOCK.UPDATE });
     for (const id of input.containerIds) {
       const c = containers.find((x) => x.id === id);
@@ -657,7 +658,7 @@ export async function requestPickup(input: PickupRequest, ctx: Context): Promise
 export async function recordCollection(pickupId: number, input: CollectionInput, ctx: Context): Promise<PickupView> {
   const collectedAt = input.collectedAt ? new Date(input.collectedAt) : new Date();
   if (collectedAt.getTime() > Date.now() + 5 * 60_000) throw new HttpError(400, "collectedAt: cannot be in the future");
-  await db().transaction(async (transaction) => {
+  await inTransaction(db(), async (transaction) => {
     const pickup = await Pickup.findByPk(pickupId, { transaction, lock: transaction.LOCK.UPDATE });
     if (!pickup) throw new HttpError(404, `No pickup with id ${pickupId}.`);
     if (pickup.status !== "requested") throw new HttpError(409, `Pickup ${pickup.reference ?? pickup.id} is ${pickup.status} already.`);
