@@ -28,10 +28,6 @@ const MUST_NOT_SEE: Record<Role, string[]> = {
   admin: [],
 };
 
-/** Waits until every React island on the page has hydrated, so clicks reach React. */
-async function hydrated(page: Page) {
-  await page.waitForFunction(() => [...document.querySelectorAll("astro-island")].every((island) => !island.hasAttribute("ssr")));
-}
 
 async function navLabels(page: Page) {
   return page.getByRole("navigation", { name: "Main" }).getByRole("link").allInnerTexts();
@@ -62,7 +58,6 @@ test("an admin invites a person, who sets a password through the mailed link and
   await signIn(page, "admin@demo.test");
   await page.getByRole("navigation", { name: "Main" }).getByRole("link", { name: "People" }).click();
   await expect(page.getByRole("heading", { name: "People", level: 1 })).toBeVisible();
-  await hydrated(page);
   await page.getByRole("button", { name: "Invite a person" }).click();
   const form = page.getByRole("form", { name: "Invite a person" });
   await form.getByLabel("Name", { exact: true }).fill("Noor Testwell");
@@ -87,7 +82,6 @@ test("an admin invites a person, who sets a password through the mailed link and
   const invitee = await context.newPage();
   await invitee.goto(link.toString());
   await expect(invitee.getByRole("heading", { name: "Welcome to Decant, Noor" })).toBeVisible();
-  await hydrated(invitee);
   await invitee.getByLabel("New password", { exact: true }).fill("short");
   await invitee.getByLabel("Repeat the new password").fill("short");
   await invitee.getByRole("button", { name: "Set password" }).click();
@@ -98,7 +92,6 @@ test("an admin invites a person, who sets a password through the mailed link and
   await expect(invitee).toHaveURL(/\/sign-in\?password-set=1/);
   await expect(invitee.getByText("Your password is set.")).toBeVisible();
   await expect(invitee.getByLabel("E-mail address")).toHaveValue(email);
-  await hydrated(invitee);
   await invitee.getByLabel("Password").fill("mobile phase at dawn");
   await invitee.getByRole("button", { name: "Sign in" }).click();
   await expect(invitee).toHaveURL(/\/home$/);
@@ -134,7 +127,6 @@ test("a person changes their password on My account and stays signed in", async 
   await person.getByRole("navigation", { name: "Main" }).getByRole("link", { name: "My account" }).click();
   await expect(person.getByTestId("account-email")).toHaveText(email);
   await expect(person.getByTestId("account-role")).toHaveText("Safety officer");
-  await hydrated(person);
   await person.getByLabel("Current password").fill("not the password");
   await person.getByLabel("New password", { exact: true }).fill("second long password");
   await person.getByLabel("Repeat the new password").fill("second long password");
@@ -151,7 +143,6 @@ test("a person changes their password on My account and stays signed in", async 
 test("the forgotten-password form answers the same for any address", async ({ page }) => {
   await page.goto("/sign-in");
   await page.getByRole("link", { name: "Forgotten your password?" }).click();
-  await hydrated(page);
   await page.getByLabel("E-mail address").fill("nobody-here@lab.test");
   await page.getByRole("button", { name: "Send me a link" }).click();
   await expect(page.getByRole("status")).toContainText("If an account exists for that address");

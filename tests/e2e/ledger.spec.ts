@@ -11,7 +11,6 @@ import { signIn } from "./support";
  */
 async function recordScoutRun(page: Page) {
   await page.goto("/runs/new");
-  await page.locator("astro-island:not([ssr])").first().waitFor(); // hydrated: what is typed now stays
   await page.getByLabel("Instrument").selectOption({ label: "Wren" });
   await page.getByLabel("Method").selectOption({ label: "Scout gradient 5–95 % B, 12 min" });
   await page.getByLabel("Project").selectOption({ label: "PMG-ROOT-26 · Root exudate profiling" });

@@ -5,8 +5,7 @@ export const DEMO_PASSWORD = "decant-demo";
 /** Signs in through the form, as a person would, and waits for the overview. */
 export async function signIn(page: Page, email: string, password = DEMO_PASSWORD) {
   await page.goto("/sign-in");
-  // Typing before React hydrates the form would be lost, and a click would not reach React.
-  await page.waitForFunction(() => [...document.querySelectorAll("astro-island")].every((island) => !island.hasAttribute("ssr")));
+  // The form's fields stay disabled until React has hydrated it; Playwright waits for them.
   await page.getByLabel("E-mail address").fill(email);
   await page.getByLabel("Password").fill(password);
   await page.getByRole("button", { name: "Sign in" }).click();

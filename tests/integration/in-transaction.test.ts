@@ -1,5 +1,6 @@
 // Two requests that lock the same rows in opposite order deadlock; MariaDB rolls one back. The
 // services' transactions are tried again, so neither request fails with a 500.
+import { QueryTypes } from "sequelize";
 import { describe, expect, it } from "vitest";
 import { inTransaction, isDeadlock } from "../../src/lib/server/services/sql";
 import { useTestDatabase } from "../support/database";
@@ -46,7 +47,7 @@ describe("inTransaction", () => {
     expect(isDeadlock(errors[0])).toBe(true);
     expect(attempts.first + attempts.second).toBe(3);
     // Each transaction added 1 to both rows, and the rolled-back attempt added nothing.
-    const rows = await db.sequelize.query<{ id: number; n: number }>("SELECT id, n FROM lock_probe ORDER BY id", { type: "SELECT" as never });
+    const rows = await db.sequelize.query<{ id: number; n: number }>("SELECT id, n FROM lock_probe ORDER BY id", { type: QueryTypes.SELECT });
     expect(rows.map((r) => r.n)).toEqual([2, 2]);
   });
 
@@ -61,7 +62,7 @@ describe("inTransaction", () => {
       }),
     ).rejects.toThrow(/Duplicate entry|Validation error/);
     expect(attempts).toBe(1);
-    const [{ n }] = (await db.sequelize.query<{ n: number }>("SELECT COUNT(*) AS n FROM once_probe", { type: "SELECT" as never })) as [{ n: number }];
+    const [{ n }] = (await db.sequelize.query<{ n: number }>("SELECT COUNT(*) AS n FROM once_probe", { type: QueryTypes.SELECT })) as [{ n: number }];
     expect(Number(n)).toBe(0);
   });
 });

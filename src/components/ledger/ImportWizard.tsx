@@ -2,6 +2,7 @@ import { useRef, useState } from "react";
 import { formatDateTime, formatVolume } from "../../lib/format";
 import { readRunLog, RUN_LOG_MAX_BYTES, type RowIssue, type RunLogRow } from "../../lib/imports/run-log";
 import type { ImportReport } from "../../lib/server/services/imports";
+import { HydratedControls } from "../forms/island-form";
 
 type Report = Omit<ImportReport, "fileName" | "checksum">;
 
@@ -100,7 +101,9 @@ export default function ImportWizard() {
       <div className="card p-5">
         <div className="field max-w-md">
           <label htmlFor="run-log-file">Run log (CSV, at most {RUN_LOG_MAX_BYTES / 1024 / 1024} MB)</label>
-          <input id="run-log-file" type="file" accept=".csv,text/csv" className="input" onChange={choose} disabled={stage.step === "reading" || stage.step === "committing"} />
+          <HydratedControls>
+            <input id="run-log-file" type="file" accept=".csv,text/csv" className="input" onChange={choose} disabled={stage.step === "reading" || stage.step === "committing"} />
+          </HydratedControls>
         </div>
         {stage.step === "reading" && (
           <div className="mt-4">

@@ -4,7 +4,7 @@ import { ROLE_LABELS, ROLES, type Role } from "../../lib/permissions";
 import { inviteUserSchema, type InviteUserInput } from "../../lib/schemas/auth";
 import type { ClientOption, UserRow } from "../../lib/server/services/users";
 import { Field, SelectField, useZodForm } from "../forms/form";
-import { IslandForm } from "../forms/island-form";
+import { HydratedControls, IslandForm } from "../forms/island-form";
 import { postJson } from "../forms/post-json";
 
 interface Props {
@@ -180,101 +180,103 @@ export default function UsersAdmin({ users: initial, clients, actor }: Props) {
 
   return (
     <div className="flex flex-col gap-5">
-      <div>
-        <button className="btn" type="button" aria-expanded={inviting} onClick={() => setInviting(!inviting)}>
-          {inviting ? "Close the invitation form" : "Invite a person"}
-        </button>
-      </div>
-      {inviting && <InviteForm clients={clients} actorRole={actor.role} onInvited={(text, warning) => reload(text, warning)} />}
-      {notice && (
-        <p className={notice.warning ? "notice notice-danger" : "notice border-l-[var(--color-ok)] bg-[var(--color-ok-wash)]"} role="status">
-          {notice.text}
-        </p>
-      )}
-      <div className="card relative overflow-x-auto">
-        <table className="table" aria-label="People with a Decant account">
-          <thead>
-            <tr>
-              {COLUMNS.map((c) => (
-                <th key={c.key} aria-sort={sort.key === c.key ? (sort.ascending ? "ascending" : "descending") : "none"}>
-                  <button
-                    type="button"
-                    className="inline-flex items-center gap-1 uppercase tracking-[0.04em] hover:text-[var(--color-teal)]"
-                    onClick={() => setSort({ key: c.key, ascending: sort.key === c.key ? !sort.ascending : true })}
-                  >
-                    {c.label}
-                    <span aria-hidden="true" className="text-[0.7rem]">{sort.key === c.key ? (sort.ascending ? "▲" : "▼") : "↕"}</span>
-                  </button>
-                </th>
-              ))}
-              <th><span className="sr-only">Actions</span></th>
-            </tr>
-          </thead>
-          <tbody>
-            {sorted.map((u) => (
-              <tr key={u.id} data-user={u.email}>
-                <td>
-                  <span className="font-medium">{u.name}</span>
-                  {u.id === actor.id && <span className="tag tag-muted ml-2">you</span>}
-                  <br />
-                  <span className="text-sm text-[var(--color-muted)]">{u.email}</span>
-                </td>
-                <td className="whitespace-nowrap">{ROLE_LABELS[u.role]}</td>
-                <td>{u.clientName ?? <span className="text-[var(--color-muted)]">—</span>}</td>
-                <td>
-                  {stateOf(u) === "active" && <span className="tag">active</span>}
-                  {stateOf(u) === "invited" && <span className="tag tag-amber">invited</span>}
-                  {stateOf(u) === "deactivated" && <span className="tag tag-muted">deactivated</span>}
-                </td>
-                <td className="whitespace-nowrap">{u.lastSignInAt ? formatDateTime(u.lastSignInAt) : <span className="text-[var(--color-muted)]">never</span>}</td>
-                <td className="min-w-[21rem]">
-                  {mayChange(u) && editing === u.id ? (
-                    <RoleEditor
-                      user={u}
-                      clients={clients}
-                      actorRole={actor.role}
-                      onCancel={() => setEditing(null)}
-                      onDone={async (updated) => {
-                        setEditing(null);
-                        await reload(`${updated.name} is now ${ROLE_LABELS[updated.role]}${updated.clientName ? ` of ${updated.clientName}` : ""}.`);
-                      }}
-                    />
-                  ) : mayChange(u) && confirming === u.id ? (
-                    <div className="flex flex-wrap items-center gap-2" role="group" aria-label={`Confirm deactivating ${u.name}`}>
-                      <span className="text-sm">Deactivate {u.name}? They are signed out at once.</span>
-                      <button
-                        className="btn bg-[var(--color-danger)] border-[var(--color-danger)]"
-                        type="button"
-                        onClick={() => {
-                          setConfirming(null);
-                          void act(u, () => postJson(`/api/users/${u.id}`, { active: false }, "PATCH"), `${u.name} is deactivated and signed out.`);
-                        }}
-                      >
-                        Yes, deactivate
-                      </button>
-                      <button className="btn btn-quiet" type="button" onClick={() => setConfirming(null)}>Keep</button>
-                    </div>
-                  ) : mayChange(u) ? (
-                    <div className="flex flex-wrap gap-1.5">
-                      {u.active && <button className={SMALL} type="button" onClick={() => { setConfirming(null); setEditing(u.id); }} aria-label={`Change role of ${u.name}`}>Change role</button>}
-                      {u.active ? (
-                        <button className={SMALL} type="button" onClick={() => { setEditing(null); setConfirming(u.id); }} aria-label={`Deactivate ${u.name}`}>Deactivate</button>
-                      ) : (
-                        <button className={SMALL} type="button" onClick={() => void act(u, () => postJson(`/api/users/${u.id}`, { active: true }, "PATCH"), `${u.name} is active again.`)} aria-label={`Reactivate ${u.name}`}>Reactivate</button>
-                      )}
-                      {u.active && (
-                        <button className={SMALL} type="button" onClick={() => void act(u, () => postJson(`/api/users/${u.id}/link`, {}), u.invited ? `A new invitation is on its way to ${u.email}.` : `A reset link is on its way to ${u.email}.`)} aria-label={`Send ${u.name} a new link`}>
-                          {u.invited ? "Resend invitation" : "Send reset link"}
-                        </button>
-                      )}
-                    </div>
-                  ) : null}
-                </td>
+      <HydratedControls>
+        <div>
+          <button className="btn" type="button" aria-expanded={inviting} onClick={() => setInviting(!inviting)}>
+            {inviting ? "Close the invitation form" : "Invite a person"}
+          </button>
+        </div>
+        {inviting && <InviteForm clients={clients} actorRole={actor.role} onInvited={(text, warning) => reload(text, warning)} />}
+        {notice && (
+          <p className={notice.warning ? "notice notice-danger" : "notice border-l-[var(--color-ok)] bg-[var(--color-ok-wash)]"} role="status">
+            {notice.text}
+          </p>
+        )}
+        <div className="card relative overflow-x-auto">
+          <table className="table" aria-label="People with a Decant account">
+            <thead>
+              <tr>
+                {COLUMNS.map((c) => (
+                  <th key={c.key} aria-sort={sort.key === c.key ? (sort.ascending ? "ascending" : "descending") : "none"}>
+                    <button
+                      type="button"
+                      className="inline-flex items-center gap-1 uppercase tracking-[0.04em] hover:text-[var(--color-teal)]"
+                      onClick={() => setSort({ key: c.key, ascending: sort.key === c.key ? !sort.ascending : true })}
+                    >
+                      {c.label}
+                      <span aria-hidden="true" className="text-[0.7rem]">{sort.key === c.key ? (sort.ascending ? "▲" : "▼") : "↕"}</span>
+                    </button>
+                  </th>
+                ))}
+                <th><span className="sr-only">Actions</span></th>
               </tr>
-            ))}
-          </tbody>
-        </table>
-      </div>
+            </thead>
+            <tbody>
+              {sorted.map((u) => (
+                <tr key={u.id} data-user={u.email}>
+                  <td>
+                    <span className="font-medium">{u.name}</span>
+                    {u.id === actor.id && <span className="tag tag-muted ml-2">you</span>}
+                    <br />
+                    <span className="text-sm text-[var(--color-muted)]">{u.email}</span>
+                  </td>
+                  <td className="whitespace-nowrap">{ROLE_LABELS[u.role]}</td>
+                  <td>{u.clientName ?? <span className="text-[var(--color-muted)]">—</span>}</td>
+                  <td>
+                    {stateOf(u) === "active" && <span className="tag">active</span>}
+                    {stateOf(u) === "invited" && <span className="tag tag-amber">invited</span>}
+                    {stateOf(u) === "deactivated" && <span className="tag tag-muted">deactivated</span>}
+                  </td>
+                  <td className="whitespace-nowrap">{u.lastSignInAt ? formatDateTime(u.lastSignInAt) : <span className="text-[var(--color-muted)]">never</span>}</td>
+                  <td className="min-w-[21rem]">
+                    {mayChange(u) && editing === u.id ? (
+                      <RoleEditor
+                        user={u}
+                        clients={clients}
+                        actorRole={actor.role}
+                        onCancel={() => setEditing(null)}
+                        onDone={async (updated) => {
+                          setEditing(null);
+                          await reload(`${updated.name} is now ${ROLE_LABELS[updated.role]}${updated.clientName ? ` of ${updated.clientName}` : ""}.`);
+                        }}
+                      />
+                    ) : mayChange(u) && confirming === u.id ? (
+                      <div className="flex flex-wrap items-center gap-2" role="group" aria-label={`Confirm deactivating ${u.name}`}>
+                        <span className="text-sm">Deactivate {u.name}? They are signed out at once.</span>
+                        <button
+                          className="btn bg-[var(--color-danger)] border-[var(--color-danger)]"
+                          type="button"
+                          onClick={() => {
+                            setConfirming(null);
+                            void act(u, () => postJson(`/api/users/${u.id}`, { active: false }, "PATCH"), `${u.name} is deactivated and signed out.`);
+                          }}
+                        >
+                          Yes, deactivate
+                        </button>
+                        <button className="btn btn-quiet" type="button" onClick={() => setConfirming(null)}>Keep</button>
+                      </div>
+                    ) : mayChange(u) ? (
+                      <div className="flex flex-wrap gap-1.5">
+                        {u.active && <button className={SMALL} type="button" onClick={() => { setConfirming(null); setEditing(u.id); }} aria-label={`Change role of ${u.name}`}>Change role</button>}
+                        {u.active ? (
+                          <button className={SMALL} type="button" onClick={() => { setEditing(null); setConfirming(u.id); }} aria-label={`Deactivate ${u.name}`}>Deactivate</button>
+                        ) : (
+                          <button className={SMALL} type="button" onClick={() => void act(u, () => postJson(`/api/users/${u.id}`, { active: true }, "PATCH"), `${u.name} is active again.`)} aria-label={`Reactivate ${u.name}`}>Reactivate</button>
+                        )}
+                        {u.active && (
+                          <button className={SMALL} type="button" onClick={() => void act(u, () => postJson(`/api/users/${u.id}/link`, {}), u.invited ? `A new invitation is on its way to ${u.email}.` : `A reset link is on its way to ${u.email}.`)} aria-label={`Send ${u.name} a new link`}>
+                            {u.invited ? "Resend invitation" : "Send reset link"}
+                          </button>
+                        )}
+                      </div>
+                    ) : null}
+                  </td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        </div>
+      </HydratedControls>
     </div>
   );
 }

@@ -3,7 +3,7 @@
 // line through the bars is thresholded, its runs rounded to modules and decoded with the
 // reference decoder. Nothing here comes from the layout, so it checks what is actually drawn.
 import { execFileSync } from "node:child_process";
-import { mkdtempSync, readdirSync, readFileSync, writeFileSync } from "node:fs";
+import { mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import type { LabelStock } from "../../../src/lib/schemas/labels";
@@ -50,6 +50,14 @@ function decodeRow(row: Uint8Array): string | null {
 /** What a scanner reads on each label slot of each page, page by page; null for a slot with no barcode. */
 export function scanLabels(pdf: Uint8Array, stock: LabelStock, dpi = 300): (string | null)[] {
   const dir = mkdtempSync(join(tmpdir(), "decant-scan-"));
+  try {
+    return scanPages(dir, pdf, stock, dpi);
+  } finally {
+    rmSync(dir, { recursive: true, force: true });
+  }
+}
+
+function scanPages(dir: string, pdf: Uint8Array, stock: LabelStock, dpi: number): (string | null)[] {
   writeFileSync(join(dir, "labels.pdf"), pdf);
   execFileSync("pdftoppm", ["-r", String(dpi), "-gray", join(dir, "labels.pdf"), join(dir, "page")]);
   const px = dpi / 72;
