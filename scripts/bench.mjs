@@ -31,7 +31,11 @@ const { startDatabase, migrate, startFakes } = await import("./lib/stack.mjs");
 /** Runs one bench module; passes its output through and collects its `BENCH_*` lines. */
 function runModule(file, env, runner = "tsx") {
   return new Promise((resolve, reject) => {
-    const child = spawn(bin(runner), [join("tests/bench", file)], { cwd: ROOT, env: { ...process.env, ...env }, stdio: ["ignore", "pipe", "inherit"] });
+    const child = spawn(bin(runner), [join("tests/bench", file)], {
+      cwd: ROOT,
+      env: { ...process.env, ...env },
+      stdio: ["ignore", "pipe", "inherit"],
+    });
     const found = {};
     let buffer = "";
     child.stdout.on("data", (chunk) => {
@@ -66,7 +70,17 @@ async function part(name, fn) {
     await fn();
   } catch (error) {
     process.stderr.write(`decant: bench ${name}: ${error instanceof Error ? error.message : error}\n`);
-    rows.push({ group: name, figure: `${name}: did not complete`, unit: "", median: NaN, min: NaN, max: NaN, n: 0, met: false, note: String(error) });
+    rows.push({
+      group: name,
+      figure: `${name}: did not complete`,
+      unit: "",
+      median: NaN,
+      min: NaN,
+      max: NaN,
+      n: 0,
+      met: false,
+      note: String(error),
+    });
   }
   log(`bench: ${name} took ${((Date.now() - t0) / 1000).toFixed(0)} s`);
 }
@@ -102,7 +116,11 @@ try {
     const { server, env } = await startDatabase("bench");
     database = server;
     // A fresh bench database every run: the figures always describe the same data.
-    for (const name of server.sql("SELECT schema_name FROM information_schema.schemata WHERE schema_name LIKE 'decant%'").split("\n").filter(Boolean)) server.sql(`DROP DATABASE \`${name}\``);
+    for (const name of server
+      .sql("SELECT schema_name FROM information_schema.schemata WHERE schema_name LIKE 'decant%'")
+      .split("\n")
+      .filter(Boolean))
+      server.sql(`DROP DATABASE \`${name}\``);
     server.sql(`CREATE DATABASE \`${env.DATABASE_NAME}\` CHARACTER SET utf8mb4 COLLATE utf8mb4_unicode_ci`);
     rmSync(env.SMTP_FAKE_MAILBOX, { recursive: true, force: true });
     mkdirSync(env.SMTP_FAKE_MAILBOX, { recursive: true });
@@ -114,19 +132,52 @@ try {
     }
     await startFakes(group, env);
     const baseURL = `http://127.0.0.1:${APP_PORT}`;
-    const appEnv = { ...process.env, ...env, DECANT_OUT_DIR: OUT_DIR, HOST: "127.0.0.1", PORT: String(APP_PORT), APP_ORIGIN: baseURL, NODE_ENV: "production" };
+    const appEnv = {
+      ...process.env,
+      ...env,
+      DECANT_OUT_DIR: OUT_DIR,
+      HOST: "127.0.0.1",
+      PORT: String(APP_PORT),
+      APP_ORIGIN: baseURL,
+      NODE_ENV: "production",
+    };
     log("bench: building the app…");
-    if ((await run(bin("astro"), ["build"], { env: appEnv, stdio: ["ignore", "ignore", "inherit"] })) !== 0) throw new Error("astro build failed");
+    if ((await run(bin("astro"), ["build"], { env: appEnv, stdio: ["ignore", "ignore", "inherit"] })) !== 0)
+      throw new Error("astro build failed");
     app = group.spawn("bench app server", ...appServerCommand(OUT_DIR), { env: appEnv, stdio: ["ignore", "ignore", "inherit"] });
-    await waitFor(async () => (await fetch(`${baseURL}/api/health`).then((r) => r.ok, () => false)), 60_000, 200);
+    await waitFor(
+      async () =>
+        await fetch(`${baseURL}/api/health`).then(
+          (r) => r.ok,
+          () => false,
+        ),
+      60_000,
+      200,
+    );
     // One sign-in per role, reused by every measurement (sign-in is throttled; these never fail).
     const cookies = {};
-    for (const [role, email] of [["technician", "tech@demo.test"], ["manager", "manager@demo.test"], ["safety", "safety@demo.test"], ["client", "client@demo.test"], ["admin", "admin@demo.test"]]) {
-      const r = await fetch(`${baseURL}/api/auth/sign-in`, { method: "POST", headers: { "content-type": "application/json", origin: baseURL }, body: JSON.stringify({ email, password: "decant-demo" }) });
+    for (const [role, email] of [
+      ["technician", "tech@demo.test"],
+      ["manager", "manager@demo.test"],
+      ["safety", "safety@demo.test"],
+      ["client", "client@demo.test"],
+      ["admin", "admin@demo.test"],
+    ]) {
+      const r = await fetch(`${baseURL}/api/auth/sign-in`, {
+        method: "POST",
+        headers: { "content-type": "application/json", origin: baseURL },
+        body: JSON.stringify({ email, password: "decant-demo" }),
+      });
       if (r.status !== 200) throw new Error(`sign-in as ${email} answered ${r.status}`);
       cookies[role] = (r.headers.get("set-cookie") ?? "").split(";")[0];
     }
-    benchEnv = { ...env, BENCH_BASE_URL: baseURL, BENCH_COOKIES: JSON.stringify(cookies), BENCH_APP_PID: String(app.pid), BENCH_SEED: JSON.stringify(extra.seed ?? {}) };
+    benchEnv = {
+      ...env,
+      BENCH_BASE_URL: baseURL,
+      BENCH_COOKIES: JSON.stringify(cookies),
+      BENCH_APP_PID: String(app.pid),
+      BENCH_SEED: JSON.stringify(extra.seed ?? {}),
+    };
   }
 
   await part("usage", async () => rows.push(...(await runModule("usage.bench.ts", benchEnv)).ROWS));
@@ -137,7 +188,17 @@ try {
   await part("pages", async () => rows.push(...(await runModule("pages.bench.ts", benchEnv)).ROWS));
 } catch (error) {
   process.stderr.write(`decant: ${error instanceof Error ? error.message : error}\n`);
-  rows.push({ group: "setup", figure: "bench setup did not complete", unit: "", median: NaN, min: NaN, max: NaN, n: 0, met: false, note: String(error) });
+  rows.push({
+    group: "setup",
+    figure: "bench setup did not complete",
+    unit: "",
+    median: NaN,
+    min: NaN,
+    max: NaN,
+    n: 0,
+    met: false,
+    note: String(error),
+  });
 } finally {
   await stopStack();
 }
@@ -158,29 +219,63 @@ await part("startup", async () => {
     // Baseline: a bare node:http process, from spawn to its first answer.
     let t0 = performance.now();
     if (aborted) return;
-    const bare = track(spawn(process.execPath, ["-e", `require("node:http").createServer((q, s) => s.end("{}")).listen(${START_PORT}, "127.0.0.1")`], { stdio: "ignore" }));
-    await waitFor(() => fetch(url).then((r) => r.ok, () => false), 10_000, 10);
+    const bare = track(
+      spawn(process.execPath, ["-e", `require("node:http").createServer((q, s) => s.end("{}")).listen(${START_PORT}, "127.0.0.1")`], {
+        stdio: "ignore",
+      }),
+    );
+    await waitFor(
+      () =>
+        fetch(url).then(
+          (r) => r.ok,
+          () => false,
+        ),
+      10_000,
+      10,
+    );
     if (rep > 0) bareMs.push(performance.now() - t0);
     bare.kill("SIGTERM");
     await new Promise((r) => bare.once("exit", r));
     await waitFor(() => portIsFree(START_PORT), 10_000, 50);
 
     t0 = performance.now();
-    const child = track(spawn("npm", ["start", "--silent"], {
-      cwd: ROOT, detached: true, stdio: ["ignore", "ignore", "inherit"],
-      env: { ...process.env, DECANT_PROFILE: "bench", PORT: String(START_PORT), DECANT_OUT_DIR: startOut },
-    }));
+    const child = track(
+      spawn("npm", ["start", "--silent"], {
+        cwd: ROOT,
+        detached: true,
+        stdio: ["ignore", "ignore", "inherit"],
+        env: { ...process.env, DECANT_PROFILE: "bench", PORT: String(START_PORT), DECANT_OUT_DIR: startOut },
+      }),
+    );
     const exited = new Promise((r) => child.once("exit", r));
     try {
-      await waitFor(() => fetch(`${url}/api/health`).then(async (r) => r.ok && (await r.json()).db === "up", () => false), 180_000, 25);
+      await waitFor(
+        () =>
+          fetch(`${url}/api/health`).then(
+            async (r) => r.ok && (await r.json()).db === "up",
+            () => false,
+          ),
+        180_000,
+        25,
+      );
       const health = performance.now() - t0;
-      await waitFor(() => fetch(`${url}/sign-in`).then((r) => r.status === 200, () => false), 30_000, 25);
+      await waitFor(
+        () =>
+          fetch(`${url}/sign-in`).then(
+            (r) => r.status === 200,
+            () => false,
+          ),
+        30_000,
+        25,
+      );
       const page = performance.now() - t0;
       if (rep > 0) {
         healthMs.push(health);
         pageMs.push(page);
       }
-      log(`bench: npm start ${rep === 0 ? "(warm-up, with build)" : rep}: health up ${(health / 1000).toFixed(1)} s, first page ${(page / 1000).toFixed(1)} s`);
+      log(
+        `bench: npm start ${rep === 0 ? "(warm-up, with build)" : rep}: health up ${(health / 1000).toFixed(1)} s, first page ${(page / 1000).toFixed(1)} s`,
+      );
     } finally {
       try {
         process.kill(-child.pid, "SIGINT");
@@ -199,14 +294,37 @@ await part("startup", async () => {
   const bare = s(bareMs.map((x) => x / 1000));
   const health = s(healthMs.map((x) => x / 1000));
   const page = s(pageMs.map((x) => x / 1000));
-  rows.push({ group: "startup", figure: "npm start → /api/health up (already built)", unit: "s", ...health, baseline: "bare node:http start", ratio: health.median / bare.median, met: null });
-  rows.push({ group: "startup", figure: "npm start → first page (/sign-in, already built)", unit: "s", ...page, baseline: "bare node:http start", ratio: page.median / bare.median, met: null });
+  rows.push({
+    group: "startup",
+    figure: "npm start → /api/health up (already built)",
+    unit: "s",
+    ...health,
+    baseline: "bare node:http start",
+    ratio: health.median / bare.median,
+    met: null,
+  });
+  rows.push({
+    group: "startup",
+    figure: "npm start → first page (/sign-in, already built)",
+    unit: "s",
+    ...page,
+    baseline: "bare node:http start",
+    ratio: page.median / bare.median,
+    met: null,
+  });
   rows.push({ group: "startup", figure: "  bare node:http start (baseline)", unit: "s", ...bare, met: null });
 });
 
 // ---------------------------------------------------------------------------------------------
 const wallSeconds = (Date.now() - began) / 1000;
-const num = (x) => (x === undefined || x === null || Number.isNaN(x) ? "—" : Math.abs(x) >= 1000 ? Math.round(x).toLocaleString("en-GB") : Math.abs(x) >= 10 ? x.toFixed(1) : x.toFixed(2));
+const num = (x) =>
+  x === undefined || x === null || Number.isNaN(x)
+    ? "—"
+    : Math.abs(x) >= 1000
+      ? Math.round(x).toLocaleString("en-GB")
+      : Math.abs(x) >= 10
+        ? x.toFixed(1)
+        : x.toFixed(2);
 const targetText = (r) => {
   const parts = [];
   if (r.target) parts.push(`${r.targetOn ? `${r.targetOn} ` : ""}${r.target.op} ${num(r.target.value)} ${r.unit}`);
@@ -216,8 +334,16 @@ const targetText = (r) => {
 const table = [["figure", "unit", "median", "min", "max", "n", "target", "ratio vs baseline", "met?"]];
 for (const r of rows) {
   table.push([
-    r.figure, r.unit, num(r.median), num(r.min), num(r.max), String(r.n ?? ""), targetText(r),
-    r.ratio === undefined || r.ratio === null ? "—" : `${r.ratio >= 100 ? Math.round(r.ratio) : r.ratio.toFixed(r.ratio < 0.1 ? 3 : 2)} × ${r.baseline}`,
+    r.figure,
+    r.unit,
+    num(r.median),
+    num(r.min),
+    num(r.max),
+    String(r.n ?? ""),
+    targetText(r),
+    r.ratio === undefined || r.ratio === null
+      ? "—"
+      : `${r.ratio >= 100 ? Math.round(r.ratio) : r.ratio.toFixed(r.ratio < 0.1 ? 3 : 2)} × ${r.baseline}`,
     r.met === true ? "yes" : r.met === false ? "NO" : "—",
   ]);
 }
@@ -231,6 +357,9 @@ console.log(out.join("\n"));
 const judged = rows.filter((r) => r.met !== null && r.met !== undefined);
 const missed = judged.filter((r) => r.met === false);
 console.log(`\n${judged.length - missed.length} of ${judged.length} targets met; wall time ${(wallSeconds / 60).toFixed(1)} min.`);
-writeFileSync(join(ROOT, "tests/bench/results.json"), `${JSON.stringify({ at: new Date().toISOString(), wallSeconds, cores: cpus().length, node: process.version, parts: asked.length ? asked : PARTS, seed: extra.seed ?? null, rows }, null, 2)}\n`);
+writeFileSync(
+  join(ROOT, "tests/bench/results.json"),
+  `${JSON.stringify({ at: new Date().toISOString(), wallSeconds, cores: cpus().length, node: process.version, parts: asked.length ? asked : PARTS, seed: extra.seed ?? null, rows }, null, 2)}\n`,
+);
 log("bench: wrote tests/bench/results.json");
 process.exit(missed.length && rows.some((r) => r.figure.endsWith("did not complete")) ? 1 : 0);

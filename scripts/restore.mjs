@@ -8,10 +8,13 @@ import { fail, log } from "./lib/util.mjs";
 try {
   const target = parseTarget(process.argv.slice(2));
   const [file, ...extra] = target.positional;
-  if (!file || extra.length) throw new BackupError("usage: npm run restore -- FILE [--profile dev|test] (FILE is a .tar.gz written by npm run backup)");
+  if (!file || extra.length)
+    throw new BackupError("usage: npm run restore -- FILE [--profile dev|test] (FILE is a .tar.gz written by npm run backup)");
   log(`Restoring ${file} into the database ${target.database}…`);
   const result = await restore(target, file, { log });
-  log(`Restored ${result.tables} tables, ${result.triggers} triggers and ${result.files} uploaded file${result.files === 1 ? "" : "s"} from the backup of ${result.manifest.createdAt}.`);
+  log(
+    `Restored ${result.tables} tables, ${result.triggers} triggers and ${result.files} uploaded file${result.files === 1 ? "" : "s"} from the backup of ${result.manifest.createdAt}.`,
+  );
 } catch (error) {
   fail(error instanceof BackupError ? error.message : (error?.stack ?? String(error)));
 }

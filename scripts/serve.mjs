@@ -33,5 +33,9 @@ server.on("error", (error) => {
   process.stderr.write(`decant: the app server cannot listen on ${host}:${port}: ${error.message}\n`);
   process.exit(1);
 });
-server.listen(port, host, () => process.stdout.write(`decant: app server listening on http://${host}:${port}${hops ? ` (trusting ${hops} proxy hop${hops === 1 ? "" : "s"})` : ""}\n`));
+server.listen(port, host, () =>
+  process.stdout.write(
+    `decant: app server listening on http://${host}:${port}${hops ? ` (trusting ${hops} proxy hop${hops === 1 ? "" : "s"})` : ""}\n`,
+  ),
+);
 for (const signal of ["SIGINT", "SIGTERM"]) process.once(signal, () => server.close(() => process.exit(0)).closeAllConnections());

@@ -26,7 +26,10 @@ rmSync(env.SMTP_FAKE_MAILBOX, { recursive: true, force: true });
 mkdirSync(env.SMTP_FAKE_MAILBOX, { recursive: true });
 
 // A fresh start every run: drop every database an earlier run left behind.
-for (const name of server.sql("SELECT schema_name FROM information_schema.schemata WHERE schema_name LIKE 'decant%'").split("\n").filter(Boolean)) {
+for (const name of server
+  .sql("SELECT schema_name FROM information_schema.schemata WHERE schema_name LIKE 'decant%'")
+  .split("\n")
+  .filter(Boolean)) {
   server.sql(`DROP DATABASE \`${name}\``);
 }
 server.sql(`CREATE DATABASE \`${env.DATABASE_NAME}\` CHARACTER SET utf8mb4 COLLATE utf8mb4_unicode_ci`);
@@ -50,7 +53,18 @@ for (const signal of ["SIGINT", "SIGTERM"]) {
 
 const baseURL = `http://127.0.0.1:${APP_PORT}`;
 const outDir = process.env.DECANT_OUT_DIR ?? "dist";
-const testEnv = { ...process.env, ...env, DECANT_OUT_DIR: outDir, APP_ORIGIN: baseURL, DECANT_NO_SCHEDULE: "1", E2E_BASE_URL: baseURL, CHROMIUM_PATH: chromium, HOST: "127.0.0.1", PORT: String(APP_PORT), NODE_ENV: "production" };
+const testEnv = {
+  ...process.env,
+  ...env,
+  DECANT_OUT_DIR: outDir,
+  APP_ORIGIN: baseURL,
+  DECANT_NO_SCHEDULE: "1",
+  E2E_BASE_URL: baseURL,
+  CHROMIUM_PATH: chromium,
+  HOST: "127.0.0.1",
+  PORT: String(APP_PORT),
+  NODE_ENV: "production",
+};
 
 function readJson(path) {
   try {
@@ -65,6 +79,13 @@ try {
   await startFakes(group, env);
 
   if (only.length === 0) {
+    log("Checking formatting (prettier --check)…");
+    const formatted = await run(bin("prettier"), ["--check", "--log-level", "warn", "."], { env: testEnv });
+    summaries.push(`Formatting: ${formatted === 0 ? "clean" : "files differ (run npx prettier --write .)"}`);
+    if (formatted !== 0) {
+      exitCode = 1;
+      totals.failed += 1;
+    }
     log("Type-checking (astro check)…");
     const code = await run(bin("astro"), ["check", "--minimumSeverity", "warning"], { env: testEnv });
     summaries.push(`Type check: ${code === 0 ? "clean" : "errors (run npx astro check)"}`);
@@ -75,8 +96,10 @@ try {
   }
 
   log("Building the app for the tests…");
-  if ((await run(bin("astro"), ["build"], { env: testEnv, stdio: ["ignore", "ignore", "inherit"] })) !== 0) throw new Error("astro build failed");
-  if (!(await portIsFree(APP_PORT))) throw new Error(`Port ${APP_PORT} for the test app is taken; set DECANT_TEST_APP_PORT to a free port.`);
+  if ((await run(bin("astro"), ["build"], { env: testEnv, stdio: ["ignore", "ignore", "inherit"] })) !== 0)
+    throw new Error("astro build failed");
+  if (!(await portIsFree(APP_PORT)))
+    throw new Error(`Port ${APP_PORT} for the test app is taken; set DECANT_TEST_APP_PORT to a free port.`);
   group.spawn("test app server", ...appServerCommand(outDir), { env: testEnv, stdio: ["ignore", "ignore", "inherit"] });
   await waitFor(() => portAnswers(APP_PORT), 30_000, 200);
 
@@ -97,7 +120,11 @@ try {
     ];
     for (const [index, pass] of passes.entries()) {
       const vitestReport = join(reports, `vitest-${index}.json`);
-      const code = await run(bin("vitest"), ["run", ...pass.args, "--reporter=default", "--reporter=json", `--outputFile.json=${vitestReport}`], { env: testEnv });
+      const code = await run(
+        bin("vitest"),
+        ["run", ...pass.args, "--reporter=default", "--reporter=json", `--outputFile.json=${vitestReport}`],
+        { env: testEnv },
+      );
       const report = readJson(vitestReport);
       if (report) {
         const skipped = (report.numPendingTests ?? 0) + (report.numTodoTests ?? 0);
@@ -117,7 +144,9 @@ try {
 
   if (wants("e2e")) {
     const playwrightReport = join(reports, "playwright.json");
-    const code = await run(bin("playwright"), ["test", "--reporter=list,json"], { env: { ...testEnv, PLAYWRIGHT_JSON_OUTPUT_NAME: playwrightReport } });
+    const code = await run(bin("playwright"), ["test", "--reporter=list,json"], {
+      env: { ...testEnv, PLAYWRIGHT_JSON_OUTPUT_NAME: playwrightReport },
+    });
     const report = readJson(playwrightReport);
     if (report?.stats) {
       const { expected = 0, unexpected = 0, flaky = 0, skipped = 0 } = report.stats;

@@ -19,7 +19,11 @@ const STATE_CHANGING = new Set(["POST", "PUT", "PATCH", "DELETE"]);
 const securityHeaders = defineMiddleware(async (context, next) => {
   let response = await next();
   // An /api/ path that matches no route (or whose parameter Astro cannot match) answers JSON, not the 404 page.
-  if (response.status === 404 && context.url.pathname.startsWith("/api/") && (response.headers.get("content-type") ?? "").startsWith("text/html")) {
+  if (
+    response.status === 404 &&
+    context.url.pathname.startsWith("/api/") &&
+    (response.headers.get("content-type") ?? "").startsWith("text/html")
+  ) {
     response = json({ error: "path: no such API route" }, 404);
   }
   const type = (response.headers.get("content-type") ?? "").toLowerCase();
@@ -40,13 +44,18 @@ const securityHeaders = defineMiddleware(async (context, next) => {
   const own = response.headers.get("content-security-policy");
   if (own) headers["content-security-policy"] = /frame-ancestors/.test(own) ? own : `${own}; frame-ancestors 'none'`;
   const apply = (target: Headers) => {
-    for (const [name, value] of Object.entries(headers)) if (name === "content-security-policy" || !target.has(name)) target.set(name, value);
+    for (const [name, value] of Object.entries(headers))
+      if (name === "content-security-policy" || !target.has(name)) target.set(name, value);
   };
   try {
     apply(response.headers);
   } catch {
     // Immutable headers (a Response.redirect): copy the answer once.
-    response = new Response(response.body, { status: response.status, statusText: response.statusText, headers: new Headers(response.headers) });
+    response = new Response(response.body, {
+      status: response.status,
+      statusText: response.statusText,
+      headers: new Headers(response.headers),
+    });
     apply(response.headers);
   }
   return response;

@@ -62,7 +62,12 @@ export function reader(params: Params, allowed: readonly string[], prefix = "") 
       return undefined;
     }
     if (typeof value !== "string") throw new ParamError(`Invalid string: ${prefix}${name}`, `${prefix}${name}`);
-    if (required && value === "") throw new ParamError(`You passed an empty string for '${prefix}${name}'. We assume empty values are an attempt to unset a parameter; however '${prefix}${name}' cannot be unset.`, `${prefix}${name}`, "parameter_invalid_empty");
+    if (required && value === "")
+      throw new ParamError(
+        `You passed an empty string for '${prefix}${name}'. We assume empty values are an attempt to unset a parameter; however '${prefix}${name}' cannot be unset.`,
+        `${prefix}${name}`,
+        "parameter_invalid_empty",
+      );
     return value;
   };
   return {
@@ -72,7 +77,12 @@ export function reader(params: Params, allowed: readonly string[], prefix = "") 
       if (raw === undefined || raw === "") return undefined;
       if (!/^-?\d+$/.test(raw)) throw new ParamError(`Invalid integer: ${raw}`, `${prefix}${name}`, "parameter_invalid_integer");
       const n = Number(raw);
-      if (options.min !== undefined && n < options.min) throw new ParamError(`This value must be greater than or equal to ${options.min}.`, `${prefix}${name}`, "parameter_invalid_integer");
+      if (options.min !== undefined && n < options.min)
+        throw new ParamError(
+          `This value must be greater than or equal to ${options.min}.`,
+          `${prefix}${name}`,
+          "parameter_invalid_integer",
+        );
       return n;
     },
     bool(name: string): boolean | undefined {
@@ -84,13 +94,15 @@ export function reader(params: Params, allowed: readonly string[], prefix = "") 
     decimal(name: string): string | undefined {
       const raw = str(name);
       if (raw === undefined || raw === "") return undefined;
-      if (!/^-?\d+(\.\d{1,12})?$/.test(raw)) throw new ParamError(`Invalid decimal: ${raw}`, `${prefix}${name}`, "parameter_invalid_decimal");
+      if (!/^-?\d+(\.\d{1,12})?$/.test(raw))
+        throw new ParamError(`Invalid decimal: ${raw}`, `${prefix}${name}`, "parameter_invalid_decimal");
       return raw;
     },
     oneOf<T extends string>(name: string, values: readonly T[], fallback?: T): T | undefined {
       const raw = str(name);
       if (raw === undefined || raw === "") return fallback;
-      if (!values.includes(raw as T)) throw new ParamError(`Invalid ${prefix}${name}: must be one of ${values.join(", ")}`, `${prefix}${name}`);
+      if (!values.includes(raw as T))
+        throw new ParamError(`Invalid ${prefix}${name}: must be one of ${values.join(", ")}`, `${prefix}${name}`);
       return raw as T;
     },
     /** `metadata[key]=value` pairs; an empty string unsets a key. */

@@ -1,7 +1,11 @@
 // The hosted invoice page the fake serves at /i/<invoice id>: what a client sees when following
 // the payment link. Plain HTML with two forms: settle the invoice, or simulate a declined payment.
 
-interface Line { description: string | null; amount: number; quantity: number }
+interface Line {
+  description: string | null;
+  amount: number;
+  quantity: number;
+}
 interface InvoiceView {
   id: string;
   number: string | null;
@@ -20,19 +24,32 @@ const escape = (s: string) => s.replace(/[&<>"']/g, (c) => ({ "&": "&amp;", "<":
 function money(minor: number, currency: string) {
   const code = currency.toUpperCase();
   const digits = new Intl.NumberFormat("en", { style: "currency", currency: code }).resolvedOptions().maximumFractionDigits ?? 2;
-  return new Intl.NumberFormat("en-GB", { style: "currency", currency: code, minimumFractionDigits: digits, maximumFractionDigits: digits }).format(minor / 10 ** digits);
+  return new Intl.NumberFormat("en-GB", {
+    style: "currency",
+    currency: code,
+    minimumFractionDigits: digits,
+    maximumFractionDigits: digits,
+  }).format(minor / 10 ** digits);
 }
 
-export function hostedInvoicePage(invoice: InvoiceView, customer: { name: string | null; email: string | null }, note: string | null): string {
+export function hostedInvoicePage(
+  invoice: InvoiceView,
+  customer: { name: string | null; email: string | null },
+  note: string | null,
+): string {
   const payable = invoice.status === "open" || invoice.status === "uncollectible";
   const rows = invoice.lines.data
     .map((line) => `<tr><td>${escape(line.description ?? "")}</td><td class="n">${escape(money(line.amount, invoice.currency))}</td></tr>`)
     .join("");
   const due = invoice.due_date ? new Date(invoice.due_date * 1000).toISOString().slice(0, 10) : "on receipt";
   const message =
-    note === "paid" ? `<p class="msg ok" role="status">Payment received. Thank you.</p>`
-    : note === "failed" ? `<p class="msg bad" role="alert">The payment was declined. Nothing was charged.</p>`
-    : note ? `<p class="msg bad" role="alert">${escape(note)}</p>` : "";
+    note === "paid"
+      ? `<p class="msg ok" role="status">Payment received. Thank you.</p>`
+      : note === "failed"
+        ? `<p class="msg bad" role="alert">The payment was declined. Nothing was charged.</p>`
+        : note
+          ? `<p class="msg bad" role="alert">${escape(note)}</p>`
+          : "";
   return `<!doctype html>
 <html lang="en"><head><meta charset="utf-8"><meta name="viewport" content="width=device-width, initial-scale=1">
 <title>Invoice ${escape(invoice.number ?? invoice.id)}</title>
@@ -56,7 +73,11 @@ export function hostedInvoicePage(invoice: InvoiceView, customer: { name: string
   ${message}
   <table><tbody>${rows}<tr class="total"><td>Amount due</td><td class="n" data-testid="amount-due">${escape(money(invoice.amount_remaining, invoice.currency))}</td></tr></tbody></table>
   ${invoice.last_payment_error && invoice.status === "open" ? `<p class="msg bad">Last attempt: ${escape(invoice.last_payment_error)}</p>` : ""}
-  ${payable ? `<form method="post" action="/i/${invoice.id}/pay"><button class="pay" type="submit">Pay ${escape(money(invoice.amount_remaining, invoice.currency))}</button></form>
-  <form method="post" action="/i/${invoice.id}/fail"><button class="fail" type="submit">Simulate a declined payment</button></form>` : ""}
+  ${
+    payable
+      ? `<form method="post" action="/i/${invoice.id}/pay"><button class="pay" type="submit">Pay ${escape(money(invoice.amount_remaining, invoice.currency))}</button></form>
+  <form method="post" action="/i/${invoice.id}/fail"><button class="fail" type="submit">Simulate a declined payment</button></form>`
+      : ""
+  }
 </main></body></html>`;
 }

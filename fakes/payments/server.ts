@@ -26,17 +26,61 @@ const base = `http://127.0.0.1:${port}`;
 // ── State ───────────────────────────────────────────────────────────────────────────────
 
 type Obj = Record<string, unknown> & { id: string; object: string };
-interface Customer extends Obj { email: string | null; name: string | null; description: string | null; metadata: Record<string, string>; invoice_prefix: string; created: number }
-interface InvoiceItem extends Obj { customer: string; invoice: string | null; amount: number; currency: string; description: string | null; quantity: number; unit_amount_decimal: string; metadata: Record<string, string>; date: number }
+interface Customer extends Obj {
+  email: string | null;
+  name: string | null;
+  description: string | null;
+  metadata: Record<string, string>;
+  invoice_prefix: string;
+  created: number;
+}
+interface InvoiceItem extends Obj {
+  customer: string;
+  invoice: string | null;
+  amount: number;
+  currency: string;
+  description: string | null;
+  quantity: number;
+  unit_amount_decimal: string;
+  metadata: Record<string, string>;
+  date: number;
+}
 interface Invoice extends Obj {
-  customer: string; status: "draft" | "open" | "paid" | "void" | "uncollectible"; currency: string; collection_method: string;
-  days_until_due: number | null; due_date: number | null; auto_advance: boolean; metadata: Record<string, string>; description: string | null;
-  number: string | null; created: number; attempt_count: number; attempted: boolean; amount_paid: number;
-  status_transitions: { finalized_at: number | null; paid_at: number | null; voided_at: number | null; marked_uncollectible_at: number | null };
+  customer: string;
+  status: "draft" | "open" | "paid" | "void" | "uncollectible";
+  currency: string;
+  collection_method: string;
+  days_until_due: number | null;
+  due_date: number | null;
+  auto_advance: boolean;
+  metadata: Record<string, string>;
+  description: string | null;
+  number: string | null;
+  created: number;
+  attempt_count: number;
+  attempted: boolean;
+  amount_paid: number;
+  status_transitions: {
+    finalized_at: number | null;
+    paid_at: number | null;
+    voided_at: number | null;
+    marked_uncollectible_at: number | null;
+  };
   last_payment_error: string | null;
 }
-interface WebhookEvent extends Obj { type: string; created: number; data: { object: Obj }; delivery: { attempts: number; last_status: number | null; last_error: string | null; delivered: boolean } }
-interface Saved { method: string; path: string; digest: string; status: number; body: string }
+interface WebhookEvent extends Obj {
+  type: string;
+  created: number;
+  data: { object: Obj };
+  delivery: { attempts: number; last_status: number | null; last_error: string | null; delivered: boolean };
+}
+interface Saved {
+  method: string;
+  path: string;
+  digest: string;
+  status: number;
+  body: string;
+}
 
 interface State {
   customers: Record<string, Customer>;
@@ -85,19 +129,37 @@ class ApiError extends Error {
     super(message);
   }
 }
-const missing = (kind: string, id: string, param = "id") => new ApiError(404, "invalid_request_error", `No such ${kind}: '${id}'`, "resource_missing", param);
+const missing = (kind: string, id: string, param = "id") =>
+  new ApiError(404, "invalid_request_error", `No such ${kind}: '${id}'`, "resource_missing", param);
 const badState = (message: string, code = "invoice_unexpected_state") => new ApiError(400, "invalid_request_error", message, code);
 
-interface Answer { status: number; body: unknown; headers?: Record<string, string> }
+interface Answer {
+  status: number;
+  body: unknown;
+  headers?: Record<string, string>;
+}
 const ok = (body: unknown): Answer => ({ status: 200, body });
 
 function send(res: ServerResponse, answer: Answer, requestId: string) {
   const text = typeof answer.body === "string" ? answer.body : JSON.stringify(answer.body, null, 2);
-  res.writeHead(answer.status, { "content-type": "application/json", "request-id": requestId, "stripe-version": API_VERSION, ...answer.headers });
+  res.writeHead(answer.status, {
+    "content-type": "application/json",
+    "request-id": requestId,
+    "stripe-version": API_VERSION,
+    ...answer.headers,
+  });
   res.end(text);
 }
 function errorBody(error: ApiError, requestId: string) {
-  return { error: { type: error.type, message: error.message, ...(error.code ? { code: error.code } : {}), ...(error.param ? { param: error.param } : {}), request_log_url: `${base}/_fake/requests/${requestId}` } };
+  return {
+    error: {
+      type: error.type,
+      message: error.message,
+      ...(error.code ? { code: error.code } : {}),
+      ...(error.param ? { param: error.param } : {}),
+      request_log_url: `${base}/_fake/requests/${requestId}`,
+    },
+  };
 }
 
 function list<T>(url: string, all: T[], params: Params): { object: "list"; data: T[]; has_more: boolean; url: string } {
@@ -189,7 +251,9 @@ function emit(type: string, invoice: Invoice) {
 
 /** `t=<unix>,v1=<hex HMAC-SHA256 of "t.payload">`, the scheme `webhooks.constructEvent` verifies. */
 function signature(payload: string, timestamp = now()) {
-  const v1 = createHmac("sha256", webhookSecret ?? "").update(`${timestamp}.${payload}`, "utf8").digest("hex");
+  const v1 = createHmac("sha256", webhookSecret ?? "")
+    .update(`${timestamp}.${payload}`, "utf8")
+    .digest("hex");
   return `t=${timestamp},v1=${v1}`;
 }
 
@@ -206,7 +270,11 @@ async function deliver(eventId: string): Promise<boolean> {
   try {
     const response = await fetch(webhookUrl, {
       method: "POST",
-      headers: { "content-type": "application/json; charset=utf-8", "stripe-signature": signature(payload), "user-agent": "decant-payments-fake/1" },
+      headers: {
+        "content-type": "application/json; charset=utf-8",
+        "stripe-signature": signature(payload),
+        "user-agent": "decant-payments-fake/1",
+      },
       body: payload,
       signal: AbortSignal.timeout(10_000),
     });
@@ -257,7 +325,8 @@ function finalize(invoice: Invoice) {
   invoice.number = `${customer.invoice_prefix}-${String(sequence).padStart(4, "0")}`;
   invoice.status = "open";
   invoice.status_transitions.finalized_at = now();
-  if (invoice.collection_method === "send_invoice" && invoice.days_until_due != null) invoice.due_date = now() + invoice.days_until_due * 86_400;
+  if (invoice.collection_method === "send_invoice" && invoice.days_until_due != null)
+    invoice.due_date = now() + invoice.days_until_due * 86_400;
   emit("invoice.finalized", invoice);
   // Nothing to collect: the service settles a zero invoice on finalizing.
   if (invoiceView(invoice).total === 0) markPaid(invoice);
@@ -265,7 +334,8 @@ function finalize(invoice: Invoice) {
 
 function markPaid(invoice: Invoice) {
   if (invoice.status === "paid") throw badState("Invoice is already paid.", "invoice_already_paid");
-  if (invoice.status !== "open" && invoice.status !== "uncollectible") throw badState(`You can only pay an invoice that is open or uncollectible; this one is ${invoice.status}.`);
+  if (invoice.status !== "open" && invoice.status !== "uncollectible")
+    throw badState(`You can only pay an invoice that is open or uncollectible; this one is ${invoice.status}.`);
   invoice.status = "paid";
   invoice.attempted = true;
   invoice.attempt_count += 1;
@@ -284,7 +354,8 @@ function failPayment(invoice: Invoice, reason = "Your card was declined.") {
 }
 
 function voidInvoice(invoice: Invoice) {
-  if (invoice.status !== "open" && invoice.status !== "uncollectible") throw badState(`You can only void an open or uncollectible invoice; this one is ${invoice.status}.`);
+  if (invoice.status !== "open" && invoice.status !== "uncollectible")
+    throw badState(`You can only void an open or uncollectible invoice; this one is ${invoice.status}.`);
   invoice.status = "void";
   invoice.status_transitions.voided_at = now();
   emit("invoice.voided", invoice);
@@ -332,18 +403,39 @@ function updateCustomer(id: string, params: Params): Answer {
 }
 
 function createInvoiceItem(params: Params): Answer {
-  const r = reader(params, ["customer", "amount", "currency", "description", "invoice", "metadata", "quantity", "unit_amount_decimal", "price_data", "period", "discountable"]);
+  const r = reader(params, [
+    "customer",
+    "amount",
+    "currency",
+    "description",
+    "invoice",
+    "metadata",
+    "quantity",
+    "unit_amount_decimal",
+    "price_data",
+    "period",
+    "discountable",
+  ]);
   const customerId = r.str("customer", true)!;
   if (!state.customers[customerId]) throw missing("customer", customerId, "customer");
   const currency = r.str("currency", true)!.toLowerCase();
-  if (!CURRENCY.test(currency)) throw new ApiError(400, "invalid_request_error", `Invalid currency: ${currency}.`, "parameter_invalid", "currency");
+  if (!CURRENCY.test(currency))
+    throw new ApiError(400, "invalid_request_error", `Invalid currency: ${currency}.`, "parameter_invalid", "currency");
   const invoiceId = r.str("invoice");
   if (invoiceId) {
     const invoice = state.invoices[invoiceId];
     if (!invoice) throw missing("invoice", invoiceId, "invoice");
     if (invoice.status !== "draft") throw badState("You can only add invoice items to draft invoices.", "invoice_not_editable");
-    if (invoice.customer !== customerId) throw new ApiError(400, "invalid_request_error", "The invoice belongs to another customer.", "parameter_invalid", "invoice");
-    if (invoice.currency !== currency) throw new ApiError(400, "invalid_request_error", `The invoice is in ${invoice.currency}; this item is in ${currency}.`, "parameter_invalid", "currency");
+    if (invoice.customer !== customerId)
+      throw new ApiError(400, "invalid_request_error", "The invoice belongs to another customer.", "parameter_invalid", "invoice");
+    if (invoice.currency !== currency)
+      throw new ApiError(
+        400,
+        "invalid_request_error",
+        `The invoice is in ${invoice.currency}; this item is in ${currency}.`,
+        "parameter_invalid",
+        "currency",
+      );
   }
   const amount = r.int("amount");
   const quantity = r.int("quantity", { min: 0 });
@@ -352,13 +444,35 @@ function createInvoiceItem(params: Params): Answer {
   let unitAmount: number | undefined;
   if (priceData) {
     const p = reader(priceData, ["currency", "product", "unit_amount", "unit_amount_decimal", "tax_behavior"], "price_data.");
-    unitAmount = p.int("unit_amount") ?? (p.decimal("unit_amount_decimal") !== undefined ? Number(p.decimal("unit_amount_decimal")) : undefined);
-    if (unitAmount === undefined) throw new ApiError(400, "invalid_request_error", "Missing required param: price_data[unit_amount].", "parameter_missing", "price_data[unit_amount]");
+    unitAmount =
+      p.int("unit_amount") ?? (p.decimal("unit_amount_decimal") !== undefined ? Number(p.decimal("unit_amount_decimal")) : undefined);
+    if (unitAmount === undefined)
+      throw new ApiError(
+        400,
+        "invalid_request_error",
+        "Missing required param: price_data[unit_amount].",
+        "parameter_missing",
+        "price_data[unit_amount]",
+      );
   } else if (unitDecimal !== undefined) unitAmount = Number(unitDecimal);
-  if (amount !== undefined && unitAmount !== undefined) throw new ApiError(400, "invalid_request_error", "You may only specify one of these parameters: amount, unit_amount_decimal, price_data.", "parameter_invalid", "amount");
+  if (amount !== undefined && unitAmount !== undefined)
+    throw new ApiError(
+      400,
+      "invalid_request_error",
+      "You may only specify one of these parameters: amount, unit_amount_decimal, price_data.",
+      "parameter_invalid",
+      "amount",
+    );
   let total: number;
   if (amount !== undefined) {
-    if (quantity !== undefined && quantity !== 1) throw new ApiError(400, "invalid_request_error", "When amount is given, quantity must be 1 or left out.", "parameter_invalid", "quantity");
+    if (quantity !== undefined && quantity !== 1)
+      throw new ApiError(
+        400,
+        "invalid_request_error",
+        "When amount is given, quantity must be 1 or left out.",
+        "parameter_invalid",
+        "quantity",
+      );
     total = amount;
   } else if (unitAmount !== undefined) {
     total = Math.round(unitAmount * (quantity ?? 1));
@@ -373,7 +487,7 @@ function createInvoiceItem(params: Params): Answer {
     amount: total,
     currency,
     description: r.str("description") ?? null,
-    quantity: amount !== undefined ? 1 : quantity ?? 1,
+    quantity: amount !== undefined ? 1 : (quantity ?? 1),
     unit_amount_decimal: String(amount !== undefined ? amount : unitAmount),
     metadata: r.metadata() ?? {},
     date: now(),
@@ -384,7 +498,18 @@ function createInvoiceItem(params: Params): Answer {
 }
 
 function createInvoice(params: Params): Answer {
-  const r = reader(params, ["customer", "collection_method", "days_until_due", "due_date", "auto_advance", "metadata", "description", "currency", "pending_invoice_items_behavior", "footer"]);
+  const r = reader(params, [
+    "customer",
+    "collection_method",
+    "days_until_due",
+    "due_date",
+    "auto_advance",
+    "metadata",
+    "description",
+    "currency",
+    "pending_invoice_items_behavior",
+    "footer",
+  ]);
   const customerId = r.str("customer", true)!;
   if (!state.customers[customerId]) throw missing("customer", customerId, "customer");
   const method = r.oneOf("collection_method", ["charge_automatically", "send_invoice"] as const, "charge_automatically")!;
@@ -393,10 +518,17 @@ function createInvoice(params: Params): Answer {
     throw new ApiError(400, "invalid_request_error", "Missing required param: days_until_due.", "parameter_missing", "days_until_due");
   }
   if (method === "charge_automatically" && daysUntilDue !== undefined) {
-    throw new ApiError(400, "invalid_request_error", "You can only set days_until_due when collection_method is send_invoice.", "parameter_invalid", "days_until_due");
+    throw new ApiError(
+      400,
+      "invalid_request_error",
+      "You can only set days_until_due when collection_method is send_invoice.",
+      "parameter_invalid",
+      "days_until_due",
+    );
   }
   const currency = (r.str("currency") ?? "eur").toLowerCase();
-  if (!CURRENCY.test(currency)) throw new ApiError(400, "invalid_request_error", `Invalid currency: ${currency}.`, "parameter_invalid", "currency");
+  if (!CURRENCY.test(currency))
+    throw new ApiError(400, "invalid_request_error", `Invalid currency: ${currency}.`, "parameter_invalid", "currency");
   const behaviour = r.oneOf("pending_invoice_items_behavior", ["exclude", "include"] as const, "exclude");
   const invoice: Invoice = {
     id: newId("in"),
@@ -421,7 +553,8 @@ function createInvoice(params: Params): Answer {
   };
   state.invoices[invoice.id] = invoice;
   if (behaviour === "include") {
-    for (const item of Object.values(state.invoiceItems)) if (item.customer === customerId && item.invoice === null && item.currency === currency) item.invoice = invoice.id;
+    for (const item of Object.values(state.invoiceItems))
+      if (item.customer === customerId && item.invoice === null && item.currency === currency) item.invoice = invoice.id;
   }
   return ok(invoiceView(invoice));
 }
@@ -430,7 +563,8 @@ function updateInvoice(id: string, params: Params): Answer {
   const invoice = findInvoice(id);
   const r = reader(params, ["metadata", "description", "days_until_due", "auto_advance", "footer"]);
   const changesContent = ["description", "days_until_due", "footer"].some((key) => params[key] !== undefined);
-  if (changesContent && invoice.status !== "draft") throw badState("Finalized invoices can't be updated in this way.", "invoice_not_editable");
+  if (changesContent && invoice.status !== "draft")
+    throw badState("Finalized invoices can't be updated in this way.", "invoice_not_editable");
   invoice.metadata = mergeMetadata(invoice.metadata, r.metadata());
   const description = r.str("description");
   if (description !== undefined) invoice.description = description || null;
@@ -444,88 +578,165 @@ function updateInvoice(id: string, params: Params): Answer {
 type Handler = (match: RegExpMatchArray, params: Params, path: string) => Answer;
 const routes: { method: string; pattern: RegExp; handler: Handler; mutates?: boolean }[] = [
   { method: "POST", pattern: /^\/v1\/customers$/, handler: (_m, p) => createCustomer(p), mutates: true },
-  { method: "GET", pattern: /^\/v1\/customers$/, handler: (_m, p, path) => {
-    const email = typeof p.email === "string" ? p.email : undefined;
-    const all = Object.values(state.customers).filter((c) => !email || c.email === email).sort((a, b) => b.created - a.created);
-    return ok(list(path, all.map(customerView), { ...p, email: "" }));
-  } },
-  { method: "GET", pattern: /^\/v1\/customers\/([\w]+)$/, handler: (m) => {
-    const customer = state.customers[m[1]!];
-    if (!customer) throw missing("customer", m[1]!);
-    return ok(customerView(customer));
-  } },
+  {
+    method: "GET",
+    pattern: /^\/v1\/customers$/,
+    handler: (_m, p, path) => {
+      const email = typeof p.email === "string" ? p.email : undefined;
+      const all = Object.values(state.customers)
+        .filter((c) => !email || c.email === email)
+        .sort((a, b) => b.created - a.created);
+      return ok(list(path, all.map(customerView), { ...p, email: "" }));
+    },
+  },
+  {
+    method: "GET",
+    pattern: /^\/v1\/customers\/([\w]+)$/,
+    handler: (m) => {
+      const customer = state.customers[m[1]!];
+      if (!customer) throw missing("customer", m[1]!);
+      return ok(customerView(customer));
+    },
+  },
   { method: "POST", pattern: /^\/v1\/customers\/([\w]+)$/, handler: (m, p) => updateCustomer(m[1]!, p), mutates: true },
   { method: "POST", pattern: /^\/v1\/invoiceitems$/, handler: (_m, p) => createInvoiceItem(p), mutates: true },
-  { method: "GET", pattern: /^\/v1\/invoiceitems$/, handler: (_m, p, path) => {
-    const invoice = typeof p.invoice === "string" ? p.invoice : undefined;
-    const customer = typeof p.customer === "string" ? p.customer : undefined;
-    const all = Object.values(state.invoiceItems).filter((i) => (!invoice || i.invoice === invoice) && (!customer || i.customer === customer));
-    return ok(list(path, all.map(itemView), { ...p, invoice: "", customer: "" }));
-  } },
-  { method: "GET", pattern: /^\/v1\/invoiceitems\/([\w]+)$/, handler: (m) => {
-    const item = state.invoiceItems[m[1]!];
-    if (!item) throw missing("invoiceitem", m[1]!);
-    return ok(itemView(item));
-  } },
+  {
+    method: "GET",
+    pattern: /^\/v1\/invoiceitems$/,
+    handler: (_m, p, path) => {
+      const invoice = typeof p.invoice === "string" ? p.invoice : undefined;
+      const customer = typeof p.customer === "string" ? p.customer : undefined;
+      const all = Object.values(state.invoiceItems).filter(
+        (i) => (!invoice || i.invoice === invoice) && (!customer || i.customer === customer),
+      );
+      return ok(list(path, all.map(itemView), { ...p, invoice: "", customer: "" }));
+    },
+  },
+  {
+    method: "GET",
+    pattern: /^\/v1\/invoiceitems\/([\w]+)$/,
+    handler: (m) => {
+      const item = state.invoiceItems[m[1]!];
+      if (!item) throw missing("invoiceitem", m[1]!);
+      return ok(itemView(item));
+    },
+  },
   { method: "POST", pattern: /^\/v1\/invoices$/, handler: (_m, p) => createInvoice(p), mutates: true },
-  { method: "GET", pattern: /^\/v1\/invoices$/, handler: (_m, p, path) => {
-    const customer = typeof p.customer === "string" ? p.customer : undefined;
-    const status = typeof p.status === "string" ? p.status : undefined;
-    const all = Object.values(state.invoices).filter((i) => (!customer || i.customer === customer) && (!status || i.status === status)).sort((a, b) => b.created - a.created || b.id.localeCompare(a.id));
-    return ok(list(path, all.map(invoiceView), { ...p, customer: "", status: "" }));
-  } },
+  {
+    method: "GET",
+    pattern: /^\/v1\/invoices$/,
+    handler: (_m, p, path) => {
+      const customer = typeof p.customer === "string" ? p.customer : undefined;
+      const status = typeof p.status === "string" ? p.status : undefined;
+      const all = Object.values(state.invoices)
+        .filter((i) => (!customer || i.customer === customer) && (!status || i.status === status))
+        .sort((a, b) => b.created - a.created || b.id.localeCompare(a.id));
+      return ok(list(path, all.map(invoiceView), { ...p, customer: "", status: "" }));
+    },
+  },
   { method: "GET", pattern: /^\/v1\/invoices\/(in_[\w]+)$/, handler: (m) => ok(invoiceView(findInvoice(m[1]!))) },
   { method: "POST", pattern: /^\/v1\/invoices\/(in_[\w]+)$/, handler: (m, p) => updateInvoice(m[1]!, p), mutates: true },
-  { method: "DELETE", pattern: /^\/v1\/invoices\/(in_[\w]+)$/, handler: (m) => {
-    const invoice = findInvoice(m[1]!);
-    if (invoice.status !== "draft") throw badState("You can only delete draft invoices.");
-    delete state.invoices[invoice.id];
-    for (const item of itemsOf(invoice.id)) delete state.invoiceItems[item.id];
-    return ok({ id: invoice.id, object: "invoice", deleted: true });
-  }, mutates: true },
-  { method: "GET", pattern: /^\/v1\/invoices\/(in_[\w]+)\/lines$/, handler: (m, p, path) => ok(list(path, (invoiceView(findInvoice(m[1]!)).lines as { data: unknown[] }).data, p)) },
-  { method: "POST", pattern: /^\/v1\/invoices\/(in_[\w]+)\/finalize$/, handler: (m, p) => {
-    reader(p, ["auto_advance"]);
-    const invoice = findInvoice(m[1]!);
-    finalize(invoice);
-    return ok(invoiceView(invoice));
-  }, mutates: true },
-  { method: "POST", pattern: /^\/v1\/invoices\/(in_[\w]+)\/send$/, handler: (m, p) => {
-    reader(p, []);
-    const invoice = findInvoice(m[1]!);
-    if (invoice.collection_method !== "send_invoice") throw badState("You can only send invoices whose collection_method is send_invoice.");
-    if (invoice.status !== "open") throw badState(`You can only send an open invoice; this one is ${invoice.status}.`);
-    emit("invoice.sent", invoice);
-    return ok(invoiceView(invoice));
-  }, mutates: true },
-  { method: "POST", pattern: /^\/v1\/invoices\/(in_[\w]+)\/void$/, handler: (m, p) => {
-    reader(p, []);
-    const invoice = findInvoice(m[1]!);
-    voidInvoice(invoice);
-    return ok(invoiceView(invoice));
-  }, mutates: true },
-  { method: "POST", pattern: /^\/v1\/invoices\/(in_[\w]+)\/mark_uncollectible$/, handler: (m, p) => {
-    reader(p, []);
-    const invoice = findInvoice(m[1]!);
-    markUncollectible(invoice);
-    return ok(invoiceView(invoice));
-  }, mutates: true },
-  { method: "POST", pattern: /^\/v1\/invoices\/(in_[\w]+)\/pay$/, handler: (m, p) => {
-    reader(p, ["paid_out_of_band", "payment_method", "source", "forgive", "off_session"]);
-    const invoice = findInvoice(m[1]!);
-    markPaid(invoice);
-    return ok(invoiceView(invoice));
-  }, mutates: true },
-  { method: "GET", pattern: /^\/v1\/events$/, handler: (_m, p, path) => {
-    const type = typeof p.type === "string" ? p.type : undefined;
-    const all = Object.values(state.events).filter((e) => !type || e.type === type).sort((a, b) => b.created - a.created);
-    return ok(list(path, all.map((e) => JSON.parse(payloadOf(e))), { ...p, type: "" }));
-  } },
-  { method: "GET", pattern: /^\/v1\/events\/(evt_[\w]+)$/, handler: (m) => {
-    const event = state.events[m[1]!];
-    if (!event) throw missing("event", m[1]!);
-    return ok(JSON.parse(payloadOf(event)));
-  } },
+  {
+    method: "DELETE",
+    pattern: /^\/v1\/invoices\/(in_[\w]+)$/,
+    handler: (m) => {
+      const invoice = findInvoice(m[1]!);
+      if (invoice.status !== "draft") throw badState("You can only delete draft invoices.");
+      delete state.invoices[invoice.id];
+      for (const item of itemsOf(invoice.id)) delete state.invoiceItems[item.id];
+      return ok({ id: invoice.id, object: "invoice", deleted: true });
+    },
+    mutates: true,
+  },
+  {
+    method: "GET",
+    pattern: /^\/v1\/invoices\/(in_[\w]+)\/lines$/,
+    handler: (m, p, path) => ok(list(path, (invoiceView(findInvoice(m[1]!)).lines as { data: unknown[] }).data, p)),
+  },
+  {
+    method: "POST",
+    pattern: /^\/v1\/invoices\/(in_[\w]+)\/finalize$/,
+    handler: (m, p) => {
+      reader(p, ["auto_advance"]);
+      const invoice = findInvoice(m[1]!);
+      finalize(invoice);
+      return ok(invoiceView(invoice));
+    },
+    mutates: true,
+  },
+  {
+    method: "POST",
+    pattern: /^\/v1\/invoices\/(in_[\w]+)\/send$/,
+    handler: (m, p) => {
+      reader(p, []);
+      const invoice = findInvoice(m[1]!);
+      if (invoice.collection_method !== "send_invoice")
+        throw badState("You can only send invoices whose collection_method is send_invoice.");
+      if (invoice.status !== "open") throw badState(`You can only send an open invoice; this one is ${invoice.status}.`);
+      emit("invoice.sent", invoice);
+      return ok(invoiceView(invoice));
+    },
+    mutates: true,
+  },
+  {
+    method: "POST",
+    pattern: /^\/v1\/invoices\/(in_[\w]+)\/void$/,
+    handler: (m, p) => {
+      reader(p, []);
+      const invoice = findInvoice(m[1]!);
+      voidInvoice(invoice);
+      return ok(invoiceView(invoice));
+    },
+    mutates: true,
+  },
+  {
+    method: "POST",
+    pattern: /^\/v1\/invoices\/(in_[\w]+)\/mark_uncollectible$/,
+    handler: (m, p) => {
+      reader(p, []);
+      const invoice = findInvoice(m[1]!);
+      markUncollectible(invoice);
+      return ok(invoiceView(invoice));
+    },
+    mutates: true,
+  },
+  {
+    method: "POST",
+    pattern: /^\/v1\/invoices\/(in_[\w]+)\/pay$/,
+    handler: (m, p) => {
+      reader(p, ["paid_out_of_band", "payment_method", "source", "forgive", "off_session"]);
+      const invoice = findInvoice(m[1]!);
+      markPaid(invoice);
+      return ok(invoiceView(invoice));
+    },
+    mutates: true,
+  },
+  {
+    method: "GET",
+    pattern: /^\/v1\/events$/,
+    handler: (_m, p, path) => {
+      const type = typeof p.type === "string" ? p.type : undefined;
+      const all = Object.values(state.events)
+        .filter((e) => !type || e.type === type)
+        .sort((a, b) => b.created - a.created);
+      return ok(
+        list(
+          path,
+          all.map((e) => JSON.parse(payloadOf(e))),
+          { ...p, type: "" },
+        ),
+      );
+    },
+  },
+  {
+    method: "GET",
+    pattern: /^\/v1\/events\/(evt_[\w]+)$/,
+    handler: (m) => {
+      const event = state.events[m[1]!];
+      if (!event) throw missing("event", m[1]!);
+      return ok(JSON.parse(payloadOf(event)));
+    },
+  },
 ];
 
 function authorise(req: IncomingMessage) {
@@ -533,8 +744,19 @@ function authorise(req: IncomingMessage) {
   const match = /^Bearer (.+)$/.exec(header);
   let key = match?.[1];
   if (!key && header.startsWith("Basic ")) key = Buffer.from(header.slice(6), "base64").toString("utf8").replace(/:$/, "");
-  if (!key) throw new ApiError(401, "invalid_request_error", "You did not provide an API key. Provide it in the Authorization header, using Bearer auth.");
-  if (key !== secretKey) throw new ApiError(401, "invalid_request_error", `Invalid API Key provided: ${key.slice(0, 8)}${"*".repeat(Math.max(0, key.length - 12))}${key.slice(-4)}`, "api_key_invalid");
+  if (!key)
+    throw new ApiError(
+      401,
+      "invalid_request_error",
+      "You did not provide an API key. Provide it in the Authorization header, using Bearer auth.",
+    );
+  if (key !== secretKey)
+    throw new ApiError(
+      401,
+      "invalid_request_error",
+      `Invalid API Key provided: ${key.slice(0, 8)}${"*".repeat(Math.max(0, key.length - 12))}${key.slice(-4)}`,
+      "api_key_invalid",
+    );
   return key;
 }
 
@@ -549,11 +771,22 @@ function handleApi(req: IncomingMessage, path: string, query: string, body: stri
   const slot = idempotencyKey !== null && method === "POST" ? `${key}:${idempotencyKey}` : null;
   const digest = createHash("sha256").update(`${method} ${path}\n${body}`).digest("hex");
   if (slot) {
-    if (idempotencyKey!.length > 255) throw new ApiError(400, "invalid_request_error", "Idempotency keys can be at most 255 characters.", "parameter_invalid", "Idempotency-Key");
+    if (idempotencyKey!.length > 255)
+      throw new ApiError(
+        400,
+        "invalid_request_error",
+        "Idempotency keys can be at most 255 characters.",
+        "parameter_invalid",
+        "Idempotency-Key",
+      );
     const saved = state.idempotency[slot];
     if (saved) {
       if (saved.digest !== digest) {
-        throw new ApiError(400, "idempotency_error", `Keys for idempotent requests can only be used with the same parameters they were first used with. Try using a key other than '${idempotencyKey}' if you meant to execute a different request.`);
+        throw new ApiError(
+          400,
+          "idempotency_error",
+          `Keys for idempotent requests can only be used with the same parameters they were first used with. Try using a key other than '${idempotencyKey}' if you meant to execute a different request.`,
+        );
       }
       return { status: saved.status, body: saved.body, headers: { "idempotent-replayed": "true", "idempotency-key": idempotencyKey! } };
     }
@@ -563,7 +796,8 @@ function handleApi(req: IncomingMessage, path: string, query: string, body: stri
     answer = route.handler(path.match(route.pattern)!, params, path);
   } catch (error) {
     if (!(error instanceof ApiError) && !(error instanceof ParamError)) throw error;
-    const apiError = error instanceof ParamError ? new ApiError(400, "invalid_request_error", error.message, error.code, error.param) : error;
+    const apiError =
+      error instanceof ParamError ? new ApiError(400, "invalid_request_error", error.message, error.code, error.param) : error;
     answer = { status: apiError.status, body: errorBody(apiError, "req") };
   }
   if (slot && answer.status < 500) {
@@ -579,7 +813,13 @@ function handleApi(req: IncomingMessage, path: string, query: string, body: stri
 
 function handleControl(method: string, path: string, query: URLSearchParams): Answer {
   let m: RegExpMatchArray | null;
-  if (method === "GET" && path === "/_fake/health") return ok({ ok: true, invoices: Object.keys(state.invoices).length, events: Object.keys(state.events).length, webhookUrl: webhookUrl ?? null });
+  if (method === "GET" && path === "/_fake/health")
+    return ok({
+      ok: true,
+      invoices: Object.keys(state.invoices).length,
+      events: Object.keys(state.events).length,
+      webhookUrl: webhookUrl ?? null,
+    });
   if (method === "GET" && path === "/_fake/events") {
     const type = query.get("type");
     const invoice = query.get("invoice");
@@ -667,7 +907,14 @@ const server = createServer(async (req, res) => {
       res.writeHead(303, { location: `/i/${invoice.id}?note=${encodeURIComponent(note)}` });
       return res.end();
     }
-    send(res, { status: 404, body: errorBody(new ApiError(404, "invalid_request_error", `Unrecognized request URL (${method}: ${url.pathname}).`), requestId) }, requestId);
+    send(
+      res,
+      {
+        status: 404,
+        body: errorBody(new ApiError(404, "invalid_request_error", `Unrecognized request URL (${method}: ${url.pathname}).`), requestId),
+      },
+      requestId,
+    );
   } catch (error) {
     if (error instanceof ApiError) return send(res, { status: error.status, body: errorBody(error, requestId) }, requestId);
     console.error("payments fake:", error);
@@ -680,7 +927,9 @@ for (const event of Object.values(state.events).sort((a, b) => a.created - b.cre
   if (!event.delivery.delivered && event.delivery.attempts > 0 && webhookUrl) deliveryQueue.push(event.id);
 }
 server.listen(port, "127.0.0.1", () => {
-  console.log(`payments fake listening on ${base}, state in ${stateFile}${webhookUrl ? `, webhooks to ${webhookUrl}` : ", webhooks off (PAYMENTS_WEBHOOK_URL unset)"}`);
+  console.log(
+    `payments fake listening on ${base}, state in ${stateFile}${webhookUrl ? `, webhooks to ${webhookUrl}` : ", webhooks off (PAYMENTS_WEBHOOK_URL unset)"}`,
+  );
   void pump();
 });
 for (const signal of ["SIGINT", "SIGTERM"] as const) {

@@ -95,7 +95,9 @@ function walk(part: Part, found: { text: string; html: string }) {
   if (type.startsWith("multipart/")) {
     const boundary = param(part.headers["content-type"], "boundary");
     if (!boundary) return;
-    const pieces = part.body.split(new RegExp(`(?:^|\\r?\\n)--${boundary.replace(/[.*+?^${}()|[\]\\]/g, "\\$&")}(?:--)?[ \\t]*(?:\\r?\\n|$)`));
+    const pieces = part.body.split(
+      new RegExp(`(?:^|\\r?\\n)--${boundary.replace(/[.*+?^${}()|[\]\\]/g, "\\$&")}(?:--)?[ \\t]*(?:\\r?\\n|$)`),
+    );
     // The first piece is the preamble and the last the epilogue.
     for (const piece of pieces.slice(1, -1)) walk(splitPart(piece), found);
     return;

@@ -9,7 +9,20 @@
 //   uploads/        the files under UPLOAD_DIR, as they were after the dump was taken
 import { spawn, spawnSync } from "node:child_process";
 import { createHash } from "node:crypto";
-import { cpSync, createReadStream, createWriteStream, existsSync, mkdirSync, mkdtempSync, readdirSync, readFileSync, renameSync, rmSync, statSync, writeFileSync } from "node:fs";
+import {
+  cpSync,
+  createReadStream,
+  createWriteStream,
+  existsSync,
+  mkdirSync,
+  mkdtempSync,
+  readdirSync,
+  readFileSync,
+  renameSync,
+  rmSync,
+  statSync,
+  writeFileSync,
+} from "node:fs";
 import { tmpdir } from "node:os";
 import { join, relative, resolve, sep } from "node:path";
 import { Transform } from "node:stream";
@@ -79,11 +92,11 @@ function tools() {
   const bins = ensureMariadbInstalled();
   const dump = findExecutable("mariadb-dump", SEARCH_DIRS) ?? findExecutable("mysqldump", SEARCH_DIRS);
   const tar = findExecutable("tar", SEARCH_DIRS);
-  if (!dump) throw new BackupError("mariadb-dump is missing; it comes with Debian's mariadb-client package (apt-get install mariadb-client).");
+  if (!dump)
+    throw new BackupError("mariadb-dump is missing; it comes with Debian's mariadb-client package (apt-get install mariadb-client).");
   if (!tar) throw new BackupError("tar is missing; install Debian's tar package.");
   return { ...bins, dump, tar };
 }
-
 
 /**
  * Runs `work` against the profile's private server. A server that is already running (`npm start`,
@@ -97,7 +110,8 @@ export async function withServer(target, work, { mustExist = true } = {}) {
   if (mustExist && !existsSync(join(paths.data, "mysql"))) {
     throw new BackupError(`There is no database server in ${dataDir} (has \`npm start\` run in this checkout?).`);
   }
-  const answers = () => spawnSync(bins.client, ["--no-defaults", `--socket=${paths.socket}`, "-uroot", "-e", "SELECT 1"], { stdio: "ignore" }).status === 0;
+  const answers = () =>
+    spawnSync(bins.client, ["--no-defaults", `--socket=${paths.socket}`, "-uroot", "-e", "SELECT 1"], { stdio: "ignore" }).status === 0;
   if (livePid(paths.pidFile) && answers()) {
     return work({ bins, paths, sql: (sql) => rootSql(bins, paths, sql), startedHere: false });
   }
@@ -113,7 +127,10 @@ export async function withServer(target, work, { mustExist = true } = {}) {
 function sha256File(path) {
   return new Promise((resolveHash, reject) => {
     const hash = createHash("sha256");
-    createReadStream(path).on("data", (chunk) => hash.update(chunk)).on("error", reject).on("end", () => resolveHash(hash.digest("hex")));
+    createReadStream(path)
+      .on("data", (chunk) => hash.update(chunk))
+      .on("error", reject)
+      .on("end", () => resolveHash(hash.digest("hex")));
   });
 }
 
@@ -153,13 +170,22 @@ function runTool(command, args, { stdout, stdin } = {}) {
     if (stdout) streams.push(pipeline(child.stdout, stdout));
     if (stdin) streams.push(pipeline(stdin, child.stdin));
     Promise.all([done, ...streams]).then(
-      ([code]) => (code === 0 ? resolveRun() : reject(new BackupError(`${command.split("/").pop()} failed (exit ${code}): ${stderr.trim().split("\n").slice(-3).join(" | ")}`))),
+      ([code]) =>
+        code === 0
+          ? resolveRun()
+          : reject(
+              new BackupError(`${command.split("/").pop()} failed (exit ${code}): ${stderr.trim().split("\n").slice(-3).join(" | ")}`),
+            ),
       (error) => done.then(() => reject(new BackupError(`${command.split("/").pop()} failed: ${stderr.trim() || error.message}`))),
     );
   });
 }
 
-const stamp = (date) => date.toISOString().replace(/[-:]/g, "").replace(/\.\d+Z$/, "Z");
+const stamp = (date) =>
+  date
+    .toISOString()
+    .replace(/[-:]/g, "")
+    .replace(/\.\d+Z$/, "Z");
 
 /**
  * Writes one archive of the database and the uploads and returns its path. The dump is one
@@ -179,8 +205,18 @@ export async function backup(target, { label = "" } = {}) {
       await runTool(
         dumpBin,
         [
-          "--no-defaults", `--socket=${paths.socket}`, "-uroot", "--single-transaction", "--quick", "--routines", "--triggers", "--hex-blob",
-          "--default-character-set=utf8mb4", "--skip-lock-tables", "--add-drop-table", target.database,
+          "--no-defaults",
+          `--socket=${paths.socket}`,
+          "-uroot",
+          "--single-transaction",
+          "--quick",
+          "--routines",
+          "--triggers",
+          "--hex-blob",
+          "--default-character-set=utf8mb4",
+          "--skip-lock-tables",
+          "--add-drop-table",
+          target.database,
         ],
         { stdout: createWriteStream(dumpFile) },
       );
@@ -243,9 +279,11 @@ export async function unpack(file) {
     const manifest = JSON.parse(readFileSync(manifestPath, "utf8"));
     if (manifest.format !== FORMAT) throw new BackupError(`${file} has format "${manifest.format}"; this version reads ${FORMAT}.`);
     const dumpFile = join(staging, manifest.dump.file);
-    if (!existsSync(dumpFile) || (await sha256File(dumpFile)) !== manifest.dump.sha256) throw new BackupError(`${file}: the database dump does not match its manifest (damaged archive).`);
+    if (!existsSync(dumpFile) || (await sha256File(dumpFile)) !== manifest.dump.sha256)
+      throw new BackupError(`${file}: the database dump does not match its manifest (damaged archive).`);
     const files = await fileHashes(join(staging, "uploads"));
-    if (JSON.stringify(files) !== JSON.stringify(manifest.uploads)) throw new BackupError(`${file}: the uploaded files do not match the manifest (damaged archive).`);
+    if (JSON.stringify(files) !== JSON.stringify(manifest.uploads))
+      throw new BackupError(`${file}: the uploaded files do not match the manifest (damaged archive).`);
     return { staging, manifest, dumpFile };
   } catch (error) {
     rmSync(staging, { recursive: true, force: true });
@@ -268,7 +306,10 @@ export async function restore(target, file, { log = () => {} } = {}) {
       async ({ paths, sql }) => {
         const db = target.database;
         const busy = Number(sql(`SELECT COUNT(*) FROM information_schema.processlist WHERE db = '${db}' AND id <> CONNECTION_ID()`).trim());
-        if (busy > 0) throw new BackupError(`${busy} connection${busy === 1 ? " is" : "s are"} using the database ${db}; stop \`npm start\` (or whatever uses it) first, then restore.`);
+        if (busy > 0)
+          throw new BackupError(
+            `${busy} connection${busy === 1 ? " is" : "s are"} using the database ${db}; stop \`npm start\` (or whatever uses it) first, then restore.`,
+          );
         const exists = sql(`SELECT COUNT(*) FROM information_schema.schemata WHERE schema_name = '${db}'`).trim() === "1";
         let safety = null;
         if (exists && Number(sql(`SELECT COUNT(*) FROM information_schema.tables WHERE table_schema = '${db}'`).trim()) > 0) {
@@ -277,17 +318,27 @@ export async function restore(target, file, { log = () => {} } = {}) {
         }
         sql(`DROP DATABASE IF EXISTS \`${db}\`; CREATE DATABASE \`${db}\` CHARACTER SET utf8mb4 COLLATE utf8mb4_unicode_ci`);
         try {
-          await runTool(client, ["--no-defaults", `--socket=${paths.socket}`, "-uroot", "--default-character-set=utf8mb4", "--binary-mode", db], {
-            stdin: createReadStream(dumpFile).pipe(withoutDefiners()),
-          });
+          await runTool(
+            client,
+            ["--no-defaults", `--socket=${paths.socket}`, "-uroot", "--default-character-set=utf8mb4", "--binary-mode", db],
+            {
+              stdin: createReadStream(dumpFile).pipe(withoutDefiners()),
+            },
+          );
         } catch (error) {
-          throw new BackupError(`${error.message}${safety ? `\nThe database ${db} is incomplete; the state before the restore is in ${safety}.` : ""}`);
+          throw new BackupError(
+            `${error.message}${safety ? `\nThe database ${db} is incomplete; the state before the restore is in ${safety}.` : ""}`,
+          );
         }
         // Uploads: exactly the archived files, nothing left over from before.
         rmSync(target.uploads, { recursive: true, force: true });
         mkdirSync(target.uploads, { recursive: true });
         cpSync(join(staging, "uploads"), target.uploads, { recursive: true });
-        const tables = sql(`SELECT table_name FROM information_schema.tables WHERE table_schema = '${db}' AND table_type = 'BASE TABLE' ORDER BY table_name`).split("\n").filter(Boolean);
+        const tables = sql(
+          `SELECT table_name FROM information_schema.tables WHERE table_schema = '${db}' AND table_type = 'BASE TABLE' ORDER BY table_name`,
+        )
+          .split("\n")
+          .filter(Boolean);
         const triggers = Number(sql(`SELECT COUNT(*) FROM information_schema.triggers WHERE trigger_schema = '${db}'`).trim());
         return { manifest, tables: tables.length, triggers, files: manifest.uploads.length, safety };
       },

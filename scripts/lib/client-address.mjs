@@ -9,7 +9,8 @@
 /** Reads TRUSTED_PROXY_HOPS: how many reverse proxies of the facility's own stand before Decant (0 to 10). */
 export function trustedProxyHops(value) {
   if (value === undefined || value === "") return 0;
-  if (!/^\d+$/.test(value) || Number(value) > 10) throw new Error(`TRUSTED_PROXY_HOPS must be a whole number from 0 to 10, got "${value}".`);
+  if (!/^\d+$/.test(value) || Number(value) > 10)
+    throw new Error(`TRUSTED_PROXY_HOPS must be a whole number from 0 to 10, got "${value}".`);
   return Number(value);
 }
 
@@ -22,7 +23,10 @@ export function trustedProxyHops(value) {
  */
 export function clientAddress(forwardedFor, socketAddress, hops) {
   const header = Array.isArray(forwardedFor) ? forwardedFor.join(",") : (forwardedFor ?? "");
-  const chain = header.split(",").map((s) => s.trim()).filter(Boolean);
+  const chain = header
+    .split(",")
+    .map((s) => s.trim())
+    .filter(Boolean);
   chain.push(socketAddress ?? "");
   // Fewer entries than trusted hops: the first proxy itself was reached directly, so its first entry is all there is.
   return chain[Math.max(0, chain.length - 1 - hops)] || socketAddress || "";

@@ -92,14 +92,18 @@ export function livePid(pidFile) {
 }
 
 async function waitForExit(pid, timeoutMs) {
-  await waitFor(() => {
-    try {
-      process.kill(pid, 0);
-      return false;
-    } catch {
-      return true;
-    }
-  }, timeoutMs, 100);
+  await waitFor(
+    () => {
+      try {
+        process.kill(pid, 0);
+        return false;
+      } catch {
+        return true;
+      }
+    },
+    timeoutMs,
+    100,
+  );
 }
 
 /** Runs SQL as the socket-authenticated root of the private server. */
@@ -130,7 +134,8 @@ export async function startMariadb({ dataDir, port, portVariable = "DECANT_DB_PO
     process.kill(stale, "SIGTERM");
     await waitForExit(stale, 60_000);
   }
-  if (!(await portIsFree(port))) fail(`Port ${port} on 127.0.0.1 is taken, so the private MariaDB cannot start. Set ${portVariable} to a free port.`);
+  if (!(await portIsFree(port)))
+    fail(`Port ${port} on 127.0.0.1 is taken, so the private MariaDB cannot start. Set ${portVariable} to a free port.`);
 
   const args = [
     "--no-defaults",
@@ -158,14 +163,20 @@ export async function startMariadb({ dataDir, port, portVariable = "DECANT_DB_PO
   });
 
   try {
-    await waitFor(() => {
-      if (exited) throw new Error("exited");
-      const r = spawnSync(bins.client, ["--no-defaults", `--socket=${paths.socket}`, "-uroot", "-e", "SELECT 1"], { stdio: "ignore" });
-      return r.status === 0;
-    }, 60_000, 250);
+    await waitFor(
+      () => {
+        if (exited) throw new Error("exited");
+        const r = spawnSync(bins.client, ["--no-defaults", `--socket=${paths.socket}`, "-uroot", "-e", "SELECT 1"], { stdio: "ignore" });
+        return r.status === 0;
+      },
+      60_000,
+      250,
+    );
   } catch {
     const tail = existsSync(paths.logFile) ? readFileSync(paths.logFile, "utf8").trim().split("\n").slice(-3).join(" | ") : "";
-    const portHint = /Address already in use|Can't start server: Bind/.test(tail) ? ` Port ${port} is taken; set ${portVariable} to another port.` : "";
+    const portHint = /Address already in use|Can't start server: Bind/.test(tail)
+      ? ` Port ${port} is taken; set ${portVariable} to another port.`
+      : "";
     if (!exited) child.kill("SIGKILL");
     fail(`MariaDB failed to start (exit ${exitCode ?? "timeout"}).${portHint} Log: ${paths.logFile}${tail ? `\n  ${tail}` : ""}`);
   }

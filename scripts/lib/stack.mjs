@@ -8,7 +8,13 @@ import { ROOT, DATA_DIR, bin, fail, localEnv, portAnswers, portIsFree, run, wait
 /** Profiles keep the demo data and the test data in separate servers. */
 export const PROFILES = {
   dev: { dir: join(DATA_DIR, "dev"), dbPort: 3307, database: "decant", smtpPort: 2525, paymentsPort: 12111 },
-  test: { dir: process.env.DECANT_TEST_DATA_DIR ? resolve(process.env.DECANT_TEST_DATA_DIR) : join(DATA_DIR, "test"), dbPort: 3317, database: "decant_e2e", smtpPort: 2535, paymentsPort: 12121 },
+  test: {
+    dir: process.env.DECANT_TEST_DATA_DIR ? resolve(process.env.DECANT_TEST_DATA_DIR) : join(DATA_DIR, "test"),
+    dbPort: 3317,
+    database: "decant_e2e",
+    smtpPort: 2535,
+    paymentsPort: 12121,
+  },
   // `npm run bench`: a server of its own, so a million benchmark ledger entries never meet the demo or test data.
   bench: { dir: join(DATA_DIR, "bench"), dbPort: 3327, database: "decant_bench", smtpPort: 2545, paymentsPort: 12131, appPort: 4341 },
 };
@@ -89,7 +95,8 @@ export async function startFakes(group, env) {
     if (!existsSync(entry)) continue;
     const port = ports[name];
     if (!port) continue;
-    if (!(await portIsFree(port))) fail(`Port ${port} for the ${name} fake is taken; set DECANT_${name.toUpperCase()}_PORT to a free port.`);
+    if (!(await portIsFree(port)))
+      fail(`Port ${port} for the ${name} fake is taken; set DECANT_${name.toUpperCase()}_PORT to a free port.`);
     group.spawn(`${name} fake`, bin("tsx"), [entry], { env: { ...process.env, ...env, FAKE_PORT: String(port) } });
     try {
       await waitFor(() => portAnswers(port), 20_000, 100);

@@ -20,7 +20,11 @@ async function main() {
     }
     if (["seed", "setup", "reset"].includes(command)) {
       const done = await seeder(sequelize).up();
-      console.log(done.length ? `decant: demo data loaded (${done.map((s) => s.name).join(", ")})` : "decant: demo data already present; kept as it is");
+      console.log(
+        done.length
+          ? `decant: demo data loaded (${done.map((s) => s.name).join(", ")})`
+          : "decant: demo data already present; kept as it is",
+      );
     }
   } finally {
     await sequelize.close();
@@ -28,6 +32,8 @@ async function main() {
 }
 
 main().catch((error: unknown) => {
-  console.error(`decant: ${error instanceof EnvError ? error.message : error instanceof Error ? error.stack ?? error.message : String(error)}`);
+  console.error(
+    `decant: ${error instanceof EnvError ? error.message : error instanceof Error ? (error.stack ?? error.message) : String(error)}`,
+  );
   process.exit(1);
 });

@@ -13,11 +13,16 @@ import { emit, fmt, main, row, stats, timeIt } from "./lib";
 
 const REPS = 7;
 // A demanding invented label: four pictograms, hazard statements, a deviation line.
-const hazards = hazardSummary([{ reagent: "methanol", share_percent: 40 }, { reagent: "phosphoric-acid", share_percent: 1.2 }, { reagent: "water", share_percent: 58.8 }]);
+const hazards = hazardSummary([
+  { reagent: "methanol", share_percent: 40 },
+  { reagent: "phosphoric-acid", share_percent: 1.2 },
+  { reagent: "water", share_percent: 58.8 },
+]);
 const CONTENT: LabelContent = {
   code: "B26-1203-12",
   name: "25 mM potassium phosphate pH 2.5 / methanol 60:40",
-  composition: "Water 60 % + methanol 40 % · 25 mM potassium dihydrogen phosphate with phosphoric acid 85 %, pH 2.50 at 25 °C (aqueous part)",
+  composition:
+    "Water 60 % + methanol 40 % · 25 mM potassium dihydrogen phosphate with phosphoric acid 85 %, pH 2.50 at 25 °C (aqueous part)",
   prepared: "2026-12-03 08:30 UTC",
   expires: "2026-12-10 08:30 UTC",
   preparer: "Rowan Ellery",
@@ -38,26 +43,73 @@ const stock = (id: string) => {
 main(async () => {
   const a4 = stock("a4-2x6");
   const roll = stock("roll-100x50");
-  const floor = stats(await timeIt(async () => {
-    const doc = await PDFDocument.create();
-    await embedLabelFonts(doc);
-    doc.addPage();
-    await doc.save();
-  }, REPS, 2));
+  const floor = stats(
+    await timeIt(
+      async () => {
+        const doc = await PDFDocument.create();
+        await embedLabelFonts(doc);
+        doc.addPage();
+        await doc.save();
+      },
+      REPS,
+      2,
+    ),
+  );
   const sheet = stats(await timeIt(() => renderLabels({ content: CONTENT, stock: a4, copies: 100 }), REPS, 1));
   const rolls = stats(await timeIt(() => renderLabels({ content: CONTENT, stock: roll, copies: 100 }), REPS, 1));
   // Warm, but each call another batch (its own code and times), as consecutive print jobs are.
   let n = 0;
-  const single = stats(await timeIt(() => {
-    n++;
-    const code = `B26-1203-${String(100 + n)}`;
-    return renderLabels({ content: { ...CONTENT, code, prepared: `2026-12-03 08:${String(n % 60).padStart(2, "0")} UTC`, expires: `2026-12-10 08:${String(n % 60).padStart(2, "0")} UTC` }, stock: roll, copies: 1 });
-  }, 15, 3));
-  console.log(`labels: floor ${fmt(floor.median, 1)} ms; 100 on A4 ${fmt(sheet.median, 1)} ms; 100 roll ${fmt(rolls.median, 1)} ms; single ${fmt(single.median, 1)} ms`);
+  const single = stats(
+    await timeIt(
+      () => {
+        n++;
+        const code = `B26-1203-${String(100 + n)}`;
+        return renderLabels({
+          content: {
+            ...CONTENT,
+            code,
+            prepared: `2026-12-03 08:${String(n % 60).padStart(2, "0")} UTC`,
+            expires: `2026-12-10 08:${String(n % 60).padStart(2, "0")} UTC`,
+          },
+          stock: roll,
+          copies: 1,
+        });
+      },
+      15,
+      3,
+    ),
+  );
+  console.log(
+    `labels: floor ${fmt(floor.median, 1)} ms; 100 on A4 ${fmt(sheet.median, 1)} ms; 100 roll ${fmt(rolls.median, 1)} ms; single ${fmt(single.median, 1)} ms`,
+  );
   const base = "empty PDF with fonts (ms)";
   emit([
-    row({ group: "labels", figure: "100 labels, A4 sheet (9 pages)", unit: "ms", stats: sheet, target: { op: "<", value: 1000 }, baseline: base, ratio: sheet.median / floor.median }),
-    row({ group: "labels", figure: "100 roll labels", unit: "ms", stats: rolls, target: { op: "<", value: 1000 }, baseline: base, ratio: rolls.median / floor.median }),
-    row({ group: "labels", figure: "single label, warm", unit: "ms", stats: single, target: { op: "<", value: 50 }, baseline: base, ratio: single.median / floor.median }),
+    row({
+      group: "labels",
+      figure: "100 labels, A4 sheet (9 pages)",
+      unit: "ms",
+      stats: sheet,
+      target: { op: "<", value: 1000 },
+      baseline: base,
+      ratio: sheet.median / floor.median,
+    }),
+    row({
+      group: "labels",
+      figure: "100 roll labels",
+      unit: "ms",
+      stats: rolls,
+      target: { op: "<", value: 1000 },
+      baseline: base,
+      ratio: rolls.median / floor.median,
+    }),
+    row({
+      group: "labels",
+      figure: "single label, warm",
+      unit: "ms",
+      stats: single,
+      target: { op: "<", value: 50 },
+      baseline: base,
+      ratio: single.median / floor.median,
+    }),
   ]);
 });

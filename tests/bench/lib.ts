@@ -50,7 +50,13 @@ export function stats(samples: readonly number[]): Stats {
 }
 
 export const check = (value: number, target: Target | undefined) =>
-  target === undefined ? null : target.op === "<" ? value < target.value : target.op === "<=" ? value <= target.value : value >= target.value;
+  target === undefined
+    ? null
+    : target.op === "<"
+      ? value < target.value
+      : target.op === "<="
+        ? value <= target.value
+        : value >= target.value;
 
 /** A row whose target (if any) is judged on the median, or on `targetValue` when given. */
 export function row(input: Omit<BenchRow, "median" | "min" | "max" | "n" | "met"> & { stats: Stats }): BenchRow {

@@ -58,7 +58,12 @@ main(async () => {
   const streams = new Set((await conn.query("SELECT id FROM waste_streams")).map((r: { id: string }) => r.id));
   for (const r of picked) {
     if (!streams.has(r.wasteStream.value)) {
-      await conn.query("INSERT IGNORE INTO waste_streams (id, name, restrictiveness, created_at, updated_at) VALUES (?, ?, 2, ?, ?)", [r.wasteStream.value, r.wasteStream.value, stamp, stamp]);
+      await conn.query("INSERT IGNORE INTO waste_streams (id, name, restrictiveness, created_at, updated_at) VALUES (?, ?, 2, ?, ?)", [
+        r.wasteStream.value,
+        r.wasteStream.value,
+        stamp,
+        stamp,
+      ]);
       streams.add(r.wasteStream.value);
     }
     await conn.query(
@@ -67,12 +72,28 @@ main(async () => {
     );
   }
 
-  const clients = Array.from({ length: CLIENTS }, (_, i) => ({ id: FIRST_ID + i, name: `Bench client ${String(i + 1).padStart(2, "0")}`, kind: i % 2 === 0 ? "internal" : "external" }));
+  const clients = Array.from({ length: CLIENTS }, (_, i) => ({
+    id: FIRST_ID + i,
+    name: `Bench client ${String(i + 1).padStart(2, "0")}`,
+    kind: i % 2 === 0 ? "internal" : "external",
+  }));
   await conn.batch(
     "INSERT INTO clients (id, name, kind, cost_centre, billing_email, currency, active, created_at, updated_at) VALUES (?, ?, ?, ?, ?, 'EUR', 1, ?, ?)",
-    clients.map((c) => [c.id, c.name, c.kind, c.kind === "internal" ? `CC-B${c.id}` : null, c.kind === "external" ? `bench${c.id}@bench.test` : null, stamp, stamp]),
+    clients.map((c) => [
+      c.id,
+      c.name,
+      c.kind,
+      c.kind === "internal" ? `CC-B${c.id}` : null,
+      c.kind === "external" ? `bench${c.id}@bench.test` : null,
+      stamp,
+      stamp,
+    ]),
   );
-  const projects = Array.from({ length: PROJECTS }, (_, i) => ({ id: FIRST_ID + i, clientId: FIRST_ID + (i % CLIENTS), code: `BN${String((i % CLIENTS) + 1).padStart(2, "0")}-P${String(i + 1).padStart(3, "0")}` }));
+  const projects = Array.from({ length: PROJECTS }, (_, i) => ({
+    id: FIRST_ID + i,
+    clientId: FIRST_ID + (i % CLIENTS),
+    code: `BN${String((i % CLIENTS) + 1).padStart(2, "0")}-P${String(i + 1).padStart(3, "0")}`,
+  }));
   await conn.batch(
     "INSERT INTO projects (id, code, name, client_id, status, created_at, updated_at) VALUES (?, ?, ?, ?, 'active', ?, ?)",
     projects.map((p) => [p.id, p.code, `Bench project ${p.code}`, p.clientId, stamp, stamp]),
@@ -90,7 +111,10 @@ main(async () => {
       rateRows.push(["reagent", r.id, list, unit, Math.round(base * factor * 1.06), halfway, stamp]);
     }
   });
-  await conn.batch("INSERT INTO rates (kind, reagent_id, price_list, unit, amount_minor, currency, effective_from, created_at) VALUES (?, ?, ?, ?, ?, 'EUR', ?, ?)", rateRows);
+  await conn.batch(
+    "INSERT INTO rates (kind, reagent_id, price_list, unit, amount_minor, currency, effective_from, created_at) VALUES (?, ?, ?, ?, ?, 'EUR', ?, ?)",
+    rateRows,
+  );
 
   // Each project uses 6 of the 30 reagents: two solvents, an additive or two, a buffer salt.
   const uses = projects.map((_, i) => Array.from({ length: 6 }, (_, k) => picked[(i * 5 + k * 7) % REAGENTS]!));
@@ -134,6 +158,10 @@ main(async () => {
   const writeS = writeMs / 1000;
   const loadS = loadMs / 1000;
   await conn.end();
-  console.log(`seed: ${ENTRIES.toLocaleString("en-GB")} ledger entries, ${PROJECTS} projects, ${CLIENTS} clients, ${REAGENTS} reagents; file ${writeS.toFixed(1)} s, load ${loadS.toFixed(1)} s`);
-  console.log(`BENCH_SEED ${JSON.stringify({ from: day(new Date(start)), to: day(new Date(end - 86_400_000)), entries: ENTRIES, loadS, writeS })}`);
+  console.log(
+    `seed: ${ENTRIES.toLocaleString("en-GB")} ledger entries, ${PROJECTS} projects, ${CLIENTS} clients, ${REAGENTS} reagents; file ${writeS.toFixed(1)} s, load ${loadS.toFixed(1)} s`,
+  );
+  console.log(
+    `BENCH_SEED ${JSON.stringify({ from: day(new Date(start)), to: day(new Date(end - 86_400_000)), entries: ENTRIES, loadS, writeS })}`,
+  );
 });

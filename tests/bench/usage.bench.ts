@@ -14,8 +14,12 @@ main(async () => {
   const { baseURL, cookies } = benchEnv();
   const seed = JSON.parse(process.env.BENCH_SEED ?? "{}") as { from: string; to: string };
   const conn = await mariadb.createConnection({
-    host: process.env.DATABASE_HOST, port: Number(process.env.DATABASE_PORT), user: process.env.DATABASE_USER,
-    password: process.env.DATABASE_PASSWORD, database: process.env.DATABASE_NAME, timezone: "Z",
+    host: process.env.DATABASE_HOST,
+    port: Number(process.env.DATABASE_PORT),
+    user: process.env.DATABASE_USER,
+    password: process.env.DATABASE_PASSWORD,
+    database: process.env.DATABASE_NAME,
+    timezone: "Z",
   });
   // A month and a year in the seeded ledger's second year (its rates change half-way).
   const first = new Date(`${seed.from}T00:00:00Z`);
@@ -29,9 +33,20 @@ main(async () => {
     { name: "year", from: day(yearFrom), to: day(yearTo), target: 600 },
   ];
 
-  const explain = await conn.query(`EXPLAIN ${usageSumsSql(", CASE WHEN d.day < ? THEN 0 ELSE 1 END").replace(/:from/, "?").replace(/:to/, "?").replace(/:clientId/g, "NULL")}`, [periods[1]!.from, periods[1]!.to, day(new Date(yearFrom.getTime() + 182 * 86_400_000))]);
+  const explain = await conn.query(
+    `EXPLAIN ${usageSumsSql(", CASE WHEN d.day < ? THEN 0 ELSE 1 END")
+      .replace(/:from/, "?")
+      .replace(/:to/, "?")
+      .replace(/:clientId/g, "NULL")}`,
+    [periods[1]!.from, periods[1]!.to, day(new Date(yearFrom.getTime() + 182 * 86_400_000))],
+  );
   console.log("EXPLAIN of the endpoint's aggregate (year):");
-  for (const r of explain as Record<string, unknown>[]) console.log(`  ${Object.entries(r).map(([k, v]) => `${k}=${v}`).join("  ")}`);
+  for (const r of explain as Record<string, unknown>[])
+    console.log(
+      `  ${Object.entries(r)
+        .map(([k, v]) => `${k}=${v}`)
+        .join("  ")}`,
+    );
 
   const rows: BenchRow[] = [];
   for (const p of periods) {
@@ -67,8 +82,23 @@ main(async () => {
     }
     const es = stats(endpoint);
     const bs = stats(baseline);
-    console.log(`usage ${p.name} ${p.from}…${p.to}: endpoint median ${fmt(es.median, 1)} ms, p95 ${fmt(es.p95, 1)} ms (${projects} projects); raw SQL over ledger_entries median ${fmt(bs.median, 1)} ms`);
-    rows.push(row({ group: "usage", figure: `GET /api/usage, one ${p.name} (p95 ${fmt(es.p95, 1)} ms)`, unit: "ms", stats: es, targetOn: "p95", targetValue: es.p95, target: { op: "<", value: p.target }, baseline: "raw SQL aggregate over ledger_entries", ratio: es.median / bs.median, ratioTarget: { op: "<=", value: 1.5 } }));
+    console.log(
+      `usage ${p.name} ${p.from}…${p.to}: endpoint median ${fmt(es.median, 1)} ms, p95 ${fmt(es.p95, 1)} ms (${projects} projects); raw SQL over ledger_entries median ${fmt(bs.median, 1)} ms`,
+    );
+    rows.push(
+      row({
+        group: "usage",
+        figure: `GET /api/usage, one ${p.name} (p95 ${fmt(es.p95, 1)} ms)`,
+        unit: "ms",
+        stats: es,
+        targetOn: "p95",
+        targetValue: es.p95,
+        target: { op: "<", value: p.target },
+        baseline: "raw SQL aggregate over ledger_entries",
+        ratio: es.median / bs.median,
+        ratioTarget: { op: "<=", value: 1.5 },
+      }),
+    );
     rows.push(row({ group: "usage", figure: `  raw SQL, one ${p.name} (baseline)`, unit: "ms", stats: bs }));
   }
   await conn.end();

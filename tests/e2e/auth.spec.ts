@@ -28,7 +28,6 @@ const MUST_NOT_SEE: Record<Role, string[]> = {
   admin: [],
 };
 
-
 async function navLabels(page: Page) {
   return page.getByRole("navigation", { name: "Main" }).getByRole("link").allInnerTexts();
 }
@@ -51,7 +50,10 @@ test("a technician asking for the people page gets the not-for-your-role page", 
   await expect(page.getByRole("heading", { name: "This page is not open to your role" })).toBeVisible();
 });
 
-test("an admin invites a person, who sets a password through the mailed link and signs in; the link then fails", async ({ page, browser }) => {
+test("an admin invites a person, who sets a password through the mailed link and signs in; the link then fails", async ({
+  page,
+  browser,
+}) => {
   const email = `new.tech.${Date.now().toString(36)}@lab.test`;
   const since = new Date();
 
@@ -73,7 +75,10 @@ test("an admin invites a person, who sets a password through the mailed link and
   const mail = await waitForMail(email, { since, subject: /invited/ });
   const link = setPasswordLink(mail);
   await page.getByRole("navigation", { name: "Main" }).getByRole("link", { name: "Mail outbox (dev)" }).click();
-  await page.getByRole("row", { name: new RegExp(email.replace(/\./g, "\\.")) }).getByRole("link", { name: "You are invited to Decant" }).click();
+  await page
+    .getByRole("row", { name: new RegExp(email.replace(/\./g, "\\.")) })
+    .getByRole("link", { name: "You are invited to Decant" })
+    .click();
   await expect(page.getByTestId("message-to")).toHaveText(email);
   await expect(page.getByTestId("message-text")).toContainText(link.toString());
 
@@ -118,7 +123,9 @@ test("a person changes their password on My account and stays signed in", async 
   const invited = await page.request.post("/api/users", { data: { email, name: "Ola Changer", role: "safety" } });
   expect(invited.status()).toBe(201);
   const link = setPasswordLink(await waitForMail(email, { since }));
-  const set = await page.request.post("/api/auth/set-password", { data: { token: link.searchParams.get("token"), newPassword: "first long password", confirmPassword: "first long password" } });
+  const set = await page.request.post("/api/auth/set-password", {
+    data: { token: link.searchParams.get("token"), newPassword: "first long password", confirmPassword: "first long password" },
+  });
   expect(set.status()).toBe(200);
 
   const context = await browser.newContext();

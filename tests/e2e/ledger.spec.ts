@@ -2,7 +2,6 @@ import { expect, test, type Locator, type Page } from "@playwright/test";
 import { formatVolume } from "../../src/lib/format";
 import { signIn } from "./support";
 
-
 /**
  * Fills the run form as a technician would: the demo scout gradient on Wren for PMG-ROOT-26,
  * 10 injections + 2 blanks + 5 mL purge, batches B26-1103 (A) and B26-1104 (B), and records it.
@@ -20,7 +19,7 @@ async function recordScoutRun(page: Page) {
   const channelA = page.getByLabel(/^Channel A/);
   const optionA = channelA.locator("option", { hasText: "B26-1103" });
   const before = Number(await optionA.getAttribute("data-ml"));
-  await channelA.selectOption({ value: await optionA.getAttribute("value") ?? "" });
+  await channelA.selectOption({ value: (await optionA.getAttribute("value")) ?? "" });
   const channelB = page.getByLabel(/^Channel B/);
   await channelB.selectOption({ value: (await channelB.locator("option", { hasText: "B26-1104" }).getAttribute("value")) ?? "" });
   // The live preview shows what the run will take from each bottle.
@@ -55,9 +54,13 @@ test("a run a technician logs shows in the project's usage, up by exactly the ru
   await signIn(manager, "manager@demo.test");
   const usageOf = async () => {
     await manager.goto(`/usage?from=${day(30)}&to=${day(0)}`);
-    const total = manager.getByRole("table", { name: "Usage per project" }).locator("tr[data-project='PMG-ROOT-26'] [data-testid='usage-total']");
+    const total = manager
+      .getByRole("table", { name: "Usage per project" })
+      .locator("tr[data-project='PMG-ROOT-26'] [data-testid='usage-total']");
     await expect(total).toBeVisible();
-    const api = (await (await manager.request.get(`/api/usage?from=${day(30)}&to=${day(0)}&groupBy=project`)).json()) as { rows: { projectCode: string; volumes_mL: Record<string, number> }[] };
+    const api = (await (await manager.request.get(`/api/usage?from=${day(30)}&to=${day(0)}&groupBy=project`)).json()) as {
+      rows: { projectCode: string; volumes_mL: Record<string, number> }[];
+    };
     const row = api.rows.find((r) => r.projectCode === "PMG-ROOT-26");
     return { shown: await total.innerText(), mL: Object.values(row?.volumes_mL ?? {}).reduce((a, b) => a + b, 0) };
   };
@@ -105,12 +108,16 @@ test("a manager sees the usage table and its chart for a period, under the page'
   await expect(chart).toBeVisible();
   await expect.poll(() => chartGroups(chart)).toEqual(await tableGroups(table));
   await expect(chart).toHaveAccessibleDescription(/PMG-ROOT-26: [\d.,]+ (mL|L)/);
-  await expect.poll(() => chart.evaluate((canvas: HTMLCanvasElement) => {
-    const { data } = canvas.getContext("2d")!.getImageData(0, 0, canvas.width, canvas.height);
-    let teal = 0;
-    for (let i = 0; i < data.length; i += 4) if (data[i] === 0x14 && data[i + 1] === 0x5f && data[i + 2] === 0x66) teal++;
-    return teal;
-  })).toBeGreaterThan(500);
+  await expect
+    .poll(() =>
+      chart.evaluate((canvas: HTMLCanvasElement) => {
+        const { data } = canvas.getContext("2d")!.getImageData(0, 0, canvas.width, canvas.height);
+        let teal = 0;
+        for (let i = 0; i < data.length; i += 4) if (data[i] === 0x14 && data[i + 1] === 0x5f && data[i + 2] === 0x66) teal++;
+        return teal;
+      }),
+    )
+    .toBeGreaterThan(500);
 
   // The chart follows the table's filter and grouping.
   await page.getByLabel("Filter").fill("QFT");

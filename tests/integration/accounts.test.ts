@@ -26,7 +26,8 @@ afterAll(async () => {
   await sequelize?.close();
 });
 
-const rows = <T extends object = Record<string, unknown>>(sql: string, replacements: Record<string, unknown> = {}) => sequelize.query<T>(sql, { type: QueryTypes.SELECT, replacements });
+const rows = <T extends object = Record<string, unknown>>(sql: string, replacements: Record<string, unknown> = {}) =>
+  sequelize.query<T>(sql, { type: QueryTypes.SELECT, replacements });
 
 async function sendJson(c: Client, method: string, path: string, body: unknown) {
   const response = await c.fetch(path, { method, headers: { "content-type": "application/json" }, body: JSON.stringify(body) });
@@ -119,11 +120,19 @@ describe("invitations and one-time links", () => {
     expect(page.status).toBe(200);
     expect(await page.text()).toContain(email);
 
-    const first = await sendJson(await client(), "POST", "/api/auth/set-password", { token, newPassword: PASSWORD, confirmPassword: PASSWORD });
+    const first = await sendJson(await client(), "POST", "/api/auth/set-password", {
+      token,
+      newPassword: PASSWORD,
+      confirmPassword: PASSWORD,
+    });
     expect(first.status).toBe(200);
     expect(first.body.email).toBe(email);
     expect(JSON.stringify(first.body)).not.toMatch(/password|hash/i);
-    const second = await sendJson(await client(), "POST", "/api/auth/set-password", { token, newPassword: "another long password", confirmPassword: "another long password" });
+    const second = await sendJson(await client(), "POST", "/api/auth/set-password", {
+      token,
+      newPassword: "another long password",
+      confirmPassword: "another long password",
+    });
     expect(second.status).toBe(400);
     expect(second.body.error).toMatch(/^token: .*expired or has already been used/);
     expect((await (await client()).fetch(link.pathname + link.search)).status).toBe(410);
@@ -134,11 +143,19 @@ describe("invitations and one-time links", () => {
 
   it("an expired link does not work", async () => {
     const { user, link } = await invite(address("late"));
-    await sequelize.query("UPDATE auth_tokens SET expires_at = NOW(3) - INTERVAL 1 MINUTE WHERE user_id = :id", { replacements: { id: user.id } });
+    await sequelize.query("UPDATE auth_tokens SET expires_at = NOW(3) - INTERVAL 1 MINUTE WHERE user_id = :id", {
+      replacements: { id: user.id },
+    });
     const token = link.searchParams.get("token")!;
-    const answer = await sendJson(await client(), "POST", "/api/auth/set-password", { token, newPassword: PASSWORD, confirmPassword: PASSWORD });
+    const answer = await sendJson(await client(), "POST", "/api/auth/set-password", {
+      token,
+      newPassword: PASSWORD,
+      confirmPassword: PASSWORD,
+    });
     expect(answer.status).toBe(400);
-    expect((await rows<{ password_hash: string | null }>("SELECT password_hash FROM users WHERE id = :id", { id: user.id }))[0]!.password_hash).toBeNull();
+    expect(
+      (await rows<{ password_hash: string | null }>("SELECT password_hash FROM users WHERE id = :id", { id: user.id }))[0]!.password_hash,
+    ).toBeNull();
   });
 
   it("a newer link replaces the older one", async () => {
@@ -147,9 +164,17 @@ describe("invitations and one-time links", () => {
     expect((await sendJson(admin, "POST", `/api/users/${user.id}/link`, {})).status).toBe(200);
     const newer = setPasswordLink(await waitForMail(address("twice"), { since }));
     expect(newer.searchParams.get("token")).not.toBe(link.searchParams.get("token"));
-    const old = await sendJson(await client(), "POST", "/api/auth/set-password", { token: link.searchParams.get("token"), newPassword: PASSWORD, confirmPassword: PASSWORD });
+    const old = await sendJson(await client(), "POST", "/api/auth/set-password", {
+      token: link.searchParams.get("token"),
+      newPassword: PASSWORD,
+      confirmPassword: PASSWORD,
+    });
     expect(old.status).toBe(400);
-    const fresh = await sendJson(await client(), "POST", "/api/auth/set-password", { token: newer.searchParams.get("token"), newPassword: PASSWORD, confirmPassword: PASSWORD });
+    const fresh = await sendJson(await client(), "POST", "/api/auth/set-password", {
+      token: newer.searchParams.get("token"),
+      newPassword: PASSWORD,
+      confirmPassword: PASSWORD,
+    });
     expect(fresh.status).toBe(200);
   });
 
@@ -208,7 +233,11 @@ describe("forgotten password", () => {
 
     // Setting a password through a reset link ends the account's live sessions.
     expect(await me(member.session)).toBe(200);
-    const reset = await sendJson(await client(), "POST", "/api/auth/set-password", { token: link.searchParams.get("token"), newPassword: "reset long password", confirmPassword: "reset long password" });
+    const reset = await sendJson(await client(), "POST", "/api/auth/set-password", {
+      token: link.searchParams.get("token"),
+      newPassword: "reset long password",
+      confirmPassword: "reset long password",
+    });
     expect(reset.status).toBe(200);
     expect(await me(member.session)).toBe(401);
     expect(await me(await client(member.email, "reset long password"))).toBe(200);
@@ -219,14 +248,26 @@ describe("my account", () => {
   it("changing the password ends the other sessions and keeps this one", async () => {
     const member = await newMember("changer");
     const otherBrowser = await client(member.email, PASSWORD);
-    const wrong = await sendJson(member.session, "POST", "/api/account/password", { currentPassword: "not my password", newPassword: "brand new long password", confirmPassword: "brand new long password" });
+    const wrong = await sendJson(member.session, "POST", "/api/account/password", {
+      currentPassword: "not my password",
+      newPassword: "brand new long password",
+      confirmPassword: "brand new long password",
+    });
     expect(wrong.status).toBe(400);
     expect(wrong.body.error).toMatch(/^currentPassword: /);
-    const mismatch = await sendJson(member.session, "POST", "/api/account/password", { currentPassword: PASSWORD, newPassword: "brand new long password", confirmPassword: "brand new long passwort" });
+    const mismatch = await sendJson(member.session, "POST", "/api/account/password", {
+      currentPassword: PASSWORD,
+      newPassword: "brand new long password",
+      confirmPassword: "brand new long passwort",
+    });
     expect(mismatch.status).toBe(400);
     expect(mismatch.body.error).toMatch(/^confirmPassword: /);
 
-    const changed = await sendJson(member.session, "POST", "/api/account/password", { currentPassword: PASSWORD, newPassword: "brand new long password", confirmPassword: "brand new long password" });
+    const changed = await sendJson(member.session, "POST", "/api/account/password", {
+      currentPassword: PASSWORD,
+      newPassword: "brand new long password",
+      confirmPassword: "brand new long password",
+    });
     expect(changed.status).toBe(204);
     expect(await me(member.session)).toBe(200);
     expect(await me(otherBrowser)).toBe(401);
@@ -247,7 +288,10 @@ describe("user administration", () => {
     expect(await me(member.session)).toBe(401);
     expect(await me(secondBrowser)).toBe(401);
     expect((await rows("SELECT id FROM sessions WHERE user_id = :id", { id: member.id })).length).toBe(0);
-    const audit = await rows<{ actor_id: number; ip: string }>("SELECT actor_id, ip FROM audit_log WHERE action = 'user-deactivated' AND entity_id = :id", { id: String(member.id) });
+    const audit = await rows<{ actor_id: number; ip: string }>(
+      "SELECT actor_id, ip FROM audit_log WHERE action = 'user-deactivated' AND entity_id = :id",
+      { id: String(member.id) },
+    );
     expect(audit.length).toBe(1);
     expect(audit[0]!.ip).toBeTruthy();
 
@@ -266,7 +310,10 @@ describe("user administration", () => {
     expect(await me(member.session)).toBe(401);
     const again = await client(member.email, PASSWORD);
     expect(((await (await again.fetch("/api/me")).json()) as { role: string }).role).toBe("safety");
-    const [entry] = await rows<{ before: unknown; after: unknown }>("SELECT `before`, `after` FROM audit_log WHERE action = 'user-role-changed' AND entity_id = :id", { id: String(member.id) });
+    const [entry] = await rows<{ before: unknown; after: unknown }>(
+      "SELECT `before`, `after` FROM audit_log WHERE action = 'user-role-changed' AND entity_id = :id",
+      { id: String(member.id) },
+    );
     const parse = (v: unknown) => (typeof v === "string" ? JSON.parse(v) : v);
     expect(parse(entry!.before)).toMatchObject({ role: "technician" });
     expect(parse(entry!.after)).toMatchObject({ role: "safety" });

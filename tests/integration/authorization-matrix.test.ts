@@ -8,7 +8,16 @@ import { createSequelize } from "../../src/lib/server/db";
 import { testEnv } from "../support/database";
 import { client, type Client } from "../support/http";
 import { waitForMail } from "../support/mailbox";
-import { CROSS_ORGANISATION, ROUTE_RULES, SAMPLE_TABLES, type Access, type Method, type RouteRule, type SampleKind, type Samples } from "./route-rules";
+import {
+  CROSS_ORGANISATION,
+  ROUTE_RULES,
+  SAMPLE_TABLES,
+  type Access,
+  type Method,
+  type RouteRule,
+  type SampleKind,
+  type Samples,
+} from "./route-rules";
 
 const PAGES_DIR = "src/pages";
 const DEMO: Record<Role, string> = {
@@ -38,7 +47,9 @@ const isPage = (file: string) => /\.(astro|md|mdx|html)$/.test(file);
 /** Methods an endpoint file exports (`export const GET = …`, `export async function POST`). */
 function exportedMethods(file: string): Method[] {
   const source = readFileSync(join(PAGES_DIR, file), "utf8");
-  const found = [...source.matchAll(/export\s+(?:const|let|async\s+function|function)\s+(GET|POST|PUT|PATCH|DELETE|ALL)\b/g)].map((m) => m[1] as Method);
+  const found = [...source.matchAll(/export\s+(?:const|let|async\s+function|function)\s+(GET|POST|PUT|PATCH|DELETE|ALL)\b/g)].map(
+    (m) => m[1] as Method,
+  );
   return [...new Set(found)];
 }
 
@@ -55,7 +66,8 @@ function urlFor(file: string, rule: RouteRule, samples: Samples, method: Method)
   return path + (method === "GET" ? query : "");
 }
 
-const allowed = (access: Extract<Access, { permission: string }>, role: Role) => (access.own ? canAtLeastOwn(role, access.permission) : can(role, access.permission));
+const allowed = (access: Extract<Access, { permission: string }>, role: Role) =>
+  access.own ? canAtLeastOwn(role, access.permission) : can(role, access.permission);
 
 let samples: Samples;
 const sessions = new Map<Role, Client>();
@@ -64,41 +76,64 @@ const createdStatements: number[] = [];
 
 beforeAll(async () => {
   sequelize = createSequelize(testEnv());
-  const one = async <T extends object>(sql: string, replacements: Record<string, unknown> = {}) => (await sequelize.query<T>(sql, { type: QueryTypes.SELECT, replacements }))[0]!;
+  const one = async <T extends object>(sql: string, replacements: Record<string, unknown> = {}) =>
+    (await sequelize.query<T>(sql, { type: QueryTypes.SELECT, replacements }))[0]!;
   const user = await one<{ id: number }>("SELECT id FROM users WHERE email = :email", { email: SAMPLE_USER });
   const batch = await one<{ id: number; code: string }>("SELECT id, code FROM batches ORDER BY id LIMIT 1");
   const contact = await one<{ client_id: number }>("SELECT client_id FROM users WHERE email = :email", { email: DEMO.client });
-  const projects = await sequelize.query<{ id: number; code: string; client_id: number }>("SELECT id, code, client_id FROM projects ORDER BY id", { type: QueryTypes.SELECT });
+  const projects = await sequelize.query<{ id: number; code: string; client_id: number }>(
+    "SELECT id, code, client_id FROM projects ORDER BY id",
+    { type: QueryTypes.SELECT },
+  );
   const own = projects.filter((p) => p.client_id === contact.client_id);
   const foreign = projects.filter((p) => p.client_id !== contact.client_id);
   // A message in the mail fake, for the outbox's message page.
   const since = new Date();
-  await fetch(`${process.env.E2E_BASE_URL}/api/auth/forgot-password`, { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify({ email: SAMPLE_USER }) });
+  await fetch(`${process.env.E2E_BASE_URL}/api/auth/forgot-password`, {
+    method: "POST",
+    headers: { "content-type": "application/json" },
+    body: JSON.stringify({ email: SAMPLE_USER }),
+  });
   const message = await waitForMail(SAMPLE_USER, { since });
   const ids = {} as Record<SampleKind, number | string>;
   for (const [kind, table] of Object.entries(SAMPLE_TABLES) as [SampleKind, string][]) {
-    const [row] = await sequelize.query<{ id: number | string }>(`SELECT id FROM \`${table}\` ORDER BY id LIMIT 1`, { type: QueryTypes.SELECT }).catch(() => []);
+    const [row] = await sequelize
+      .query<{ id: number | string }>(`SELECT id FROM \`${table}\` ORDER BY id LIMIT 1`, { type: QueryTypes.SELECT })
+      .catch(() => []);
     ids[kind] = row?.id ?? 999999;
   }
   // An issued statement (with its invoice) of another organisation and one of the contact's own, in
   // a period no other test bills, so the cross-organisation rows ask for records that really exist.
-  const foreignClient = await one<{ id: number; name: string; currency: string }>("SELECT id, name, currency FROM clients WHERE id <> :own ORDER BY kind = 'external' DESC, id LIMIT 1", { own: contact.client_id });
-  const ownClient = await one<{ id: number; currency: string }>("SELECT id, currency FROM clients WHERE id = :own", { own: contact.client_id });
+  const foreignClient = await one<{ id: number; name: string; currency: string }>(
+    "SELECT id, name, currency FROM clients WHERE id <> :own ORDER BY kind = 'external' DESC, id LIMIT 1",
+    { own: contact.client_id },
+  );
+  const ownClient = await one<{ id: number; currency: string }>("SELECT id, currency FROM clients WHERE id = :own", {
+    own: contact.client_id,
+  });
   const statementOf = async (clientId: number, currency: string, month: string) => {
     await sequelize.query(
       "INSERT INTO statements (client_id, period_start, period_end, status, `lines`, total_minor, currency, issued_at, created_at, updated_at) VALUES (:clientId, :start, :end, 'issued', '[]', 0, :currency, NOW(3), NOW(3), NOW(3))",
       { replacements: { clientId, currency, start: `${month}-01`, end: `${month}-28` } },
     );
-    const row = await one<{ id: number }>("SELECT id FROM statements WHERE client_id = :clientId AND period_start = :start", { clientId, start: `${month}-01` });
+    const row = await one<{ id: number }>("SELECT id FROM statements WHERE client_id = :clientId AND period_start = :start", {
+      clientId,
+      start: `${month}-01`,
+    });
     createdStatements.push(row.id);
     return row.id;
   };
   const foreignStatementId = await statementOf(foreignClient.id, foreignClient.currency, "2019-02");
   const ownStatementId = await statementOf(ownClient.id, ownClient.currency, "2019-03");
-  await sequelize.query("INSERT INTO invoices (statement_id, client_id, status, amount_minor, currency, created_at, updated_at) VALUES (:statement, :client, 'open', 0, :currency, NOW(3), NOW(3))", {
-    replacements: { statement: foreignStatementId, client: foreignClient.id, currency: foreignClient.currency },
+  await sequelize.query(
+    "INSERT INTO invoices (statement_id, client_id, status, amount_minor, currency, created_at, updated_at) VALUES (:statement, :client, 'open', 0, :currency, NOW(3), NOW(3))",
+    {
+      replacements: { statement: foreignStatementId, client: foreignClient.id, currency: foreignClient.currency },
+    },
+  );
+  const foreignInvoice = await one<{ id: number }>("SELECT id FROM invoices WHERE statement_id = :statement", {
+    statement: foreignStatementId,
   });
-  const foreignInvoice = await one<{ id: number }>("SELECT id FROM invoices WHERE statement_id = :statement", { statement: foreignStatementId });
   samples = {
     foreignStatementId,
     foreignInvoiceId: foreignInvoice.id,
@@ -157,7 +192,9 @@ const WHO: Who[] = ["anonymous", ...ROLES];
 
 const cases = Object.entries(ROUTE_RULES)
   .filter(([file]) => ROUTE_FILES.includes(file))
-  .flatMap(([file, rule]) => (Object.entries(rule.methods) as [Method, Access][]).map(([method, access]) => ({ file, rule, method, access })));
+  .flatMap(([file, rule]) =>
+    (Object.entries(rule.methods) as [Method, Access][]).map(([method, access]) => ({ file, rule, method, access })),
+  );
 
 describe.each(cases)("$method $file", ({ file, rule, method, access }) => {
   it.each(WHO)("as %s", async (who) => {
@@ -219,7 +256,9 @@ describe("a client contact sees their own organisation only", () => {
     expect(rows.length).toBeGreaterThan(0);
     for (const row of rows) expect(samples.ownProjectCodes).toContain(row.projectCode);
     // The same period for a manager does include other organisations' projects.
-    const all = (await (await sessions.get("manager")!.fetch(`/api/usage?from=${day(-120)}&to=${day(0)}&groupBy=project`)).json()) as { rows: { projectCode: string }[] };
+    const all = (await (await sessions.get("manager")!.fetch(`/api/usage?from=${day(-120)}&to=${day(0)}&groupBy=project`)).json()) as {
+      rows: { projectCode: string }[];
+    };
     expect(all.rows.some((r) => samples.foreignProjectCodes.includes(r.projectCode))).toBe(true);
   });
 
@@ -278,7 +317,11 @@ describe("session fixation: the session id before sign-in is never the one after
   it("signing in over a live session ends that session and starts a new one", async () => {
     const first = await client(DEMO.technician);
     const before = first.cookie!;
-    const again = await first.fetch("/api/auth/sign-in", { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify({ email: DEMO.manager, password: "decant-demo" }) });
+    const again = await first.fetch("/api/auth/sign-in", {
+      method: "POST",
+      headers: { "content-type": "application/json" },
+      body: JSON.stringify({ email: DEMO.manager, password: "decant-demo" }),
+    });
     expect(again.status).toBe(200);
     expect(first.cookie).not.toBe(before);
     expect((await fetch(`${process.env.E2E_BASE_URL}/api/me`, { headers: { cookie: before } })).status).toBe(401);
@@ -297,7 +340,11 @@ describe("CSRF: a cross-site request to a state-changing route is refused", () =
     const caller = sessions.get(who)!;
     const url = urlFor(file, rule, samples, method);
     for (const origin of ["http://evil.example", "null", "http://127.0.0.1.evil.example"]) {
-      for (const [type, body] of [["application/json", JSON.stringify(rule.body ?? {})], ["application/x-www-form-urlencoded", "a=1"], ["text/plain", "{}"]] as const) {
+      for (const [type, body] of [
+        ["application/json", JSON.stringify(rule.body ?? {})],
+        ["application/x-www-form-urlencoded", "a=1"],
+        ["text/plain", "{}"],
+      ] as const) {
         const response = await caller.fetch(url, { method, headers: { origin, "content-type": type }, body });
         const text = await response.text();
         expect(response.status, `${method} ${url} from ${origin} as ${type} → ${response.status} ${text.slice(0, 120)}`).toBe(403);
@@ -309,7 +356,11 @@ describe("CSRF: a cross-site request to a state-changing route is refused", () =
   });
 
   it("the payments webhook is exempt from the origin check and refuses an unsigned event by its signature instead", async () => {
-    const response = await fetch(`${process.env.E2E_BASE_URL}/api/webhooks/payments`, { method: "POST", headers: { origin: "http://evil.example", "content-type": "application/json" }, body: "{}" });
+    const response = await fetch(`${process.env.E2E_BASE_URL}/api/webhooks/payments`, {
+      method: "POST",
+      headers: { origin: "http://evil.example", "content-type": "application/json" },
+      body: "{}",
+    });
     expect(response.status).toBe(400);
   });
 });

@@ -13,7 +13,6 @@ import { migrator, seeder } from "../../src/db/umzug";
 import { createSequelize } from "../../src/lib/server/db";
 import { freePort } from "../support/ports";
 
-
 /** Runs a script of scripts/ to completion; resolves with its exit code and output. */
 function script(name: string, args: string[]): Promise<{ code: number; output: string }> {
   return new Promise((resolve) => {
@@ -34,7 +33,13 @@ let server: Awaited<ReturnType<typeof startMariadb>> | null = null;
 let sequelize: Sequelize | null = null;
 
 const open = () => {
-  sequelize = createSequelize({ DATABASE_HOST: "127.0.0.1", DATABASE_PORT: port, DATABASE_NAME: credentials.database, DATABASE_USER: credentials.user, DATABASE_PASSWORD: credentials.password });
+  sequelize = createSequelize({
+    DATABASE_HOST: "127.0.0.1",
+    DATABASE_PORT: port,
+    DATABASE_NAME: credentials.database,
+    DATABASE_USER: credentials.user,
+    DATABASE_PASSWORD: credentials.password,
+  });
   return sequelize;
 };
 const close = async () => {
@@ -55,24 +60,41 @@ interface Snapshot {
 
 /** Row counts of every table, the ledger's CHECKSUM TABLE and an ordered hash of its rows, the triggers, the files. */
 async function snapshot(db: Sequelize): Promise<Snapshot> {
-  const tables = (await db.query<{ name: string }>("SELECT table_name AS name FROM information_schema.tables WHERE table_schema = DATABASE() AND table_type = 'BASE TABLE' ORDER BY table_name", { type: QueryTypes.SELECT })).map((t) => t.name);
+  const tables = (
+    await db.query<{ name: string }>(
+      "SELECT table_name AS name FROM information_schema.tables WHERE table_schema = DATABASE() AND table_type = 'BASE TABLE' ORDER BY table_name",
+      { type: QueryTypes.SELECT },
+    )
+  ).map((t) => t.name);
   const counts: Record<string, number> = {};
   for (const table of tables) {
     const [row] = await db.query<{ n: number }>(`SELECT COUNT(*) AS n FROM \`${table}\``, { type: QueryTypes.SELECT });
     counts[table] = Number(row!.n);
   }
   const checksums: Record<string, string> = {};
-  for (const row of await db.query<{ Table: string; Checksum: string | number }>(`CHECKSUM TABLE ${tables.map((t) => `\`${t}\``).join(", ")}`, { type: QueryTypes.SELECT })) {
+  for (const row of await db.query<{ Table: string; Checksum: string | number }>(
+    `CHECKSUM TABLE ${tables.map((t) => `\`${t}\``).join(", ")}`,
+    { type: QueryTypes.SELECT },
+  )) {
     checksums[row.Table.split(".").pop()!] = String(row.Checksum);
   }
   const hash = createHash("sha256");
-  for (const row of await db.query<Record<string, unknown>>("SELECT * FROM ledger_entries ORDER BY id", { type: QueryTypes.SELECT })) hash.update(`${JSON.stringify(row)}\n`);
-  const triggers = (await db.query<{ t: string }>("SELECT CONCAT(event_object_table, ':', trigger_name, ':', action_timing, ' ', event_manipulation) AS t FROM information_schema.triggers WHERE trigger_schema = DATABASE() ORDER BY t", { type: QueryTypes.SELECT })).map((r) => r.t);
+  for (const row of await db.query<Record<string, unknown>>("SELECT * FROM ledger_entries ORDER BY id", { type: QueryTypes.SELECT }))
+    hash.update(`${JSON.stringify(row)}\n`);
+  const triggers = (
+    await db.query<{ t: string }>(
+      "SELECT CONCAT(event_object_table, ':', trigger_name, ':', action_timing, ' ', event_manipulation) AS t FROM information_schema.triggers WHERE trigger_schema = DATABASE() ORDER BY t",
+      { type: QueryTypes.SELECT },
+    )
+  ).map((r) => r.t);
   const files: Record<string, string> = {};
   const walk = (d: string, prefix = "") => {
     for (const entry of readdirSync(d, { withFileTypes: true })) {
       if (entry.isDirectory()) walk(join(d, entry.name), `${prefix}${entry.name}/`);
-      else files[`${prefix}${entry.name}`] = createHash("sha256").update(readFileSync(join(d, entry.name))).digest("hex");
+      else
+        files[`${prefix}${entry.name}`] = createHash("sha256")
+          .update(readFileSync(join(d, entry.name)))
+          .digest("hex");
     }
   };
   if (existsSync(uploads)) walk(uploads);
@@ -88,7 +110,11 @@ beforeAll(async () => {
   await seeder(db).up();
   // A few uploaded certificates, as storage.ts keeps them (key = certificates/<year>/<hex>.<ext>).
   mkdirSync(join(uploads, "certificates", "2026"), { recursive: true });
-  for (const ext of ["pdf", "png", "pdf"]) writeFileSync(join(uploads, "certificates", "2026", `${randomBytes(16).toString("hex")}.${ext}`), randomBytes(20_000 + Math.floor(Math.random() * 5_000)));
+  for (const ext of ["pdf", "png", "pdf"])
+    writeFileSync(
+      join(uploads, "certificates", "2026", `${randomBytes(16).toString("hex")}.${ext}`),
+      randomBytes(20_000 + Math.floor(Math.random() * 5_000)),
+    );
 }, 180_000);
 
 afterAll(async () => {
@@ -101,7 +127,12 @@ describe("npm run backup / npm run restore", () => {
   it("round-trips the demo data: every table's rows, the ledger checksum, the triggers and every uploaded file; rows lost: 0", async () => {
     const before = await snapshot(sequelize!);
     expect(before.counts.ledger_entries).toBeGreaterThan(100);
-    expect(before.triggers).toEqual(expect.arrayContaining(["ledger_entries:ledger_entries_no_update:BEFORE UPDATE", "ledger_entries:ledger_entries_no_delete:BEFORE DELETE"]));
+    expect(before.triggers).toEqual(
+      expect.arrayContaining([
+        "ledger_entries:ledger_entries_no_update:BEFORE UPDATE",
+        "ledger_entries:ledger_entries_no_delete:BEFORE DELETE",
+      ]),
+    );
     expect(Object.keys(before.files)).toHaveLength(3);
 
     // Online backup: the server stays up and the app's connection stays open meanwhile.
@@ -113,8 +144,12 @@ describe("npm run backup / npm run restore", () => {
     expect(archive).toMatch(/decant-decant_backup-\d{8}T\d{6}Z\.tar\.gz$/);
 
     // Life goes on after the backup: a ledger entry, a new user, a changed file, a removed file and a new one.
-    await sequelize!.query("INSERT INTO ledger_entries (occurred_at, kind, reagent_id, volume_ml, source_kind, created_at) VALUES (NOW(3), 'draw', 'water', 5, 'manual', NOW(3))");
-    await sequelize!.query("INSERT INTO users (email, name, role, created_at, updated_at) VALUES ('later@demo.test', 'Added later', 'technician', NOW(), NOW())");
+    await sequelize!.query(
+      "INSERT INTO ledger_entries (occurred_at, kind, reagent_id, volume_ml, source_kind, created_at) VALUES (NOW(3), 'draw', 'water', 5, 'manual', NOW(3))",
+    );
+    await sequelize!.query(
+      "INSERT INTO users (email, name, role, created_at, updated_at) VALUES ('later@demo.test', 'Added later', 'technician', NOW(), NOW())",
+    );
     const [first, second] = Object.keys(before.files);
     writeFileSync(join(uploads, first!), "changed after the backup");
     unlinkSync(join(uploads, second!));
@@ -143,13 +178,17 @@ describe("npm run backup / npm run restore", () => {
     const after = await snapshot(open());
     expect(after).toEqual(before);
     const lost = Object.entries(before.counts).reduce((n, [table, count]) => n + Math.max(0, count - (after.counts[table] ?? 0)), 0);
-    console.log(`backup/restore: ${Object.keys(after.counts).length} tables, ${Object.values(after.counts).reduce((a, b) => a + b, 0)} rows, ${after.counts.ledger_entries} ledger entries (checksum ${after.ledgerChecksum}), ${after.triggers.length} triggers, ${Object.keys(after.files).length} files; rows lost: ${lost}`);
+    console.log(
+      `backup/restore: ${Object.keys(after.counts).length} tables, ${Object.values(after.counts).reduce((a, b) => a + b, 0)} rows, ${after.counts.ledger_entries} ledger entries (checksum ${after.ledgerChecksum}), ${after.triggers.length} triggers, ${Object.keys(after.files).length} files; rows lost: ${lost}`,
+    );
     expect(lost).toBe(0);
 
     // The ledger is still append-only after the restore, for the app's own user.
     await expect(sequelize!.query("UPDATE ledger_entries SET volume_ml = 0 WHERE id = 1")).rejects.toThrow(/append-only/);
     await expect(sequelize!.query("DELETE FROM ledger_entries WHERE id = 1")).rejects.toThrow(/append-only/);
-    const [{ n }] = (await sequelize!.query<{ n: number }>("SELECT COUNT(*) AS n FROM ledger_entries", { type: QueryTypes.SELECT })) as [{ n: number }];
+    const [{ n }] = (await sequelize!.query<{ n: number }>("SELECT COUNT(*) AS n FROM ledger_entries", { type: QueryTypes.SELECT })) as [
+      { n: number },
+    ];
     expect(Number(n)).toBe(before.counts.ledger_entries);
 
     // The safety archive holds what the restore replaced: restoring it brings the later changes back.

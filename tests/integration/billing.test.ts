@@ -98,7 +98,13 @@ describe("invoicing an external client through the SDK and the fake", () => {
     const client = (await Client.findByPk(QUILLFEATHER))!;
     expect(client.paymentsCustomerId).toMatch(/^cus_/);
     const remote = await payments().invoices.retrieve(invoice.providerInvoiceId!);
-    expect(remote).toMatchObject({ status: "open", collection_method: "send_invoice", customer: client.paymentsCustomerId, total: draft.total_minor, days_until_due: 30 });
+    expect(remote).toMatchObject({
+      status: "open",
+      collection_method: "send_invoice",
+      customer: client.paymentsCustomerId,
+      total: draft.total_minor,
+      days_until_due: 30,
+    });
     expect(remote.lines.data.length).toBe(draft.lines.filter((l) => l.amount_minor !== 0).length);
     const events = await fakeJson<{ data: { type: string }[] }>(`/_fake/events?invoice=${invoice.providerInvoiceId}`);
     expect(events.data.map((e) => e.type)).toEqual(["invoice.finalized", "invoice.sent"]);
@@ -127,7 +133,9 @@ describe("invoicing an external client through the SDK and the fake", () => {
   it("a retry after a lost answer reaches the same provider objects (idempotency keys)", async () => {
     const before = await payments().invoices.list({ customer: (await Client.findByPk(QUILLFEATHER))!.paymentsCustomerId!, limit: 100 });
     // Pretend the run's answer was lost after the provider did its work: Decant forgets the result.
-    await db.sequelize.query("UPDATE invoices SET status = 'draft', provider_invoice_id = NULL WHERE id = :id", { replacements: { id: invoiceId } });
+    await db.sequelize.query("UPDATE invoices SET status = 'draft', provider_invoice_id = NULL WHERE id = :id", {
+      replacements: { id: invoiceId },
+    });
     await db.sequelize.query("UPDATE statements SET status = 'draft' WHERE id = :id", { replacements: { id: statementId } });
     await db.sequelize.query("DELETE FROM period_locks WHERE statement_id = :id", { replacements: { id: statementId } });
     const retried = await invoiceStatement(statementId, {}, manager);
@@ -137,12 +145,20 @@ describe("invoicing an external client through the SDK and the fake", () => {
   });
 
   it("the SDK's errors come back in the usual shape", async () => {
-    await expect(payments().invoices.retrieve("in_doesnotexist")).rejects.toMatchObject({ type: "StripeInvalidRequestError", code: "resource_missing", statusCode: 404 });
-    await expect(payments().invoices.create({ customer: "cus_nobody", collection_method: "send_invoice", days_until_due: 30 })).rejects.toMatchObject({ code: "resource_missing", param: "customer" });
+    await expect(payments().invoices.retrieve("in_doesnotexist")).rejects.toMatchObject({
+      type: "StripeInvalidRequestError",
+      code: "resource_missing",
+      statusCode: 404,
+    });
+    await expect(
+      payments().invoices.create({ customer: "cus_nobody", collection_method: "send_invoice", days_until_due: 30 }),
+    ).rejects.toMatchObject({ code: "resource_missing", param: "customer" });
     const key = `it-${Date.now()}`;
     const customer = await payments().customers.create({ name: "Idempotency probe" }, { idempotencyKey: key });
     expect((await payments().customers.create({ name: "Idempotency probe" }, { idempotencyKey: key })).id).toBe(customer.id);
-    await expect(payments().customers.create({ name: "Something else" }, { idempotencyKey: key })).rejects.toBeInstanceOf(Stripe.errors.StripeIdempotencyError);
+    await expect(payments().customers.create({ name: "Something else" }, { idempotencyKey: key })).rejects.toBeInstanceOf(
+      Stripe.errors.StripeIdempotencyError,
+    );
     const wrongKey = createPaymentsClient({ ...getEnv(), PAYMENTS_SECRET_KEY: "sk_test_wrong" });
     await expect(wrongKey.customers.retrieve(customer.id)).rejects.toBeInstanceOf(Stripe.errors.StripeAuthenticationError);
   });
@@ -162,7 +178,9 @@ describe("invoicing an external client through the SDK and the fake", () => {
       const forged = signature.replace(/v1=([0-9a-f])/, (_m, c: string) => `v1=${c === "0" ? "1" : "0"}`);
       await expect(handlePaymentsWebhook(payload, forged)).rejects.toMatchObject({ status: 400 });
       await expect(handlePaymentsWebhook(payload, null)).rejects.toMatchObject({ status: 400 });
-      await expect(handlePaymentsWebhook(payload.replace('"invoice.paid"', '"invoice.voided"'), signature)).rejects.toBeInstanceOf(HttpError);
+      await expect(handlePaymentsWebhook(payload.replace('"invoice.paid"', '"invoice.voided"'), signature)).rejects.toBeInstanceOf(
+        HttpError,
+      );
       expect(await ProcessedEvent.count()).toBe(processed);
       expect(await status()).toBe("open");
     });
@@ -188,10 +206,18 @@ describe("invoicing an external client through the SDK and the fake", () => {
 
     it("the app's route answers 400 naming the header for unsigned and forged requests", async () => {
       const anonymous = await httpClient();
-      const unsigned = await anonymous.fetch("/api/webhooks/payments", { method: "POST", headers: { "content-type": "application/json" }, body: "{}" });
+      const unsigned = await anonymous.fetch("/api/webhooks/payments", {
+        method: "POST",
+        headers: { "content-type": "application/json" },
+        body: "{}",
+      });
       expect(unsigned.status).toBe(400);
       expect((await unsigned.json()).error).toMatch(/Stripe-Signature/);
-      const forged = await anonymous.fetch("/api/webhooks/payments", { method: "POST", headers: { "content-type": "application/json", "stripe-signature": `t=${Math.floor(Date.now() / 1000)},v1=${"0".repeat(64)}` }, body: '{"id":"evt_x","type":"invoice.paid"}' });
+      const forged = await anonymous.fetch("/api/webhooks/payments", {
+        method: "POST",
+        headers: { "content-type": "application/json", "stripe-signature": `t=${Math.floor(Date.now() / 1000)},v1=${"0".repeat(64)}` },
+        body: '{"id":"evt_x","type":"invoice.paid"}',
+      });
       expect(forged.status).toBe(400);
     });
   });
@@ -219,7 +245,11 @@ describe("internal chargeback and period locks", () => {
     await expect(issueStatement(id, { expectedTotal_minor: draft.total_minor + 1 }, manager)).rejects.toMatchObject({ status: 409 });
     await issueStatement(id, { expectedTotal_minor: draft.total_minor }, manager);
     const journal = await chargebackJournal(period.periodStart, period.periodEnd);
-    const rows = journal.text.trimEnd().split("\r\n").slice(1).map((r) => r.split(","));
+    const rows = journal.text
+      .trimEnd()
+      .split("\r\n")
+      .slice(1)
+      .map((r) => r.split(","));
     const mine = rows.filter((r) => r[0] === "CC-4102");
     expect(mine.length).toBeGreaterThan(0);
     const cents = mine.reduce((s, r) => s + Math.round(Number(r[2]) * 100), 0);
@@ -234,7 +264,9 @@ describe("internal chargeback and period locks", () => {
     expect(await isPeriodLocked(PLANT_GROUP, earlier.periodStart)).toBe(false);
     expect(await isPeriodLocked(2, mid)).toBe(false);
     const relocated = await openDateFor(PLANT_GROUP, mid);
-    expect(relocated.toISOString()).toBe(`${monthBounds(new Date(Date.UTC(now.getUTCFullYear(), now.getUTCMonth(), 1)).toISOString().slice(0, 7)).periodStart}T00:00:00.000Z`);
+    expect(relocated.toISOString()).toBe(
+      `${monthBounds(new Date(Date.UTC(now.getUTCFullYear(), now.getUTCMonth(), 1)).toISOString().slice(0, 7)).periodStart}T00:00:00.000Z`,
+    );
     expect((await openDateFor(2, mid)).getTime()).toBe(mid.getTime());
 
     // A correction of 100 mL of acetonitrile, dated where the lock sends it.
@@ -251,26 +283,61 @@ describe("internal chargeback and period locks", () => {
 
   it("a price change never changes an issued statement, and cannot reach back into an issued period", async () => {
     const before = await getStatement(statementId, manager);
-    await addRate({ kind: "reagent", reagentId: "acetonitrile", priceList: "internal", unit: "L", amount_minor: 9_999, currency: "EUR", effectiveFrom: new Date().toISOString().slice(0, 10) }, manager);
+    await addRate(
+      {
+        kind: "reagent",
+        reagentId: "acetonitrile",
+        priceList: "internal",
+        unit: "L",
+        amount_minor: 9_999,
+        currency: "EUR",
+        effectiveFrom: new Date().toISOString().slice(0, 10),
+      },
+      manager,
+    );
     expect(await getStatement(statementId, manager)).toEqual(before);
-    await expect(addRate({ kind: "reagent", reagentId: "acetonitrile", priceList: "internal", unit: "L", amount_minor: 1, currency: "EUR", effectiveFrom: period.periodStart }, manager)).rejects.toThrow(/effectiveFrom/);
+    await expect(
+      addRate(
+        {
+          kind: "reagent",
+          reagentId: "acetonitrile",
+          priceList: "internal",
+          unit: "L",
+          amount_minor: 1,
+          currency: "EUR",
+          effectiveFrom: period.periodStart,
+        },
+        manager,
+      ),
+    ).rejects.toThrow(/effectiveFrom/);
   });
 });
 
 describe("through the running app: invoice, pay on the hosted page, webhook marks it paid", () => {
   it("an external client's invoice is paid at the fake and Decant shows it paid", async () => {
     const manager = await httpClient("manager@demo.test");
-    const opened = await manager.fetch("/api/statements", { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify({ clientId: TARNBROOK, ...earlier }) });
+    const opened = await manager.fetch("/api/statements", {
+      method: "POST",
+      headers: { "content-type": "application/json" },
+      body: JSON.stringify({ clientId: TARNBROOK, ...earlier }),
+    });
     expect([200, 201]).toContain(opened.status);
     const { id } = (await opened.json()) as { id: number };
     const draft = (await (await manager.fetch(`/api/statements/${id}`)).json()) as { total_minor: number };
     // Two clicks at once: one invoice.
-    const send = () => manager.fetch(`/api/statements/${id}/invoice`, { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify({ expectedTotal_minor: draft.total_minor }) });
+    const send = () =>
+      manager.fetch(`/api/statements/${id}/invoice`, {
+        method: "POST",
+        headers: { "content-type": "application/json" },
+        body: JSON.stringify({ expectedTotal_minor: draft.total_minor }),
+      });
     const answers = await Promise.all([send(), send()]);
     expect(answers.map((a) => a.status).sort()).toEqual([200, 201]);
     const { invoice } = (await answers[0]!.json()) as { invoice: { providerInvoiceId: string; hostedUrl: string; status: string } };
     expect(invoice.status).toBe("open");
-    const atFake = await fakeJson<{ data: unknown[] }>(`/_fake/invoices?metadata[decant_statement_id]=${id}&metadata[decant_client_id]=${TARNBROOK}`);
+    const atFake = await fakeJson<{ data: unknown[] }>(
+      `/_fake/invoices?metadata[decant_statement_id]=${id}&metadata[decant_client_id]=${TARNBROOK}`,
+    );
     expect(atFake.data.filter((i) => (i as { id: string }).id === invoice.providerInvoiceId).length).toBe(1);
 
     // The client pays on the hosted page (a form post, as the browser does).
@@ -283,7 +350,9 @@ describe("through the running app: invoice, pay on the hosted page, webhook mark
     }
     expect(status).toBe("paid");
     // The fake delivered each event once and Decant accepted it.
-    const events = await fakeJson<{ data: { type: string; delivery: { delivered: boolean; last_status: number } }[] }>(`/_fake/events?invoice=${invoice.providerInvoiceId}`);
+    const events = await fakeJson<{ data: { type: string; delivery: { delivered: boolean; last_status: number } }[] }>(
+      `/_fake/events?invoice=${invoice.providerInvoiceId}`,
+    );
     expect(events.data.map((e) => e.type)).toEqual(["invoice.finalized", "invoice.sent", "invoice.payment_succeeded", "invoice.paid"]);
     expect(events.data.every((e) => e.delivery.delivered && e.delivery.last_status === 200)).toBe(true);
   });

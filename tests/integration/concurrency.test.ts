@@ -15,7 +15,8 @@ let tech: Client;
 let manager: Client;
 let sequelize: ReturnType<typeof createSequelize>;
 
-const postJson = (c: Client, path: string, body: unknown) => c.fetch(path, { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify(body) });
+const postJson = (c: Client, path: string, body: unknown) =>
+  c.fetch(path, { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify(body) });
 const at = <T>(n: number, make: (i: number) => Promise<T>) => Promise.all(Array.from({ length: n }, (_, i) => make(i)));
 const count = (statuses: number[]) => statuses.reduce<Record<number, number>>((m, s) => ({ ...m, [s]: (m[s] ?? 0) + 1 }), {});
 async function one<T extends object>(query: string, replacements: unknown[]): Promise<T> {
@@ -34,7 +35,9 @@ afterAll(async () => {
 });
 
 async function usableLot(reagent: string): Promise<number> {
-  const body = (await (await tech.fetch(`/api/stock-lots?reagent=${reagent}`)).json()) as { items: { id: number; usable: boolean; remaining: number }[] };
+  const body = (await (await tech.fetch(`/api/stock-lots?reagent=${reagent}`)).json()) as {
+    items: { id: number; usable: boolean; remaining: number }[];
+  };
   const lot = body.items.filter((l) => l.usable).sort((a, b) => b.remaining - a.remaining)[0];
   if (!lot) throw new Error(`no usable ${reagent} lot in the demo data`);
   return lot.id;
@@ -51,8 +54,16 @@ let organicBatch: BatchAnswer["batch"];
 describe("20 identical submissions at once", () => {
   it("record one batch (one idempotency key): 1 × 201, 19 × 200 with the same batch", async () => {
     const payload = {
-      idempotencyKey: `conc-batch-${unique}`, recipeVersionId: 1, volume_mL: 3000, bottles: 3, bottleSize_mL: 1000, temperature_C: 22,
-      components: [{ reagent: "water", stockLotId: await usableLot("water"), actualAmount: 3000 }, { reagent: "formic-acid", stockLotId: await usableLot("formic-acid"), actualAmount: 3.0 }],
+      idempotencyKey: `conc-batch-${unique}`,
+      recipeVersionId: 1,
+      volume_mL: 3000,
+      bottles: 3,
+      bottleSize_mL: 1000,
+      temperature_C: 22,
+      components: [
+        { reagent: "water", stockLotId: await usableLot("water"), actualAmount: 3000 },
+        { reagent: "formic-acid", stockLotId: await usableLot("formic-acid"), actualAmount: 3.0 },
+      ],
     };
     const answers = await at(20, () => postJson(tech, "/api/batches", payload));
     const bodies = (await Promise.all(answers.map((a) => a.json()))) as BatchAnswer[];
@@ -66,24 +77,43 @@ describe("20 identical submissions at once", () => {
     expect(Number(bottles.n)).toBe(3);
     const ledger = await one<{ n: number }>("SELECT COUNT(*) AS n FROM ledger_entries WHERE source_id = ?", [`batch:${waterBatch.id}`]);
     expect(Number(ledger.n)).toBe(2);
-    console.log(`batch: 20 submissions → ${rows.n} batch recorded (${waterBatch.code}), ${bottles.n} bottles, ${ledger.n} preparation entries`);
+    console.log(
+      `batch: 20 submissions → ${rows.n} batch recorded (${waterBatch.code}), ${bottles.n} bottles, ${ledger.n} preparation entries`,
+    );
   });
 
   it("record one run (one idempotency key): 1 × 201, 19 replayed, the batches drawn once", async () => {
     const made = await postJson(tech, "/api/batches", {
-      idempotencyKey: `conc-batch-b-${unique}`, recipeVersionId: 2, volume_mL: 2000, bottles: 2, bottleSize_mL: 1000, temperature_C: 22,
-      components: [{ reagent: "acetonitrile", stockLotId: await usableLot("acetonitrile"), actualAmount: 2000 }, { reagent: "formic-acid", stockLotId: await usableLot("formic-acid"), actualAmount: 2.0 }],
+      idempotencyKey: `conc-batch-b-${unique}`,
+      recipeVersionId: 2,
+      volume_mL: 2000,
+      bottles: 2,
+      bottleSize_mL: 1000,
+      temperature_C: 22,
+      components: [
+        { reagent: "acetonitrile", stockLotId: await usableLot("acetonitrile"), actualAmount: 2000 },
+        { reagent: "formic-acid", stockLotId: await usableLot("formic-acid"), actualAmount: 2.0 },
+      ],
     });
     expect(made.status).toBe(201);
     organicBatch = ((await made.json()) as BatchAnswer).batch;
-    const remaining = async (id: number) => Number((await one<{ r: string }>("SELECT remaining_ml AS r FROM batches WHERE id = ?", [id])).r);
+    const remaining = async (id: number) =>
+      Number((await one<{ r: string }>("SELECT remaining_ml AS r FROM batches WHERE id = ?", [id])).r);
     const before = { A: await remaining(waterBatch.id), B: await remaining(organicBatch.id) };
     const payload = {
-      instrumentId: 1, methodId: 1, projectId: 1, injections: 2, channelBatches: { A: waterBatch.id, B: organicBatch.id },
-      startedAt: new Date(Date.now() + 60_000).toISOString(), idempotencyKey: `conc-run-${unique}`,
+      instrumentId: 1,
+      methodId: 1,
+      projectId: 1,
+      injections: 2,
+      channelBatches: { A: waterBatch.id, B: organicBatch.id },
+      startedAt: new Date(Date.now() + 60_000).toISOString(),
+      idempotencyKey: `conc-run-${unique}`,
     };
     const answers = await at(20, () => postJson(tech, "/api/runs", payload));
-    const bodies = (await Promise.all(answers.map((a) => a.json()))) as { run: { id: number; channelVolumes_mL: Record<string, number> }; replayed: boolean }[];
+    const bodies = (await Promise.all(answers.map((a) => a.json()))) as {
+      run: { id: number; channelVolumes_mL: Record<string, number> };
+      replayed: boolean;
+    }[];
     expect(count(answers.map((a) => a.status))).toEqual({ 201: 1, 200: 19 });
     expect(new Set(bodies.map((b) => b.run.id)).size).toBe(1);
     expect(bodies.filter((b) => !b.replayed)).toHaveLength(1);
@@ -108,7 +138,11 @@ describe("20 identical submissions at once", () => {
       const opened = await postJson(manager, "/api/statements", { clientId, ...period });
       if (opened.status !== 200 && opened.status !== 201) continue;
       const { id } = (await opened.json()) as { id: number };
-      const draft = (await (await manager.fetch(`/api/statements/${id}`)).json()) as { status: string; total_minor: number; blocker: string | null };
+      const draft = (await (await manager.fetch(`/api/statements/${id}`)).json()) as {
+        status: string;
+        total_minor: number;
+        blocker: string | null;
+      };
       if (draft.status === "draft" && draft.blocker === null) {
         chosen = { id, clientId, total: draft.total_minor };
         break;
@@ -117,7 +151,9 @@ describe("20 identical submissions at once", () => {
     expect(chosen, `an external client's draft for ${month} that can be invoiced`).not.toBeNull();
     const { id, total } = chosen!;
     const answers = await at(20, () => postJson(manager, `/api/statements/${id}/invoice`, { expectedTotal_minor: total }));
-    const bodies = (await Promise.all(answers.map((a) => a.json()))) as { invoice: { id: number; providerInvoiceId: string; status: string; amount_minor: number } }[];
+    const bodies = (await Promise.all(answers.map((a) => a.json()))) as {
+      invoice: { id: number; providerInvoiceId: string; status: string; amount_minor: number };
+    }[];
     expect(count(answers.map((a) => a.status))).toEqual({ 201: 1, 200: 19 });
     expect(new Set(bodies.map((b) => b.invoice.id)).size).toBe(1);
     const invoice = bodies[0]!.invoice;
@@ -130,10 +166,14 @@ describe("20 identical submissions at once", () => {
     // invoices are the ones of the customer it stored.
     const stored = await one<{ customer: string }>("SELECT provider_customer_id AS customer FROM invoices WHERE statement_id = ?", [id]);
     const fake = `http://127.0.0.1:${getEnv().PAYMENTS_PORT}`;
-    const listed = (await (await fetch(`${fake}/_fake/invoices?metadata[decant_statement_id]=${id}&metadata[decant_client_id]=${chosen!.clientId}`)).json()) as { data: { id: string; customer: string }[] };
+    const listed = (await (
+      await fetch(`${fake}/_fake/invoices?metadata[decant_statement_id]=${id}&metadata[decant_client_id]=${chosen!.clientId}`)
+    ).json()) as { data: { id: string; customer: string }[] };
     const atProvider = listed.data.filter((i) => i.customer === stored.customer);
     expect(atProvider.map((i) => i.id)).toEqual([invoice.providerInvoiceId]);
-    console.log(`invoice: 20 submissions → ${rows.n} invoice in Decant, ${atProvider.length} at the payments service, ${locks.n} period lock`);
+    console.log(
+      `invoice: 20 submissions → ${rows.n} invoice in Decant, ${atProvider.length} at the payments service, ${locks.n} period lock`,
+    );
   });
 });
 
@@ -143,10 +183,25 @@ describe("50 simultaneous draws from one batch", () => {
     // 50 × 80 mL asks for more than the batch holds, so some must be refused.
     const volume = 80;
     expect(50 * volume).toBeGreaterThan(initial);
-    const answers = await at(50, (i) => postJson(tech, "/api/draws", { batchId: waterBatch.id, volume_mL: volume, purpose: "transfer", note: `concurrency ${i}`, idempotencyKey: `conc-draw-${unique}-${i}` }));
-    const bodies = (await Promise.all(answers.map((a) => a.json()))) as { remaining_mL?: number; error?: string; fields?: Record<string, string> }[];
+    const answers = await at(50, (i) =>
+      postJson(tech, "/api/draws", {
+        batchId: waterBatch.id,
+        volume_mL: volume,
+        purpose: "transfer",
+        note: `concurrency ${i}`,
+        idempotencyKey: `conc-draw-${unique}-${i}`,
+      }),
+    );
+    const bodies = (await Promise.all(answers.map((a) => a.json()))) as {
+      remaining_mL?: number;
+      error?: string;
+      fields?: Record<string, string>;
+    }[];
     const statuses = answers.map((a) => a.status);
-    expect(statuses.filter((s) => s >= 500), JSON.stringify(bodies.filter((_, i) => statuses[i]! >= 500))).toEqual([]);
+    expect(
+      statuses.filter((s) => s >= 500),
+      JSON.stringify(bodies.filter((_, i) => statuses[i]! >= 500)),
+    ).toEqual([]);
     const accepted = statuses.filter((s) => s === 201).length;
     const refused = answers.map((a, i) => ({ status: a.status, body: bodies[i]! })).filter((a) => a.status !== 201);
     for (const r of refused) {
@@ -158,9 +213,14 @@ describe("50 simultaneous draws from one batch", () => {
     const final = Number((await one<{ r: string }>("SELECT remaining_ml AS r FROM batches WHERE id = ?", [waterBatch.id])).r);
     expect(final).toBeCloseTo(initial - accepted * volume, 4);
     expect(final).toBeGreaterThanOrEqual(0);
-    const drawn = await one<{ v: string; n: number }>("SELECT COALESCE(SUM(volume_ml), 0) AS v, COUNT(DISTINCT source_id) AS n FROM ledger_entries WHERE kind = 'draw' AND source_id LIKE ?", [`draw:conc-draw-${unique}-%`]);
+    const drawn = await one<{ v: string; n: number }>(
+      "SELECT COALESCE(SUM(volume_ml), 0) AS v, COUNT(DISTINCT source_id) AS n FROM ledger_entries WHERE kind = 'draw' AND source_id LIKE ?",
+      [`draw:conc-draw-${unique}-%`],
+    );
     expect(Number(drawn.n)).toBe(accepted);
     expect(Number(drawn.v)).toBeCloseTo(accepted * volume, 3);
-    console.log(`draws: 50 at once from ${initial} mL → ${accepted} accepted (${accepted * volume} mL), ${refused.length} refused with 400, ${final} mL left = ${initial} − ${accepted * volume}; 5xx: 0`);
+    console.log(
+      `draws: 50 at once from ${initial} mL → ${accepted} accepted (${accepted * volume} mL), ${refused.length} refused with 400, ${final} mL left = ${initial} − ${accepted * volume}; 5xx: 0`,
+    );
   });
 });

@@ -22,7 +22,10 @@ describe("the daily expiry digest", () => {
     const third = await runExpiryDigest({ now: new Date(now.getTime() + 60_000), send });
 
     expect([first.ran, second.ran, third.ran].filter(Boolean)).toHaveLength(1);
-    const technicians = await db.sequelize.query<{ email: string }>("SELECT email FROM users WHERE role = 'technician' AND active = 1 ORDER BY email", { type: QueryTypes.SELECT });
+    const technicians = await db.sequelize.query<{ email: string }>(
+      "SELECT email FROM users WHERE role = 'technician' AND active = 1 ORDER BY email",
+      { type: QueryTypes.SELECT },
+    );
     expect(sent.map((m) => m.to).sort()).toEqual(technicians.map((t) => t.email));
     for (const mail of sent) {
       for (const { code } of due) {

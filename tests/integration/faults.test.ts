@@ -20,10 +20,14 @@ import { freePort } from "../support/ports";
 const DAY = 86_400_000;
 const DB = "decant_faults";
 
-
 const sleep = (ms: number) => new Promise((r) => setTimeout(r, ms));
 
-async function until<T>(what: string, probe: () => T | null | undefined | false | Promise<T | null | undefined | false>, timeoutMs = 20_000, everyMs = 50): Promise<T> {
+async function until<T>(
+  what: string,
+  probe: () => T | null | undefined | false | Promise<T | null | undefined | false>,
+  timeoutMs = 20_000,
+  everyMs = 50,
+): Promise<T> {
   const deadline = Date.now() + timeoutMs;
   for (;;) {
     const value = await probe();
@@ -37,7 +41,12 @@ async function until<T>(what: string, probe: () => T | null | undefined | false 
 class Child {
   output = "";
   readonly process: ChildProcess;
-  constructor(readonly name: string, command: string, args: string[], env: NodeJS.ProcessEnv) {
+  constructor(
+    readonly name: string,
+    command: string,
+    args: string[],
+    env: NodeJS.ProcessEnv,
+  ) {
     this.process = spawn(command, args, { env, stdio: ["ignore", "pipe", "pipe"] });
     const keep = (chunk: Buffer) => {
       this.output = (this.output + chunk.toString()).slice(-20_000);
@@ -87,7 +96,19 @@ let faultsSurvived = 0;
 
 /** SQL as the server's root over its socket, independent of the app and its pool; never waits long. */
 function sql(query: string): string {
-  const r = spawnSync(server!.bins.client!, ["--no-defaults", `--socket=${server!.paths.socket}`, "-uroot", "--batch", "--skip-column-names", "-e", `SET SESSION lock_wait_timeout = 5; ${query}`], { encoding: "utf8", timeout: 15_000 });
+  const r = spawnSync(
+    server!.bins.client!,
+    [
+      "--no-defaults",
+      `--socket=${server!.paths.socket}`,
+      "-uroot",
+      "--batch",
+      "--skip-column-names",
+      "-e",
+      `SET SESSION lock_wait_timeout = 5; ${query}`,
+    ],
+    { encoding: "utf8", timeout: 15_000 },
+  );
   if (r.status !== 0) throw new Error(`SQL failed (${r.error?.message ?? r.status}): ${r.stderr}`);
   return r.stdout;
 }
@@ -95,14 +116,24 @@ function sql(query: string): string {
 /** One line of figures, read beside the app. */
 function figures() {
   const [runs, ledger, imports, audit, remaining, invoices, locks, statements, customer] = sql(
-      `SELECT (SELECT COUNT(*) FROM ${DB}.runs), (SELECT COUNT(*) FROM ${DB}.ledger_entries), (SELECT COUNT(*) FROM ${DB}.imports),
+    `SELECT (SELECT COUNT(*) FROM ${DB}.runs), (SELECT COUNT(*) FROM ${DB}.ledger_entries), (SELECT COUNT(*) FROM ${DB}.imports),
               (SELECT COUNT(*) FROM ${DB}.audit_log), (SELECT SUM(remaining_ml) FROM ${DB}.batches), (SELECT COUNT(*) FROM ${DB}.invoices),
               (SELECT COUNT(*) FROM ${DB}.period_locks), (SELECT GROUP_CONCAT(CONCAT(id, ':', status) ORDER BY id) FROM ${DB}.statements),
               (SELECT COALESCE(payments_customer_id, '-') FROM ${DB}.clients WHERE id = 4)`,
-    )
+  )
     .trim()
     .split("\t");
-  return { runs: Number(runs), ledger: Number(ledger), imports: Number(imports), audit: Number(audit), remaining_mL: Number(remaining), invoices: Number(invoices), periodLocks: Number(locks), statements, customer };
+  return {
+    runs: Number(runs),
+    ledger: Number(ledger),
+    imports: Number(imports),
+    audit: Number(audit),
+    remaining_mL: Number(remaining),
+    invoices: Number(invoices),
+    periodLocks: Number(locks),
+    statements,
+    customer,
+  };
 }
 
 /** The app's transaction that has written rows and not committed, with what its connection is doing. */
@@ -151,7 +182,13 @@ beforeAll(async () => {
   paymentsBase = `http://127.0.0.1:${paymentsPort}`;
   server = await startMariadb({ dataDir: join(dir, "mariadb"), port: dbPort });
   ensureAppUser(server, credentials);
-  const sequelize = createSequelize({ DATABASE_HOST: "127.0.0.1", DATABASE_PORT: dbPort, DATABASE_NAME: DB, DATABASE_USER: credentials.user, DATABASE_PASSWORD: credentials.password });
+  const sequelize = createSequelize({
+    DATABASE_HOST: "127.0.0.1",
+    DATABASE_PORT: dbPort,
+    DATABASE_NAME: DB,
+    DATABASE_USER: credentials.user,
+    DATABASE_PASSWORD: credentials.password,
+  });
   await migrator(sequelize).up();
   await seeder(sequelize).up();
   await sequelize.close();
@@ -184,16 +221,47 @@ beforeAll(async () => {
     UPLOAD_DIR: join(dir, "uploads"),
   };
   // The fakes run in one process each (node --import tsx), so SIGSTOP pauses exactly the fake.
-  payments = new Child("payments fake", process.execPath, ["--import", "tsx", "fakes/payments/server.ts"], { ...env, FAKE_PORT: String(paymentsPort) });
-  const smtp = new Child("smtp fake", process.execPath, ["--import", "tsx", "fakes/smtp/server.ts"], { ...env, FAKE_PORT: String(smtpPort) });
+  payments = new Child("payments fake", process.execPath, ["--import", "tsx", "fakes/payments/server.ts"], {
+    ...env,
+    FAKE_PORT: String(paymentsPort),
+  });
+  const smtp = new Child("smtp fake", process.execPath, ["--import", "tsx", "fakes/smtp/server.ts"], {
+    ...env,
+    FAKE_PORT: String(smtpPort),
+  });
   app = new Child("app", ...appServerCommand(outDir), env);
   children.push(payments, smtp, app);
-  await until("the fakes", async () => (await fetch(`${paymentsBase}/_fake/health`).then((r) => r.ok, () => false)) && payments.alive && smtp.alive, 30_000, 200);
-  await until("the app", async () => (await health().then((h) => h.status === 200, () => false)) || (!app.alive && Promise.reject(new Error(`the app exited:\n${app.output}`))), 30_000, 200);
+  await until(
+    "the fakes",
+    async () =>
+      (await fetch(`${paymentsBase}/_fake/health`).then(
+        (r) => r.ok,
+        () => false,
+      )) &&
+      payments.alive &&
+      smtp.alive,
+    30_000,
+    200,
+  );
+  await until(
+    "the app",
+    async () =>
+      (await health().then(
+        (h) => h.status === 200,
+        () => false,
+      )) ||
+      (!app.alive && Promise.reject(new Error(`the app exited:\n${app.output}`))),
+    30_000,
+    200,
+  );
 
   const signIn = async (email: string) => {
     const c = httpClient(base);
-    const r = await c("/api/auth/sign-in", { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify({ email, password: "decant-demo" }) });
+    const r = await c("/api/auth/sign-in", {
+      method: "POST",
+      headers: { "content-type": "application/json" },
+      body: JSON.stringify({ email, password: "decant-demo" }),
+    });
     if (r.status !== 200) throw new Error(`sign-in as ${email} answered ${r.status}`);
     return c;
   };
@@ -205,7 +273,9 @@ afterAll(async () => {
   for (const child of [...children].reverse()) await child.stop();
   await server?.stop();
   rmSync(dir, { recursive: true, force: true });
-  console.log(`database faults: ${faultsSurvived} of 2 survived by one app process without a restart (each with 0 rows lost or half-written)`);
+  console.log(
+    `database faults: ${faultsSurvived} of 2 survived by one app process without a restart (each with 0 rows lost or half-written)`,
+  );
 });
 
 /** The app's output, for a failing expectation's message. */
@@ -216,14 +286,21 @@ describe("the database stops under the app", () => {
   const file = () => {
     const line = (i: number) => {
       const values: Record<string, string> = {
-        run_reference: `FAULT-${String(i).padStart(4, "0")}`, instrument: "Wren", method: "Scout gradient 5–95 % B, 12 min", project: "PMG-ROOT-26",
-        started_at: new Date(Date.now() - 10 * DAY + i * 600_000).toISOString().slice(0, 16), injections: "1", batch_A: "B26-1103", batch_B: "B26-1104",
+        run_reference: `FAULT-${String(i).padStart(4, "0")}`,
+        instrument: "Wren",
+        method: "Scout gradient 5–95 % B, 12 min",
+        project: "PMG-ROOT-26",
+        started_at: new Date(Date.now() - 10 * DAY + i * 600_000).toISOString().slice(0, 16),
+        injections: "1",
+        batch_A: "B26-1103",
+        batch_B: "B26-1104",
       };
       return RUN_LOG_HEADER.map((c) => (values[c]?.includes(",") ? `"${values[c]}"` : (values[c] ?? ""))).join(",");
     };
     return `${RUN_LOG_HEADER.join(",")}\r\n${Array.from({ length: rows }, (_, i) => line(i)).join("\r\n")}\r\n`;
   };
-  const commit = (content: string) => tech("/api/imports?mode=commit&fileName=faults.csv", { method: "POST", headers: { "content-type": "text/csv" }, body: content });
+  const commit = (content: string) =>
+    tech("/api/imports?mode=commit&fileName=faults.csv", { method: "POST", headers: { "content-type": "text/csv" }, body: content });
 
   it(`mariadbd killed (SIGKILL) in the middle of committing a ${rows}-run import: 503, nothing written, then the same file imports once`, async () => {
     await databaseUp();
@@ -232,7 +309,11 @@ describe("the database stops under the app", () => {
 
     // Hold the audit log so the import's transaction stops just before its last write, with its runs,
     // ledger entries and batch volumes written but not committed; then kill the server under it.
-    const holder = spawn(server!.bins.client!, ["--no-defaults", `--socket=${server!.paths.socket}`, "-uroot", "--batch", "--skip-column-names", "--unbuffered", DB], { stdio: ["pipe", "pipe", "ignore"] });
+    const holder = spawn(
+      server!.bins.client!,
+      ["--no-defaults", `--socket=${server!.paths.socket}`, "-uroot", "--batch", "--skip-column-names", "--unbuffered", DB],
+      { stdio: ["pipe", "pipe", "ignore"] },
+    );
     let open!: NonNullable<ReturnType<typeof openAppTransaction>>;
     let pending!: Promise<Response | Error>;
     try {
@@ -300,7 +381,9 @@ describe("the database stops under the app", () => {
     expect(figures().runs).toBe(after.runs);
     expect(app.alive, appLog()).toBe(true);
     faultsSurvived++;
-    console.log(`import fault: the import's transaction had ${open.rows} row changes uncommitted (its runs, ledger entries and batch volumes; ${open.state.toLowerCase()} at "${open.query}…") when mariadbd was killed; after crash recovery 0 were left; the retry wrote ${rows} runs and ${report.entries} ledger entries, once`);
+    console.log(
+      `import fault: the import's transaction had ${open.rows} row changes uncommitted (its runs, ledger entries and batch volumes; ${open.state.toLowerCase()} at "${open.query}…") when mariadbd was killed; after crash recovery 0 were left; the retry wrote ${rows} runs and ${report.entries} ledger entries, once`,
+    );
   }, 120_000);
 
   it("mariadbd shut down (SIGTERM) in the middle of an invoice run: 503, nothing written, then one invoice at the provider and in Decant", async () => {
@@ -309,13 +392,22 @@ describe("the database stops under the app", () => {
     const month = new Date(Date.UTC(now.getUTCFullYear(), now.getUTCMonth() - 1, 1));
     const periodStart = month.toISOString().slice(0, 10);
     const periodEnd = new Date(Date.UTC(month.getUTCFullYear(), month.getUTCMonth() + 1, 0)).toISOString().slice(0, 10);
-    const opened = await manager("/api/statements", { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify({ clientId: 4, periodStart, periodEnd }) });
+    const opened = await manager("/api/statements", {
+      method: "POST",
+      headers: { "content-type": "application/json" },
+      body: JSON.stringify({ clientId: 4, periodStart, periodEnd }),
+    });
     expect(opened.status, appLog()).toBe(201);
     const { id } = (await opened.json()) as { id: number };
     const draft = (await (await manager(`/api/statements/${id}`)).json()) as { total_minor: number; blocker: string | null };
     expect(draft.blocker).toBeNull();
     expect(draft.total_minor).toBeGreaterThan(0);
-    const send = () => manager(`/api/statements/${id}/invoice`, { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify({ expectedTotal_minor: draft.total_minor }) });
+    const send = () =>
+      manager(`/api/statements/${id}/invoice`, {
+        method: "POST",
+        headers: { "content-type": "application/json" },
+        body: JSON.stringify({ expectedTotal_minor: draft.total_minor }),
+      });
     const before = figures();
 
     // Pause the payments service so the run waits on it with its writes (statement issued, period
@@ -326,7 +418,10 @@ describe("the database stops under the app", () => {
     try {
       pending = send();
       let early: Response | null = null;
-      void pending.then((r) => (early = r), () => undefined);
+      void pending.then(
+        (r) => (early = r),
+        () => undefined,
+      );
       open = await until("the invoice run's open transaction", () => {
         if (early) throw new Error(`the invoice run answered before the fault: ${(early as Response).status}\n${appLog()}`);
         const trx = openAppTransaction();
@@ -358,10 +453,14 @@ describe("the database stops under the app", () => {
     expect(after.invoices - before.invoices).toBe(1);
     expect(after.periodLocks - before.periodLocks).toBe(1);
     // The first attempt's provider calls and the retry's share idempotency keys: one invoice there too.
-    const atProvider = (await (await fetch(`${paymentsBase}/_fake/invoices?metadata[decant_statement_id]=${id}`)).json()) as { data: { id: string; status: string }[] };
+    const atProvider = (await (await fetch(`${paymentsBase}/_fake/invoices?metadata[decant_statement_id]=${id}`)).json()) as {
+      data: { id: string; status: string }[];
+    };
     expect(atProvider.data.map((i) => i.id)).toEqual([invoice.providerInvoiceId]);
     expect(app.alive, appLog()).toBe(true);
     faultsSurvived++;
-    console.log(`invoice fault: ${open!.rows} rows written and not committed when mariadbd shut down; after restart 0 were left; the retry sent 1 invoice (${atProvider.data.length} at the provider)`);
+    console.log(
+      `invoice fault: ${open!.rows} rows written and not committed when mariadbd shut down; after restart 0 were left; the retry sent 1 invoice (${atProvider.data.length} at the provider)`,
+    );
   }, 120_000);
 });

@@ -11,14 +11,30 @@ import type { ZodTypeAny } from "zod";
 import { beforeAll, describe, expect, it } from "vitest";
 import { can, canAtLeastOwn, type Role } from "../../src/lib/permissions";
 import { databaseFingerprint, useAppInstance } from "../support/app-instance";
-import { asParsed, BAD_IDS, describeSchema, extremeObject, malformedBody, malformedQuery, toJsonText, type BodyPayload, type Shape } from "../support/fuzz";
+import {
+  asParsed,
+  BAD_IDS,
+  describeSchema,
+  extremeObject,
+  malformedBody,
+  malformedQuery,
+  toJsonText,
+  type BodyPayload,
+  type Shape,
+} from "../support/fuzz";
 import type { Client } from "../support/http";
 import { ROUTE_RULES, SAMPLE_TABLES, type Access, type Method, type SampleKind, type Samples } from "./route-rules";
 
 const RUNS = Number(process.env.FUZZ_RUNS ?? 200);
 const SEED = Number(process.env.FUZZ_SEED ?? 20261201);
 const API_DIR = "src/pages/api";
-const DEMO: Record<Role, string> = { admin: "admin@demo.test", manager: "manager@demo.test", technician: "tech@demo.test", safety: "safety@demo.test", client: "client@demo.test" };
+const DEMO: Record<Role, string> = {
+  admin: "admin@demo.test",
+  manager: "manager@demo.test",
+  technician: "tech@demo.test",
+  safety: "safety@demo.test",
+  client: "client@demo.test",
+};
 /** Tried in this order: the first role the rule allows sends the requests. */
 const ROLE_ORDER: Role[] = ["admin", "manager", "technician", "safety", "client"];
 
@@ -58,7 +74,10 @@ function inputsOf(file: string, method: Method): RouteInput {
   const handler = handlerSource(source, method);
   const imports = new Map<string, string>();
   for (const m of source.matchAll(/import\s*\{([^}]+)\}\s*from\s*"([^"]+)"/g)) {
-    for (const name of m[1]!.split(",").map((n) => n.trim()).filter(Boolean)) {
+    for (const name of m[1]!
+      .split(",")
+      .map((n) => n.trim())
+      .filter(Boolean)) {
       const [imported, local] = name.split(/\s+as\s+/);
       imports.set((local ?? imported)!.trim(), `${resolve(dirname(join(API_DIR, file)), m[2]!)}#${imported!.trim()}`);
     }
@@ -96,7 +115,9 @@ interface Case {
 const CASES: Case[] = ROUTE_FILES.flatMap((file) => {
   const rule = ROUTE_RULES[`api/${file}`];
   if (!rule) return []; // authorization-matrix.test.ts fails for a route without a rule
-  return (Object.entries(rule.methods) as [Method, Access][]).filter(([method]) => !NO_INPUT[`api/${file}`]?.includes(method)).map(([method, access]) => ({ file, method, access }));
+  return (Object.entries(rule.methods) as [Method, Access][])
+    .filter(([method]) => !NO_INPUT[`api/${file}`]?.includes(method))
+    .map(([method, access]) => ({ file, method, access }));
 });
 
 function roleFor(access: Access): Role | null {
@@ -111,19 +132,32 @@ let before: Record<string, string>;
 let uploadsBefore: number;
 const totals = { payloads: 0, answered5xx: 0, answered2xx: 0, answered4xx: 0, byStatus: {} as Record<number, number> };
 
-const countFiles = (dir: string): number => readdirSync(dir).reduce((n, name) => n + (statSync(join(dir, name)).isDirectory() ? countFiles(join(dir, name)) : 1), 0);
+const countFiles = (dir: string): number =>
+  readdirSync(dir).reduce((n, name) => n + (statSync(join(dir, name)).isDirectory() ? countFiles(join(dir, name)) : 1), 0);
 
 beforeAll(async () => {
   const sequelize = app.sequelize;
   const one = async <T extends object>(sql: string) => (await sequelize.query<T>(sql, { type: QueryTypes.SELECT }))[0]!;
   const ids = {} as Record<SampleKind, number | string>;
   for (const [kind, table] of Object.entries(SAMPLE_TABLES) as [SampleKind, string][]) {
-    const [row] = await sequelize.query<{ id: number | string }>(`SELECT id FROM \`${table}\` ORDER BY id LIMIT 1`, { type: QueryTypes.SELECT });
+    const [row] = await sequelize.query<{ id: number | string }>(`SELECT id FROM \`${table}\` ORDER BY id LIMIT 1`, {
+      type: QueryTypes.SELECT,
+    });
     ids[kind] = row?.id ?? 999_999;
   }
   const batch = await one<{ id: number; code: string }>("SELECT id, code FROM batches ORDER BY id LIMIT 1");
   const user = await one<{ id: number }>("SELECT id FROM users WHERE email = 'ines.halvorsen@demo.test'");
-  samples = { ids, userId: user.id, messageId: "none", batchId: batch.id, batchCode: batch.code, ownProjectId: 0, foreignProjectId: 0, ownProjectCodes: [], foreignProjectCodes: [] };
+  samples = {
+    ids,
+    userId: user.id,
+    messageId: "none",
+    batchId: batch.id,
+    batchCode: batch.code,
+    ownProjectId: 0,
+    foreignProjectId: 0,
+    ownProjectCodes: [],
+    foreignProjectCodes: [],
+  };
   clients.set("anonymous", await app.client());
   for (const role of ROLE_ORDER) clients.set(role, await app.client(DEMO[role]));
   before = await databaseFingerprint(sequelize);
@@ -147,9 +181,12 @@ function checkRefusal(status: number, text: string, label: string) {
   } catch {
     throw new Error(`${label}: a ${status} that is not JSON: ${text.slice(0, 200)}`);
   }
-  if (typeof body.error !== "string" || body.error.length === 0) throw new Error(`${label}: a ${status} without an error message: ${text.slice(0, 200)}`);
-  if ([400, 413, 415, 422].includes(status) && !/^[A-Za-z_][^:\n]{0,200}: \S/.test(body.error)) throw new Error(`${label}: the ${status} message names no field: ${body.error.slice(0, 200)}`);
-  if (/\n\s+at\s|node_modules|\.ts:\d+|Sequelize\w*Error|ER_[A-Z_]+/.test(text)) throw new Error(`${label}: the answer leaks internals: ${text.slice(0, 300)}`);
+  if (typeof body.error !== "string" || body.error.length === 0)
+    throw new Error(`${label}: a ${status} without an error message: ${text.slice(0, 200)}`);
+  if ([400, 413, 415, 422].includes(status) && !/^[A-Za-z_][^:\n]{0,200}: \S/.test(body.error))
+    throw new Error(`${label}: the ${status} message names no field: ${body.error.slice(0, 200)}`);
+  if (/\n\s+at\s|node_modules|\.ts:\d+|Sequelize\w*Error|ER_[A-Z_]+/.test(text))
+    throw new Error(`${label}: the answer leaks internals: ${text.slice(0, 300)}`);
 }
 
 interface Sent {
@@ -184,7 +221,11 @@ async function send(caller: Client, sent: Sent) {
 function bodyInit(method: Method, payload: BodyPayload): { init: RequestInit; describe: string; value: unknown } {
   if (payload.kind === "json") {
     const text = toJsonText(payload.value);
-    return { init: { method, headers: { "content-type": "application/json" }, body: text }, describe: `json ${text.slice(0, 300)}`, value: asParsed(payload.value) };
+    return {
+      init: { method, headers: { "content-type": "application/json" }, body: text },
+      describe: `json ${text.slice(0, 300)}`,
+      value: asParsed(payload.value),
+    };
   }
   const headers: Record<string, string> = {};
   if (payload.contentType) headers["content-type"] = payload.contentType;
@@ -197,7 +238,11 @@ function bodyInit(method: Method, payload: BodyPayload): { init: RequestInit; de
       value = undefined;
     }
   }
-  return { init: { method, headers, body: payload.text }, describe: `${payload.contentType ?? "no type"} ${payload.text.slice(0, 200)}`, value };
+  return {
+    init: { method, headers, body: payload.text },
+    describe: `${payload.contentType ?? "no type"} ${payload.text.slice(0, 200)}`,
+    value,
+  };
 }
 
 describe.concurrent(`every API route and method: ${RUNS} malformed requests each`, () => {
@@ -205,7 +250,12 @@ describe.concurrent(`every API route and method: ${RUNS} malformed requests each
     const role = roleFor(access);
     const caller = clients.get(role ?? "anonymous")!;
     const inputs = inputsOf(file, method);
-    const [bodySchema, querySchema, paramSchema, formSchema] = await Promise.all([loadSchema(inputs.body), loadSchema(inputs.query), loadSchema(inputs.params), loadSchema(inputs.form)]);
+    const [bodySchema, querySchema, paramSchema, formSchema] = await Promise.all([
+      loadSchema(inputs.body),
+      loadSchema(inputs.query),
+      loadSchema(inputs.params),
+      loadSchema(inputs.form),
+    ]);
     const ruleParams = ROUTE_RULES[`api/${file}`]!.params?.(samples) ?? {};
     const paramNames = [...file.matchAll(/\[([^\]]+)\]/g)].map((m) => m[1]!);
     const describeOf = (s: ZodTypeAny | null): Shape | null => (s ? describeSchema(s) : null);
@@ -214,8 +264,11 @@ describe.concurrent(`every API route and method: ${RUNS} malformed requests each
       const single = paramNames.length === 1 ? paramSchema.safeParse(params[paramNames[0]!]) : { success: false };
       return paramSchema.safeParse(params).success || single.success;
     };
-    const badParams = paramNames.length ? fc.option(fc.record(Object.fromEntries(paramNames.map((n) => [n, fc.constantFrom(...BAD_IDS)]))), { freq: 4 }) : fc.constant(null);
-    if (paramNames.length && !paramSchema) throw new Error(`api/${file}: no validate(params…) call found; the fuzz needs the route's parameter schema`);
+    const badParams = paramNames.length
+      ? fc.option(fc.record(Object.fromEntries(paramNames.map((n) => [n, fc.constantFrom(...BAD_IDS)]))), { freq: 4 })
+      : fc.constant(null);
+    if (paramNames.length && !paramSchema)
+      throw new Error(`api/${file}: no validate(params…) call found; the fuzz needs the route's parameter schema`);
     const isWebhook = file === "webhooks/payments.ts";
     const isImport = file === "imports/index.ts" && method === "POST";
     const isForm = Boolean(formSchema);
@@ -231,12 +284,27 @@ describe.concurrent(`every API route and method: ${RUNS} malformed requests each
       }));
     } else if (isImport) {
       // The CSV import: the query, the content type and the file are all fair game; a commit of garbage must be refused.
-      const csv = fc.oneof(fc.string({ maxLength: 200 }), fc.constantFrom("", "run_reference;instrument\r\nA;B", "\u0000\u0001\u0002", "a,b,c\n1,2,3", `run_reference,instrument,method,project,started_at,injections\n${"'; DROP TABLE runs; --"},Wren,x,y,2026-02-30,-1`));
+      const csv = fc.oneof(
+        fc.string({ maxLength: 200 }),
+        fc.constantFrom(
+          "",
+          "run_reference;instrument\r\nA;B",
+          "\u0000\u0001\u0002",
+          "a,b,c\n1,2,3",
+          `run_reference,instrument,method,project,started_at,injections\n${"'; DROP TABLE runs; --"},Wren,x,y,2026-02-30,-1`,
+        ),
+      );
       const type = fc.constantFrom("text/csv", "text/csv", "text/plain", "application/json", "image/png", null);
       arbitrary = fc.tuple(malformedQuery(describeOf(querySchema)), csv, type).map(([query, text, contentType]) => {
         const mode = new URLSearchParams(query.slice(1)).get("mode");
         const headers: Record<string, string> = contentType ? { "content-type": contentType } : {};
-        return { url: urlFor(file, ruleParams) + query, init: { method, headers, body: text }, mustRefuse: mode !== "check", mayAccept: mode === "check", describe: `${contentType} ${JSON.stringify(text.slice(0, 120))}` };
+        return {
+          url: urlFor(file, ruleParams) + query,
+          init: { method, headers, body: text },
+          mustRefuse: mode !== "check",
+          mayAccept: mode === "check",
+          describe: `${contentType} ${JSON.stringify(text.slice(0, 120))}`,
+        };
       });
     } else if (isForm) {
       // A multipart form (stock lots): the fields as text, maybe a small file, or not a form at all.
@@ -245,22 +313,51 @@ describe.concurrent(`every API route and method: ${RUNS} malformed requests each
         .tuple(malformedBody(shape), fc.option(fc.uint8Array({ maxLength: 64 }), { freq: 3 }))
         .filter(([payload]) => payload.kind === "raw" || !formSchema!.safeParse(stringFields(payload.value)).success)
         .map(([payload, file_]): Sent => {
-          if (payload.kind === "raw") return { url: urlFor(file, ruleParams), init: { method, headers: payload.contentType ? { "content-type": payload.contentType } : {}, body: payload.text }, mustRefuse: true, mayAccept: false, describe: `${payload.contentType} ${payload.text.slice(0, 100)}` };
+          if (payload.kind === "raw")
+            return {
+              url: urlFor(file, ruleParams),
+              init: { method, headers: payload.contentType ? { "content-type": payload.contentType } : {}, body: payload.text },
+              mustRefuse: true,
+              mayAccept: false,
+              describe: `${payload.contentType} ${payload.text.slice(0, 100)}`,
+            };
           const form = new FormData();
           for (const [k, v] of Object.entries(stringFields(payload.value))) form.append(k, v);
           if (file_) form.append("certificate", new Blob([new Uint8Array(file_)]), "certificate.pdf");
-          return { url: urlFor(file, ruleParams), init: { method, body: form }, mustRefuse: true, mayAccept: false, describe: `form ${JSON.stringify(stringFields(payload.value)).slice(0, 300)}` };
+          return {
+            url: urlFor(file, ruleParams),
+            init: { method, body: form },
+            mustRefuse: true,
+            mayAccept: false,
+            describe: `form ${JSON.stringify(stringFields(payload.value)).slice(0, 300)}`,
+          };
         });
     } else {
       const shape = describeOf(bodySchema);
       arbitrary = fc
-        .tuple(malformedBody(shape), badParams, isWebhook ? fc.constantFrom(null, "t=1,v1=0000", "garbage", `t=${Math.floor(Date.now() / 1000)},v1=${"a".repeat(64)}`) : fc.constant(null))
+        .tuple(
+          malformedBody(shape),
+          badParams,
+          isWebhook
+            ? fc.constantFrom(null, "t=1,v1=0000", "garbage", `t=${Math.floor(Date.now() / 1000)},v1=${"a".repeat(64)}`)
+            : fc.constant(null),
+        )
         .map(([payload, bad, signature]) => {
           const { init, describe: text, value } = bodyInit(method, payload);
           if (signature) (init.headers as Record<string, string>)["stripe-signature"] = signature;
           const paramsOk = bad === null || paramValid(bad);
           const bodyValid = bodySchema ? value !== undefined && bodySchema.safeParse(value).success : true;
-          return { sent: { url: urlFor(file, bad ?? ruleParams), init, mustRefuse: true, mayAccept: false, describe: `${bad ? `params ${JSON.stringify(bad)} ` : ""}${text}` }, bodyValid, paramsOk };
+          return {
+            sent: {
+              url: urlFor(file, bad ?? ruleParams),
+              init,
+              mustRefuse: true,
+              mayAccept: false,
+              describe: `${bad ? `params ${JSON.stringify(bad)} ` : ""}${text}`,
+            },
+            bodyValid,
+            paramsOk,
+          };
         })
         // Only requests the route must refuse are sent (wrong params, or a body its schema refuses), so
         // no valid request slips through and writes; a route without a body is fuzzed through its params.
@@ -283,21 +380,28 @@ describe.concurrent(`every API route and method: ${RUNS} malformed requests each
 /** Form fields are text: how a browser would send each generated value. */
 function stringFields(value: unknown): Record<string, string> {
   if (!value || typeof value !== "object" || Array.isArray(value)) return { value: String(value) };
-  return Object.fromEntries(Object.entries(value as Record<string, unknown>).filter(([, v]) => v !== undefined).map(([k, v]) => [k, typeof v === "string" ? v : JSON.stringify(v) ?? ""]));
+  return Object.fromEntries(
+    Object.entries(value as Record<string, unknown>)
+      .filter(([, v]) => v !== undefined)
+      .map(([k, v]) => [k, typeof v === "string" ? v : (JSON.stringify(v) ?? "")]),
+  );
 }
 
 describe("after the fuzz", () => {
   it("wrote nothing: every table's row count and checksum and the upload folder are unchanged; no 5xx", async () => {
     const after = await databaseFingerprint(app.sequelize);
-    const changed = Object.keys(before).filter((t) => before[t] !== after[t]).map((t) => `${t}: ${before[t]} → ${after[t]}`);
-    console.log(`fuzz: ${totals.payloads} malformed requests over ${CASES.length} route methods (seed ${SEED}); 5xx: ${totals.answered5xx}; 4xx: ${totals.answered4xx}; 2xx (valid GET queries and import checks): ${totals.answered2xx}; tables changed: ${changed.length}; statuses ${JSON.stringify(totals.byStatus)}`);
+    const changed = Object.keys(before)
+      .filter((t) => before[t] !== after[t])
+      .map((t) => `${t}: ${before[t]} → ${after[t]}`);
+    console.log(
+      `fuzz: ${totals.payloads} malformed requests over ${CASES.length} route methods (seed ${SEED}); 5xx: ${totals.answered5xx}; 4xx: ${totals.answered4xx}; 2xx (valid GET queries and import checks): ${totals.answered2xx}; tables changed: ${changed.length}; statuses ${JSON.stringify(totals.byStatus)}`,
+    );
     expect(totals.answered5xx).toBe(0);
     expect(totals.payloads).toBeGreaterThanOrEqual(CASES.length * RUNS);
     expect(changed).toEqual([]);
     expect(countFiles(app.uploadDir)).toBe(uploadsBefore);
   });
 });
-
 
 /**
  * Routes whose accepted requests would reach outside the database (mail, the payments provider) or
@@ -325,7 +429,9 @@ describe.concurrent(`schema-valid extremes on every state-changing route: ${EXTR
         const answer = await response.text();
         if (response.status >= 500) {
           extremes.answered5xx++;
-          throw new Error(`${method} ${url} ${text.slice(0, 400)} → ${response.status} ${answer.slice(0, 200)}\nThe server printed:\n${app.recentOutput().slice(-1500)}`);
+          throw new Error(
+            `${method} ${url} ${text.slice(0, 400)} → ${response.status} ${answer.slice(0, 200)}\nThe server printed:\n${app.recentOutput().slice(-1500)}`,
+          );
         }
         if (response.status >= 400) checkRefusal(response.status, answer, `${method} ${url} ${text.slice(0, 200)}`);
       }),
@@ -336,7 +442,9 @@ describe.concurrent(`schema-valid extremes on every state-changing route: ${EXTR
 
 describe("after the extremes", () => {
   it("no request of the right shape crashed a service", () => {
-    console.log(`fuzz extremes: ${extremes.payloads} requests over ${EXTREME_CASES.length} state-changing routes, ${extremes.schemaValid} accepted by the schema and handed to the service; 5xx: ${extremes.answered5xx}`);
+    console.log(
+      `fuzz extremes: ${extremes.payloads} requests over ${EXTREME_CASES.length} state-changing routes, ${extremes.schemaValid} accepted by the schema and handed to the service; 5xx: ${extremes.answered5xx}`,
+    );
     expect(extremes.answered5xx).toBe(0);
     expect(extremes.payloads).toBeGreaterThanOrEqual(EXTREME_CASES.length * EXTREME_RUNS);
   });

@@ -24,7 +24,13 @@ describe("inTransaction", () => {
     const errors: unknown[] = [];
 
     // Each takes its own row, waits until the other holds its row, then reaches for the other's.
-    const update = (which: "first" | "second", own: number, other: number, held: ReturnType<typeof signal>, otherHeld: ReturnType<typeof signal>) =>
+    const update = (
+      which: "first" | "second",
+      own: number,
+      other: number,
+      held: ReturnType<typeof signal>,
+      otherHeld: ReturnType<typeof signal>,
+    ) =>
       inTransaction(db.sequelize, async (transaction) => {
         attempts[which]++;
         await db.sequelize.query("UPDATE lock_probe SET n = n + 1 WHERE id = ?", { replacements: [own], transaction });
@@ -47,7 +53,9 @@ describe("inTransaction", () => {
     expect(isDeadlock(errors[0])).toBe(true);
     expect(attempts.first + attempts.second).toBe(3);
     // Each transaction added 1 to both rows, and the rolled-back attempt added nothing.
-    const rows = await db.sequelize.query<{ id: number; n: number }>("SELECT id, n FROM lock_probe ORDER BY id", { type: QueryTypes.SELECT });
+    const rows = await db.sequelize.query<{ id: number; n: number }>("SELECT id, n FROM lock_probe ORDER BY id", {
+      type: QueryTypes.SELECT,
+    });
     expect(rows.map((r) => r.n)).toEqual([2, 2]);
   });
 
@@ -62,7 +70,9 @@ describe("inTransaction", () => {
       }),
     ).rejects.toThrow(/Duplicate entry|Validation error/);
     expect(attempts).toBe(1);
-    const [{ n }] = (await db.sequelize.query<{ n: number }>("SELECT COUNT(*) AS n FROM once_probe", { type: QueryTypes.SELECT })) as [{ n: number }];
+    const [{ n }] = (await db.sequelize.query<{ n: number }>("SELECT COUNT(*) AS n FROM once_probe", { type: QueryTypes.SELECT })) as [
+      { n: number },
+    ];
     expect(Number(n)).toBe(0);
   });
 });

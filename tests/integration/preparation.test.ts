@@ -28,7 +28,19 @@ async function lotsOf(reagent: string) {
 
 describe("recipes: technician writes, manager approves, editing an approved one makes v2", () => {
   let id = 0;
-  const recipe = { name: `Test water–methanol 60:40 ${unique}`, channel: "A", detection_nm: 230, storage: "Room temperature", spec: { solvents: [{ reagent: "water", percent: 60 }, { reagent: "methanol", percent: 40 }], additives: [{ reagent: "formic-acid", amount: 0.1, unit: "%v/v" }] } };
+  const recipe = {
+    name: `Test water–methanol 60:40 ${unique}`,
+    channel: "A",
+    detection_nm: 230,
+    storage: "Room temperature",
+    spec: {
+      solvents: [
+        { reagent: "water", percent: 60 },
+        { reagent: "methanol", percent: 40 },
+      ],
+      additives: [{ reagent: "formic-acid", amount: 0.1, unit: "%v/v" }],
+    },
+  };
 
   it("creates a recipe awaiting approval", async () => {
     const r = await postJson(tech, "/api/recipes", recipe);
@@ -53,14 +65,36 @@ describe("recipes: technician writes, manager approves, editing an approved one 
   });
 
   it("edits an approved recipe as a new version, leaving v1 approved for preparation", async () => {
-    const r = await postJson(tech, `/api/recipes/${id}`, { ...recipe, spec: { ...recipe.spec, solvents: [{ reagent: "water", percent: 55 }, { reagent: "methanol", percent: 45 }] } }, "PUT");
+    const r = await postJson(
+      tech,
+      `/api/recipes/${id}`,
+      {
+        ...recipe,
+        spec: {
+          ...recipe.spec,
+          solvents: [
+            { reagent: "water", percent: 55 },
+            { reagent: "methanol", percent: 45 },
+          ],
+        },
+      },
+      "PUT",
+    );
     expect(r.status).toBe(200);
-    const body = (await r.json()) as { newVersion: boolean; recipe: { state: string; approvedVersion: number; versions: { version: number; approvedAt: string | null }[] } };
+    const body = (await r.json()) as {
+      newVersion: boolean;
+      recipe: { state: string; approvedVersion: number; versions: { version: number; approvedAt: string | null }[] };
+    };
     expect(body.newVersion).toBe(true);
-    expect(body.recipe.versions.map((v) => [v.version, v.approvedAt !== null])).toEqual([[2, false], [1, true]]);
+    expect(body.recipe.versions.map((v) => [v.version, v.approvedAt !== null])).toEqual([
+      [2, false],
+      [1, true],
+    ]);
     expect(body.recipe.state).toBe("pending");
     expect(body.recipe.approvedVersion).toBe(1);
-    const list = (await (await tech.fetch(`/api/recipes?q=${encodeURIComponent(unique)}`)).json()) as { items: { id: number; latestVersion: number }[] };
+    const list = (await (await tech.fetch(`/api/recipes?q=${encodeURIComponent(unique)}`)).json()) as {
+      items: { id: number; latestVersion: number }[];
+    };
     expect(list.items.find((x) => x.id === id)?.latestVersion).toBe(2);
   });
 });
@@ -72,20 +106,35 @@ describe("stock lots and certificates of analysis", () => {
     if (file) body.set("certificate", new Blob([new Uint8Array(file.bytes)], { type: file.type }), file.name);
     return body;
   };
-  const fields = (lot: string) => ({ reagent: "acetonitrile", lotNumber: lot, supplier: "Example Supplies", grade: "HPLC", receivedOn: "2026-01-05", expiresOn: "2099-01-05", quantity: "4000" });
+  const fields = (lot: string) => ({
+    reagent: "acetonitrile",
+    lotNumber: lot,
+    supplier: "Example Supplies",
+    grade: "HPLC",
+    receivedOn: "2026-01-05",
+    expiresOn: "2099-01-05",
+    quantity: "4000",
+  });
 
   it("stores a real PDF certificate and serves it only to signed-in users", async () => {
     const doc = await PDFDocument.create();
     doc.addPage([200, 100]).drawText("Certificate of analysis, lot test");
     const pdf = await doc.save();
-    const r = await tech.fetch("/api/stock-lots", { method: "POST", body: form(fields(`AN-${unique}-1`), { bytes: pdf, name: "coa.pdf", type: "application/pdf" }) });
+    const r = await tech.fetch("/api/stock-lots", {
+      method: "POST",
+      body: form(fields(`AN-${unique}-1`), { bytes: pdf, name: "coa.pdf", type: "application/pdf" }),
+    });
     expect(r.status).toBe(201);
     const { lot } = (await r.json()) as { lot: { id: number; hasCertificate: boolean } };
     expect(lot.hasCertificate).toBe(true);
     const got = await tech.fetch(`/api/stock-lots/${lot.id}/certificate`);
     expect(got.status).toBe(200);
     expect(got.headers.get("content-type")).toBe("application/pdf");
-    expect(Buffer.from(await got.arrayBuffer()).subarray(0, 5).toString()).toBe("%PDF-");
+    expect(
+      Buffer.from(await got.arrayBuffer())
+        .subarray(0, 5)
+        .toString(),
+    ).toBe("%PDF-");
     const anonymous = await client();
     expect((await anonymous.fetch(`/api/stock-lots/${lot.id}/certificate`)).status).toBe(401);
     const clientContact = await client("client@demo.test");
@@ -93,7 +142,14 @@ describe("stock lots and certificates of analysis", () => {
   });
 
   it("refuses a text file renamed to .pdf, judged by its content", async () => {
-    const r = await tech.fetch("/api/stock-lots", { method: "POST", body: form(fields(`AN-${unique}-2`), { bytes: new TextEncoder().encode("just some text\n"), name: "coa.pdf", type: "application/pdf" }) });
+    const r = await tech.fetch("/api/stock-lots", {
+      method: "POST",
+      body: form(fields(`AN-${unique}-2`), {
+        bytes: new TextEncoder().encode("just some text\n"),
+        name: "coa.pdf",
+        type: "application/pdf",
+      }),
+    });
     expect(r.status).toBe(400);
     expect(((await r.json()) as { error: string }).error).toMatch(/^certificate: only a PDF or an image/);
     expect((await lotsOf("acetonitrile")).some((l) => l.lotNumber === `AN-${unique}-2`)).toBe(false);
@@ -102,7 +158,10 @@ describe("stock lots and certificates of analysis", () => {
   it("refuses a file over the size limit", async () => {
     const big = new Uint8Array(10 * 1024 * 1024 + 10);
     big.set(new TextEncoder().encode("%PDF-1.7\n"));
-    const r = await tech.fetch("/api/stock-lots", { method: "POST", body: form(fields(`AN-${unique}-3`), { bytes: big, name: "big.pdf", type: "application/pdf" }) });
+    const r = await tech.fetch("/api/stock-lots", {
+      method: "POST",
+      body: form(fields(`AN-${unique}-3`), { bytes: big, name: "big.pdf", type: "application/pdf" }),
+    });
     expect(r.status).toBe(400);
     expect(((await r.json()) as { error: string }).error).toMatch(/^certificate: .*limit/);
   });
@@ -123,13 +182,26 @@ describe("recording a batch", () => {
   const faLot = async () => (await lotsOf("formic-acid")).find((l) => l.usable)!.id;
 
   it("refuses an expired lot with a clear message naming the field", async () => {
-    const create = await postJson(tech, "/api/recipes", { name: `Ammonium acetate 10 mM ${unique}`, channel: "A", spec: { solvents: [{ reagent: "water", percent: 100 }], additives: [{ reagent: "ammonium-acetate", amount: 10, unit: "mM" }] } });
+    const create = await postJson(tech, "/api/recipes", {
+      name: `Ammonium acetate 10 mM ${unique}`,
+      channel: "A",
+      spec: { solvents: [{ reagent: "water", percent: 100 }], additives: [{ reagent: "ammonium-acetate", amount: 10, unit: "mM" }] },
+    });
     const { recipe } = (await create.json()) as { recipe: { id: number } };
-    const approved = (await (await postJson(manager, `/api/recipes/${recipe.id}/approve`, { version: 1 })).json()) as { recipe: { versions: { id: number }[] } };
+    const approved = (await (await postJson(manager, `/api/recipes/${recipe.id}/approve`, { version: 1 })).json()) as {
+      recipe: { versions: { id: number }[] };
+    };
     const expired = (await lotsOf("ammonium-acetate")).find((l) => l.lotNumber === "AA-3307")!;
     const r = await postJson(tech, "/api/batches", {
-      idempotencyKey: `exp-${unique}-0001`, recipeVersionId: approved.recipe.versions[0]!.id, volume_mL: 1000, bottles: 1, bottleSize_mL: 1000,
-      components: [{ reagent: "water", stockLotId: await waterLot() }, { reagent: "ammonium-acetate", stockLotId: expired.id, actualAmount: 0.77 }],
+      idempotencyKey: `exp-${unique}-0001`,
+      recipeVersionId: approved.recipe.versions[0]!.id,
+      volume_mL: 1000,
+      bottles: 1,
+      bottleSize_mL: 1000,
+      components: [
+        { reagent: "water", stockLotId: await waterLot() },
+        { reagent: "ammonium-acetate", stockLotId: expired.id, actualAmount: 0.77 },
+      ],
     });
     expect(r.status).toBe(400);
     const body = (await r.json()) as { error: string; fields: Record<string, string> };
@@ -139,8 +211,15 @@ describe("recording a batch", () => {
 
   it("needs a reason for a deviation beyond tolerance", async () => {
     const r = await postJson(tech, "/api/batches", {
-      idempotencyKey: `dev-${unique}-0001`, recipeVersionId: 1, volume_mL: 1000, bottles: 1, bottleSize_mL: 1000,
-      components: [{ reagent: "water", stockLotId: await waterLot(), actualAmount: 999 }, { reagent: "formic-acid", stockLotId: await faLot(), actualAmount: 1.3 }],
+      idempotencyKey: `dev-${unique}-0001`,
+      recipeVersionId: 1,
+      volume_mL: 1000,
+      bottles: 1,
+      bottleSize_mL: 1000,
+      components: [
+        { reagent: "water", stockLotId: await waterLot(), actualAmount: 999 },
+        { reagent: "formic-acid", stockLotId: await faLot(), actualAmount: 1.3 },
+      ],
     });
     expect(r.status).toBe(400);
     expect(((await r.json()) as { error: string }).error).toMatch(/^deviationReason: outside tolerance \(Formic acid: .*\+30\.0 %/);
@@ -148,13 +227,23 @@ describe("recording a batch", () => {
 
   it("stores what src/lib/chem computes, records once on a double click, lists it and prints N labels", async () => {
     const payload = {
-      idempotencyKey: `ok-${unique}-0001`, recipeVersionId: 1, volume_mL: 3000, bottles: 3, bottleSize_mL: 1000, temperature_C: 22,
-      components: [{ reagent: "water", stockLotId: await waterLot(), actualAmount: 3000 }, { reagent: "formic-acid", stockLotId: await faLot(), actualAmount: 3.0 }],
+      idempotencyKey: `ok-${unique}-0001`,
+      recipeVersionId: 1,
+      volume_mL: 3000,
+      bottles: 3,
+      bottleSize_mL: 1000,
+      temperature_C: 22,
+      components: [
+        { reagent: "water", stockLotId: await waterLot(), actualAmount: 3000 },
+        { reagent: "formic-acid", stockLotId: await faLot(), actualAmount: 3.0 },
+      ],
     };
     const [a, b] = await Promise.all([postJson(tech, "/api/batches", payload), postJson(tech, "/api/batches", payload)]);
     const statuses = [a.status, b.status].sort();
     expect(statuses).toEqual([200, 201]);
-    const [ba, bb] = (await Promise.all([a.json(), b.json()])) as { batch: { id: number; code: string; components: { reagent: string; target: number }[]; expiresAt: string; preparedAt: string } }[];
+    const [ba, bb] = (await Promise.all([a.json(), b.json()])) as {
+      batch: { id: number; code: string; components: { reagent: string; target: number }[]; expiresAt: string; preparedAt: string };
+    }[];
     expect(ba!.batch.id).toBe(bb!.batch.id);
     const batch = ba!.batch;
     // A third submit, later, still answers the same batch.
@@ -162,12 +251,23 @@ describe("recording a batch", () => {
     expect(again.status).toBe(200);
     expect(((await again.json()) as { batch: { id: number } }).batch.id).toBe(batch.id);
 
-    const plan = preparationPlan({ spec: { solvents: [{ reagent: "water", percent: 100 }], additives: [{ reagent: "formic-acid", amount: 0.1, unit: "%v/v" }], labile: false }, volume_mL: 3000, temperature_C: 22, detection_nm: 254 });
+    const plan = preparationPlan({
+      spec: {
+        solvents: [{ reagent: "water", percent: 100 }],
+        additives: [{ reagent: "formic-acid", amount: 0.1, unit: "%v/v" }],
+        labile: false,
+      },
+      volume_mL: 3000,
+      temperature_C: 22,
+      detection_nm: 254,
+    });
     for (const c of plan.components) expect(batch.components.find((x) => x.reagent === c.reagent)!.target).toBeCloseTo(c.target, 4);
     // Acidified water: a week, unless a lot runs out sooner.
     expect(Date.parse(batch.expiresAt) - Date.parse(batch.preparedAt)).toBeLessThanOrEqual(7 * 86_400_000);
 
-    const list = (await (await tech.fetch("/api/batches")).json()) as { items: { id: number; code: string; preparedAt: string; expiresAt: string }[] };
+    const list = (await (await tech.fetch("/api/batches")).json()) as {
+      items: { id: number; code: string; preparedAt: string; expiresAt: string }[];
+    };
     const listed = list.items.filter((x) => x.id === batch.id);
     expect(listed).toHaveLength(1);
     expect(listed[0]).toMatchObject({ id: batch.id, code: batch.code, preparedAt: batch.preparedAt, expiresAt: batch.expiresAt });

@@ -130,7 +130,11 @@ export const ROUTE_RULES: Record<string, RouteRule> = {
   "api/runs/index.ts": { methods: { GET: need("read:run"), POST: need("create:run") } },
   "api/settings/preparation.ts": { methods: { GET: need("read:batch"), PUT: need("manage:preparation-settings") } },
   // The demo lots have no certificate file: allowed roles get the 404 that says so.
-  "api/stock-lots/[id]/certificate.ts": { methods: { GET: need("read:stock-lot") }, params: (s) => ({ id: s.ids.stockLot }), allowedStatus: 404 },
+  "api/stock-lots/[id]/certificate.ts": {
+    methods: { GET: need("read:stock-lot") },
+    params: (s) => ({ id: s.ids.stockLot }),
+    allowedStatus: 404,
+  },
   "api/stock-lots/index.ts": { methods: { GET: need("read:stock-lot"), POST: need("create:stock-lot") } },
   "api/usage/index.ts": { methods: { GET: need("read:usage", true) }, query: "?from=2026-01-01&to=2026-01-31&groupBy=project" },
   "batches/[id].astro": { methods: { GET: need("read:batch") }, params: (s) => ({ id: s.ids.batch }) },
@@ -161,9 +165,21 @@ export const ROUTE_RULES: Record<string, RouteRule> = {
   "api/invoices/index.ts": { methods: { GET: need("read:invoice", true) } },
   "api/statements/index.ts": { methods: { GET: need("read:statement", true), POST: need("manage:statement") } },
   "api/statements/journal.csv.ts": { methods: { GET: need("manage:statement") }, query: "?from=2026-01-01&to=2026-01-31" },
-  "api/statements/[id]/index.ts": { methods: { GET: need("read:statement", true) }, params: () => ({ id: NO_STATEMENT }), allowedStatus: 404 },
-  "api/statements/[id]/statement.pdf.ts": { methods: { GET: need("read:statement", true) }, params: () => ({ id: NO_STATEMENT }), allowedStatus: 404 },
-  "api/statements/[id]/statement.csv.ts": { methods: { GET: need("read:statement", true) }, params: () => ({ id: NO_STATEMENT }), allowedStatus: 404 },
+  "api/statements/[id]/index.ts": {
+    methods: { GET: need("read:statement", true) },
+    params: () => ({ id: NO_STATEMENT }),
+    allowedStatus: 404,
+  },
+  "api/statements/[id]/statement.pdf.ts": {
+    methods: { GET: need("read:statement", true) },
+    params: () => ({ id: NO_STATEMENT }),
+    allowedStatus: 404,
+  },
+  "api/statements/[id]/statement.csv.ts": {
+    methods: { GET: need("read:statement", true) },
+    params: () => ({ id: NO_STATEMENT }),
+    allowedStatus: 404,
+  },
   "api/statements/[id]/issue.ts": { methods: { POST: need("manage:statement") }, params: () => ({ id: NO_STATEMENT }) },
   "api/statements/[id]/invoice.ts": { methods: { POST: need("manage:invoice") }, params: () => ({ id: NO_STATEMENT }) },
   "api/invoices/[id]/void.ts": { methods: { POST: need("manage:invoice") }, params: () => ({ id: NO_STATEMENT }) },
@@ -200,7 +216,10 @@ export const ROUTE_RULES: Record<string, RouteRule> = {
  * asks for another organisation's record and must get 403 or 404, never the data. Every dynamic
  * route about projects, batches, statements or invoices must be listed here.
  */
-export const CROSS_ORGANISATION: Record<string, { params: (s: Samples) => Record<string, string | number>; mustNotShow: (s: Samples) => string[] }> = {
+export const CROSS_ORGANISATION: Record<
+  string,
+  { params: (s: Samples) => Record<string, string | number>; mustNotShow: (s: Samples) => string[] }
+> = {
   // Batches belong to the facility, not to a client: a client contact may read none of them.
   "api/batches/[id]/index.ts": { params: (s) => ({ id: s.batchId }), mustNotShow: (s) => [s.batchCode] },
   "api/batches/[id]/label.pdf.ts": { params: (s) => ({ id: s.batchId }), mustNotShow: (s) => [s.batchCode, "%PDF"] },
@@ -208,12 +227,24 @@ export const CROSS_ORGANISATION: Record<string, { params: (s: Samples) => Record
   // Real records of another organisation, created for the matrix: its statement and invoice.
   "statements/[id].astro": { params: (s) => ({ id: s.foreignStatementId ?? NO_STATEMENT }), mustNotShow: (s) => foreignSecrets(s) },
   "api/statements/[id]/index.ts": { params: (s) => ({ id: s.foreignStatementId ?? NO_STATEMENT }), mustNotShow: (s) => foreignSecrets(s) },
-  "api/statements/[id]/statement.pdf.ts": { params: (s) => ({ id: s.foreignStatementId ?? NO_STATEMENT }), mustNotShow: (s) => [...foreignSecrets(s), "%PDF"] },
-  "api/statements/[id]/statement.csv.ts": { params: (s) => ({ id: s.foreignStatementId ?? NO_STATEMENT }), mustNotShow: (s) => foreignSecrets(s) },
+  "api/statements/[id]/statement.pdf.ts": {
+    params: (s) => ({ id: s.foreignStatementId ?? NO_STATEMENT }),
+    mustNotShow: (s) => [...foreignSecrets(s), "%PDF"],
+  },
+  "api/statements/[id]/statement.csv.ts": {
+    params: (s) => ({ id: s.foreignStatementId ?? NO_STATEMENT }),
+    mustNotShow: (s) => foreignSecrets(s),
+  },
   "api/statements/[id]/issue.ts": { params: (s) => ({ id: s.foreignStatementId ?? NO_STATEMENT }), mustNotShow: (s) => foreignSecrets(s) },
-  "api/statements/[id]/invoice.ts": { params: (s) => ({ id: s.foreignStatementId ?? NO_STATEMENT }), mustNotShow: (s) => foreignSecrets(s) },
+  "api/statements/[id]/invoice.ts": {
+    params: (s) => ({ id: s.foreignStatementId ?? NO_STATEMENT }),
+    mustNotShow: (s) => foreignSecrets(s),
+  },
   "api/invoices/[id]/void.ts": { params: (s) => ({ id: s.foreignInvoiceId ?? NO_STATEMENT }), mustNotShow: (s) => foreignSecrets(s) },
-  "api/invoices/[id]/uncollectible.ts": { params: (s) => ({ id: s.foreignInvoiceId ?? NO_STATEMENT }), mustNotShow: (s) => foreignSecrets(s) },
+  "api/invoices/[id]/uncollectible.ts": {
+    params: (s) => ({ id: s.foreignInvoiceId ?? NO_STATEMENT }),
+    mustNotShow: (s) => foreignSecrets(s),
+  },
   // Projects, runs, methods and instruments by id are facility records; a client contact may read none.
   "api/runs/[id].ts": { params: (s) => ({ id: s.ids.run }), mustNotShow: (s) => [...s.foreignProjectCodes, '"run"'] },
   "runs/[id].astro": { params: (s) => ({ id: s.ids.run }), mustNotShow: (s) => s.foreignProjectCodes },

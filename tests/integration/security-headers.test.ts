@@ -9,7 +9,13 @@ const STACK = /\n\s+at\s|node_modules|\/src\/|\.ts:\d+|\.mjs:\d+|Sequelize\w*Err
 
 function policy(response: Response): Map<string, string> {
   const header = response.headers.get("content-security-policy") ?? "";
-  return new Map(header.split(";").map((d) => d.trim()).filter(Boolean).map((d) => [d.split(/\s+/)[0]!, d.slice(d.indexOf(" ") + 1)] as [string, string]));
+  return new Map(
+    header
+      .split(";")
+      .map((d) => d.trim())
+      .filter(Boolean)
+      .map((d) => [d.split(/\s+/)[0]!, d.slice(d.indexOf(" ") + 1)] as [string, string]),
+  );
 }
 
 describe("pages carry a Content-Security-Policy with a per-request nonce", () => {
@@ -41,7 +47,8 @@ describe("pages carry a Content-Security-Policy with a per-request nonce", () =>
 
   it("the nonce is new on every request", async () => {
     const nonces = new Set<string>();
-    for (let i = 0; i < 5; i++) nonces.add(/'nonce-([^']+)'/.exec((await fetch(`${app.baseUrl}/sign-in`)).headers.get("content-security-policy") ?? "")![1]!);
+    for (let i = 0; i < 5; i++)
+      nonces.add(/'nonce-([^']+)'/.exec((await fetch(`${app.baseUrl}/sign-in`)).headers.get("content-security-policy") ?? "")![1]!);
     expect(nonces.size).toBe(5);
   });
 
@@ -74,7 +81,11 @@ describe("the session cookie", () => {
   const attributes = (setCookie: string) => setCookie.split(";").map((p) => p.trim().toLowerCase());
 
   it("is HttpOnly, SameSite=Lax and Path=/, and not Secure over plain http", async () => {
-    const response = await fetch(`${app.baseUrl}/api/auth/sign-in`, { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify({ email: "safety@demo.test", password: "decant-demo" }) });
+    const response = await fetch(`${app.baseUrl}/api/auth/sign-in`, {
+      method: "POST",
+      headers: { "content-type": "application/json" },
+      body: JSON.stringify({ email: "safety@demo.test", password: "decant-demo" }),
+    });
     expect(response.status).toBe(200);
     const parts = attributes(response.headers.get("set-cookie")!);
     expect(parts[0]).toMatch(/^decant_session=\w+/);
@@ -86,7 +97,11 @@ describe("the session cookie", () => {
   });
 
   it("is Secure (and HSTS is sent) when a proxy says the browser came over https", async () => {
-    const response = await fetch(`${app.baseUrl}/api/auth/sign-in`, { method: "POST", headers: { "content-type": "application/json", "x-forwarded-proto": "https" }, body: JSON.stringify({ email: "safety@demo.test", password: "decant-demo" }) });
+    const response = await fetch(`${app.baseUrl}/api/auth/sign-in`, {
+      method: "POST",
+      headers: { "content-type": "application/json", "x-forwarded-proto": "https" },
+      body: JSON.stringify({ email: "safety@demo.test", password: "decant-demo" }),
+    });
     expect(response.status).toBe(200);
     const parts = attributes(response.headers.get("set-cookie")!);
     expect(parts).toContain("secure");
@@ -106,9 +121,21 @@ describe("the session cookie", () => {
 describe("uploaded files are served as downloads, typed by their content", () => {
   it("a PNG uploaded as coa.pdf comes back as image/png, attachment, nosniff and sandboxed", async () => {
     const tech = await app.client("tech@demo.test");
-    const png = Uint8Array.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a, 0, 0, 0, 13, 0x49, 0x48, 0x44, 0x52, 0, 0, 0, 1, 0, 0, 0, 1, 8, 6, 0, 0, 0, 0x1f, 0x15, 0xc4, 0x89]);
+    const png = Uint8Array.from([
+      0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a, 0, 0, 0, 13, 0x49, 0x48, 0x44, 0x52, 0, 0, 0, 1, 0, 0, 0, 1, 8, 6, 0, 0, 0, 0x1f,
+      0x15, 0xc4, 0x89,
+    ]);
     const form = new FormData();
-    for (const [k, v] of Object.entries({ reagent: "water", lotNumber: "SEC-PNG-1", supplier: "Veldmoor stores", grade: "HPLC", receivedOn: "2026-11-01", expiresOn: "2027-11-01", quantity: "1000" })) form.append(k, v);
+    for (const [k, v] of Object.entries({
+      reagent: "water",
+      lotNumber: "SEC-PNG-1",
+      supplier: "Veldmoor stores",
+      grade: "HPLC",
+      receivedOn: "2026-11-01",
+      expiresOn: "2027-11-01",
+      quantity: "1000",
+    }))
+      form.append(k, v);
     form.append("certificate", new Blob([png], { type: "application/pdf" }), "coa.pdf");
     const created = await tech.fetch("/api/stock-lots", { method: "POST", body: form });
     expect(created.status, await created.clone().text()).toBe(201);
@@ -130,7 +157,14 @@ describe("no answer shows a stack trace or internals", () => {
     const probes: [string, RequestInit][] = [
       ["/api/batches", { method: "POST", headers: { "content-type": "application/json" }, body: "{" }],
       ["/api/batches", { method: "POST", headers: { "content-type": "application/json" }, body: "[".repeat(20_000) }],
-      ["/api/rates", { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify({ kind: "reagent", amount_minor: "1e999" }) }],
+      [
+        "/api/rates",
+        {
+          method: "POST",
+          headers: { "content-type": "application/json" },
+          body: JSON.stringify({ kind: "reagent", amount_minor: "1e999" }),
+        },
+      ],
       ["/api/batches/99999999999999999999999", {}],
       ["/api/batches/1e999", {}],
       ["/api/usage?from=2026-02-30&to=2026-13-01", {}],

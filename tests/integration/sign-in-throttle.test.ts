@@ -94,13 +94,24 @@ describe("account state at sign-in", () => {
 
   it("after a password change the old password no longer works", async () => {
     const user = (await User.findOne({ where: { email: "ines.halvorsen@demo.test" } }))!;
-    await changePassword(user.id, { currentPassword: RIGHT, newPassword: "a different long password", confirmPassword: "a different long password" }, { ip: "203.0.113.22" });
+    await changePassword(
+      user.id,
+      { currentPassword: RIGHT, newPassword: "a different long password", confirmPassword: "a different long password" },
+      { ip: "203.0.113.22" },
+    );
     expect((await attempt("ines.halvorsen@demo.test", RIGHT, "203.0.113.23")).status).toBe(401);
     expect((await attempt("ines.halvorsen@demo.test", "a different long password", "203.0.113.24")).status).toBe(200);
   });
 
   it("an invited account without a password cannot sign in", async () => {
-    await User.create({ email: "pending@demo.test", name: "Pending Person", role: "technician", clientId: null, passwordHash: null, lastSignInAt: null });
+    await User.create({
+      email: "pending@demo.test",
+      name: "Pending Person",
+      role: "technician",
+      clientId: null,
+      passwordHash: null,
+      lastSignInAt: null,
+    });
     expect((await attempt("pending@demo.test", "", "203.0.113.25")).status).toBe(401);
   });
 });

@@ -15,9 +15,12 @@ const unique = Math.random().toString(36).slice(2, 8);
 let tech: Client;
 const MiB = 1024 * 1024;
 
-const countFiles = (dir: string): number => readdirSync(dir).reduce((n, name) => n + (statSync(join(dir, name)).isDirectory() ? countFiles(join(dir, name)) : 1), 0);
-const one = async <T extends object>(sql: string, replacements: unknown[] = []) => (await app.sequelize.query<T>(sql, { type: QueryTypes.SELECT, replacements }))[0]!;
-const lotCount = async (lotNumber: string) => Number((await one<{ n: number }>("SELECT COUNT(*) AS n FROM stock_lots WHERE lot_number = ?", [lotNumber])).n);
+const countFiles = (dir: string): number =>
+  readdirSync(dir).reduce((n, name) => n + (statSync(join(dir, name)).isDirectory() ? countFiles(join(dir, name)) : 1), 0);
+const one = async <T extends object>(sql: string, replacements: unknown[] = []) =>
+  (await app.sequelize.query<T>(sql, { type: QueryTypes.SELECT, replacements }))[0]!;
+const lotCount = async (lotNumber: string) =>
+  Number((await one<{ n: number }>("SELECT COUNT(*) AS n FROM stock_lots WHERE lot_number = ?", [lotNumber])).n);
 const figures: string[] = [];
 
 beforeAll(async () => {
@@ -26,7 +29,16 @@ beforeAll(async () => {
 
 function lotForm(lotNumber: string, file?: { bytes: Uint8Array<ArrayBuffer>; name: string; type: string }) {
   const form = new FormData();
-  for (const [k, v] of Object.entries({ reagent: "water", lotNumber, supplier: "Veldmoor stores", grade: "HPLC", receivedOn: "2026-11-01", expiresOn: "2027-11-01", quantity: "1000" })) form.append(k, v);
+  for (const [k, v] of Object.entries({
+    reagent: "water",
+    lotNumber,
+    supplier: "Veldmoor stores",
+    grade: "HPLC",
+    receivedOn: "2026-11-01",
+    expiresOn: "2027-11-01",
+    quantity: "1000",
+  }))
+    form.append(k, v);
   if (file) form.append("certificate", new Blob([file.bytes], { type: file.type }), file.name);
   return form;
 }
@@ -35,16 +47,64 @@ const PDF = new TextEncoder().encode("%PDF-1.7\n1 0 obj << >> endobj\ntrailer <<
 
 describe("certificate of analysis uploads", () => {
   it.each([
-    ["a text file named coa.pdf", { bytes: new TextEncoder().encode("Certificate of analysis\nLot 42\n"), name: "coa.pdf", type: "application/pdf" }, 400, /^certificate: only a PDF or an image .*whatever its name says/],
-    ["an HTML page named coa.png", { bytes: new TextEncoder().encode("<html><script>alert(1)</script></html>"), name: "coa.png", type: "image/png" }, 400, /^certificate: only a PDF or an image/],
-    ["an SVG (which could carry script) named coa.jpg", { bytes: new TextEncoder().encode('<svg xmlns="http://www.w3.org/2000/svg" onload="alert(1)"/>'), name: "coa.jpg", type: "image/jpeg" }, 400, /^certificate: only a PDF or an image/],
+    [
+      "a text file named coa.pdf",
+      { bytes: new TextEncoder().encode("Certificate of analysis\nLot 42\n"), name: "coa.pdf", type: "application/pdf" },
+      400,
+      /^certificate: only a PDF or an image .*whatever its name says/,
+    ],
+    [
+      "an HTML page named coa.png",
+      { bytes: new TextEncoder().encode("<html><script>alert(1)</script></html>"), name: "coa.png", type: "image/png" },
+      400,
+      /^certificate: only a PDF or an image/,
+    ],
+    [
+      "an SVG (which could carry script) named coa.jpg",
+      {
+        bytes: new TextEncoder().encode('<svg xmlns="http://www.w3.org/2000/svg" onload="alert(1)"/>'),
+        name: "coa.jpg",
+        type: "image/jpeg",
+      },
+      400,
+      /^certificate: only a PDF or an image/,
+    ],
     ["a zero-byte file", { bytes: new Uint8Array(0), name: "coa.pdf", type: "application/pdf" }, 400, /^certificate: the file is empty/],
-    ["a PDF 1 kB over the 10 MB limit", { bytes: (() => { const b = new Uint8Array(10 * MiB + 1024); b.set(PDF); return b; })(), name: "big.pdf", type: "application/pdf" }, 400, /^certificate: the file is 10\.0 MB; the limit is 10 MB/],
-    ["a 30 MB PDF, refused by its size before it is read", { bytes: (() => { const b = new Uint8Array(30 * MiB); b.set(PDF); return b; })(), name: "huge.pdf", type: "application/pdf" }, 413, /^certificate: the upload is over the 10 MB limit/],
+    [
+      "a PDF 1 kB over the 10 MB limit",
+      {
+        bytes: (() => {
+          const b = new Uint8Array(10 * MiB + 1024);
+          b.set(PDF);
+          return b;
+        })(),
+        name: "big.pdf",
+        type: "application/pdf",
+      },
+      400,
+      /^certificate: the file is 10\.0 MB; the limit is 10 MB/,
+    ],
+    [
+      "a 30 MB PDF, refused by its size before it is read",
+      {
+        bytes: (() => {
+          const b = new Uint8Array(30 * MiB);
+          b.set(PDF);
+          return b;
+        })(),
+        name: "huge.pdf",
+        type: "application/pdf",
+      },
+      413,
+      /^certificate: the upload is over the 10 MB limit/,
+    ],
   ] as const)("refuses %s with a clear message, and writes nothing", async (_name, file, status, message) => {
     const lotNumber = `UP-${unique}-${Math.random().toString(36).slice(2, 6)}`;
     const filesBefore = countFiles(app.uploadDir);
-    const response = await tech.fetch("/api/stock-lots", { method: "POST", body: lotForm(lotNumber, { ...file, bytes: new Uint8Array(file.bytes) }) });
+    const response = await tech.fetch("/api/stock-lots", {
+      method: "POST",
+      body: lotForm(lotNumber, { ...file, bytes: new Uint8Array(file.bytes) }),
+    });
     expect(response.status).toBe(status);
     expect(((await response.json()) as { error: string }).error).toMatch(message);
     expect(await lotCount(lotNumber)).toBe(0);
@@ -55,7 +115,9 @@ describe("certificate of analysis uploads", () => {
   it("refuses a chunked upload with no Content-Length as soon as it passes the limit, with the server's memory bounded", async () => {
     const rssBefore = app.rss_MiB();
     const boundary = "----decantfuzz";
-    const head = new TextEncoder().encode(`--${boundary}\r\nContent-Disposition: form-data; name="certificate"; filename="endless.pdf"\r\nContent-Type: application/pdf\r\n\r\n%PDF-1.7\n`);
+    const head = new TextEncoder().encode(
+      `--${boundary}\r\nContent-Disposition: form-data; name="certificate"; filename="endless.pdf"\r\nContent-Type: application/pdf\r\n\r\n%PDF-1.7\n`,
+    );
     let sent = 0;
     const chunk = new Uint8Array(MiB).fill(0x41);
     const body = new ReadableStream<Uint8Array>({
@@ -67,7 +129,12 @@ describe("certificate of analysis uploads", () => {
         controller.enqueue(chunk);
       },
     });
-    const response = await tech.fetch("/api/stock-lots", { method: "POST", headers: { "content-type": `multipart/form-data; boundary=${boundary}` }, body, duplex: "half" } as RequestInit);
+    const response = await tech.fetch("/api/stock-lots", {
+      method: "POST",
+      headers: { "content-type": `multipart/form-data; boundary=${boundary}` },
+      body,
+      duplex: "half",
+    } as RequestInit);
     expect(response.status).toBe(413);
     expect(((await response.json()) as { error: string }).error).toMatch(/^certificate: the upload is over the 10 MB limit/);
     const grown = app.rss_MiB() - rssBefore;
@@ -77,10 +144,16 @@ describe("certificate of analysis uploads", () => {
 
   it("a lot refused after its certificate was stored (a duplicate lot number) leaves no stray file", async () => {
     const lotNumber = `UP-${unique}-DUP`;
-    const first = await tech.fetch("/api/stock-lots", { method: "POST", body: lotForm(lotNumber, { bytes: PDF, name: "coa.pdf", type: "application/pdf" }) });
+    const first = await tech.fetch("/api/stock-lots", {
+      method: "POST",
+      body: lotForm(lotNumber, { bytes: PDF, name: "coa.pdf", type: "application/pdf" }),
+    });
     expect(first.status).toBe(201);
     const filesBefore = countFiles(app.uploadDir);
-    const again = await tech.fetch("/api/stock-lots", { method: "POST", body: lotForm(lotNumber, { bytes: PDF, name: "coa.pdf", type: "application/pdf" }) });
+    const again = await tech.fetch("/api/stock-lots", {
+      method: "POST",
+      body: lotForm(lotNumber, { bytes: PDF, name: "coa.pdf", type: "application/pdf" }),
+    });
     expect(again.status).toBe(409);
     expect(((await again.json()) as { error: string }).error).toMatch(/^lotNumber: /);
     expect(await lotCount(lotNumber)).toBe(1);
@@ -88,17 +161,35 @@ describe("certificate of analysis uploads", () => {
   });
 });
 
-const row = (i: number, project = "PMG-ROOT-26") => `SEQ-${unique}-${i},Wren,"Scout gradient 5–95 % B, 12 min",${project},${new Date(Date.now() - 60_000).toISOString().slice(0, 16)},1,0,0,B26-1103,B26-1104,,,`;
+const row = (i: number, project = "PMG-ROOT-26") =>
+  `SEQ-${unique}-${i},Wren,"Scout gradient 5–95 % B, 12 min",${project},${new Date(Date.now() - 60_000).toISOString().slice(0, 16)},1,0,0,B26-1103,B26-1104,,,`;
 const header = RUN_LOG_HEADER.join(",");
 const utf8 = (text: string) => new TextEncoder().encode(text);
 
 async function importFile(bytes: Uint8Array<ArrayBuffer>, mode: "check" | "commit", type = "text/csv") {
-  const response = await tech.fetch(`/api/imports?mode=${mode}&fileName=runs-${unique}.csv`, { method: "POST", headers: { "content-type": type }, body: bytes });
-  return { status: response.status, body: (await response.json()) as { error?: string; issues?: { row: number; column: string | null; message: string }[]; rowCount?: number } };
+  const response = await tech.fetch(`/api/imports?mode=${mode}&fileName=runs-${unique}.csv`, {
+    method: "POST",
+    headers: { "content-type": type },
+    body: bytes,
+  });
+  return {
+    status: response.status,
+    body: (await response.json()) as {
+      error?: string;
+      issues?: { row: number; column: string | null; message: string }[];
+      rowCount?: number;
+    },
+  };
 }
 
 describe("run-log CSV imports", () => {
-  const latin1 = Uint8Array.from([...utf8(`${header}\r\n`), ...utf8(row(1).replace(",,,", ",,,ren")), 0xe9, 0x40, ...utf8("demo.test\r\n")]);
+  const latin1 = Uint8Array.from([
+    ...utf8(`${header}\r\n`),
+    ...utf8(row(1).replace(",,,", ",,,ren")),
+    0xe9,
+    0x40,
+    ...utf8("demo.test\r\n"),
+  ]);
   const utf16 = (() => {
     const text = `${header}\r\n${row(1)}\r\n`;
     const out = new Uint8Array(2 + text.length * 2);
@@ -119,7 +210,15 @@ describe("run-log CSV imports", () => {
     ["a Latin-1 file", latin1, /^file: this file is not UTF-8 text \(perhaps Latin-1/],
     ["a PNG named runs.csv", png, /^file: this is a PNG file, not a CSV run log/],
     ["a spreadsheet workbook named runs.csv", workbook, /^file: this is a spreadsheet workbook/],
-    ["a file 1 byte over 16 MB", (() => { const b = new Uint8Array(16 * MiB + 1); b.fill(0x61); return b; })(), /^file: larger than 16 MB/],
+    [
+      "a file 1 byte over 16 MB",
+      (() => {
+        const b = new Uint8Array(16 * MiB + 1);
+        b.fill(0x61);
+        return b;
+      })(),
+      /^file: larger than 16 MB/,
+    ],
   ] as const)("refuses %s with a clear message (check and commit), and writes nothing", async (_name, bytes, message) => {
     const before = await databaseFingerprint(app.sequelize);
     for (const mode of ["check", "commit"] as const) {
@@ -168,7 +267,9 @@ describe("run-log CSV imports", () => {
     // The largest file accepted is read whole and every row planned before the transaction; this
     // bound guards against regressions (the figure is printed below), it is not a target.
     expect(grown, `the server grew by ${grown.toFixed(0)} MiB`).toBeLessThan(1024);
-    console.log(`uploads: ${RUN_LOG_MAX_ROWS.toLocaleString("en")}-row run log (${(file.byteLength / MiB).toFixed(1)} MB) committed with one bad row in ${seconds.toFixed(1)} s: 400, rows written 0, server RSS +${grown.toFixed(0)} MiB`);
+    console.log(
+      `uploads: ${RUN_LOG_MAX_ROWS.toLocaleString("en")}-row run log (${(file.byteLength / MiB).toFixed(1)} MB) committed with one bad row in ${seconds.toFixed(1)} s: 400, rows written 0, server RSS +${grown.toFixed(0)} MiB`,
+    );
   }, 240_000);
 
   it(`a file of ${(RUN_LOG_MAX_ROWS + 1).toLocaleString("en")} rows is refused with the limit in the message`, async () => {

@@ -30,7 +30,19 @@ async function acetonitrileBatch(volume_mL: number, room?: string) {
     );
     components.push({ reagent: c.reagent, stockLotId: lot!.id });
   }
-  return recordBatch({ idempotencyKey: key(), recipeVersionId: 2, volume_mL, bottles: 1, bottleSize_mL: 1000, temperature_C: 22, components, ...(room ? { room } : {}) }, tech);
+  return recordBatch(
+    {
+      idempotencyKey: key(),
+      recipeVersionId: 2,
+      volume_mL,
+      bottles: 1,
+      bottleSize_mL: 1000,
+      temperature_C: 22,
+      components,
+      ...(room ? { room } : {}),
+    },
+    tech,
+  );
 }
 
 describe("the room a batch is kept in", () => {
@@ -43,7 +55,10 @@ describe("the room a batch is kept in", () => {
     expect(plain.batch.room).toBe("B2.14");
     const chosen = await acetonitrileBatch(800, "B2.16");
     expect(chosen.batch.room).toBe("B2.16");
-    const [row] = await db.query<{ room: string }>("SELECT room FROM batches WHERE id = ?", { type: QueryTypes.SELECT, replacements: [chosen.batch.id] });
+    const [row] = await db.query<{ room: string }>("SELECT room FROM batches WHERE id = ?", {
+      type: QueryTypes.SELECT,
+      replacements: [chosen.batch.id],
+    });
     expect(row!.room).toBe("B2.16");
   });
 
@@ -60,7 +75,9 @@ describe("the room a batch is kept in", () => {
 describe("flammables on hand per room", () => {
   it("equals stock lots + live batches + waste, summed straight from the tables", async () => {
     // A discarded batch in B2.16 must not count; add one so the test would see it.
-    await db.query("UPDATE batches SET status = 'discarded' WHERE id = (SELECT id FROM (SELECT id FROM batches WHERE room = 'B2.16' AND status IN ('ready','in_use') ORDER BY id DESC LIMIT 1) t)");
+    await db.query(
+      "UPDATE batches SET status = 'discarded' WHERE id = (SELECT id FROM (SELECT id FROM batches WHERE room = 'B2.16' AND status IN ('ready','in_use') ORDER BY id DESC LIMIT 1) t)",
+    );
     const now = new Date();
 
     const stock = await db.query<{ room: string; v: string }>(

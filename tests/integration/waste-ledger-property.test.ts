@@ -70,12 +70,27 @@ describe("the waste summary over random ledgers", () => {
           const streamOf = (i: number | null) => (i === null ? null : streams[i % streams.length]!);
           const at = (day: number, minute: number) => new Date(yearStart + day * DAY + minute * 60_000);
           const entries: NewLedgerEntry[] = originals.map((o) => ({
-            occurredAt: at(o.day, o.minute), projectId: o.project, kind: o.kind, batchId: null, reagentId: REAGENTS[o.reagent]!,
-            volume_mL: o.volume_dL / 10, mass_g: null, channel: null, wasteStreamId: streamOf(o.stream), wasteContainerId: o.container,
-            sourceKind: "manual", sourceId: tag, authorId: 3,
+            occurredAt: at(o.day, o.minute),
+            projectId: o.project,
+            kind: o.kind,
+            batchId: null,
+            reagentId: REAGENTS[o.reagent]!,
+            volume_mL: o.volume_dL / 10,
+            mass_g: null,
+            channel: null,
+            wasteStreamId: streamOf(o.stream),
+            wasteContainerId: o.container,
+            sourceKind: "manual",
+            sourceId: tag,
+            authorId: 3,
           }));
           await db.transaction((transaction) => appendEntries(entries, transaction));
-          const ids = (await db.query<{ id: number }>("SELECT id FROM ledger_entries WHERE source_id = ? ORDER BY id", { type: QueryTypes.SELECT, replacements: [tag] })).map((r) => r.id);
+          const ids = (
+            await db.query<{ id: number }>("SELECT id FROM ledger_entries WHERE source_id = ? ORDER BY id", {
+              type: QueryTypes.SELECT,
+              replacements: [tag],
+            })
+          ).map((r) => r.id);
           expect(ids).toHaveLength(originals.length);
 
           // Corrections reverse distinct originals (reverses_id is unique), each once.
@@ -84,22 +99,50 @@ describe("the waste summary over random ledgers", () => {
           const corrected = [...reversed].map(([index, c]) => {
             const o = originals[index]!;
             const day = Math.min(364, o.day + c.laterDays);
-            return { index, c, entry: {
-              occurredAt: at(day, day === o.day ? o.minute : 0), projectId: o.project, kind: "correction" as const, batchId: null, reagentId: REAGENTS[o.reagent]!,
-              volume_mL: -o.volume_dL / 10, mass_g: null, channel: null, wasteStreamId: c.keepStream ? streamOf(o.stream) : null, wasteContainerId: o.container,
-              sourceKind: "manual" as const, sourceId: `${tag}:correction`, authorId: 3, reversesId: ids[index]!, reason: "generated",
-            } };
+            return {
+              index,
+              c,
+              entry: {
+                occurredAt: at(day, day === o.day ? o.minute : 0),
+                projectId: o.project,
+                kind: "correction" as const,
+                batchId: null,
+                reagentId: REAGENTS[o.reagent]!,
+                volume_mL: -o.volume_dL / 10,
+                mass_g: null,
+                channel: null,
+                wasteStreamId: c.keepStream ? streamOf(o.stream) : null,
+                wasteContainerId: o.container,
+                sourceKind: "manual" as const,
+                sourceId: `${tag}:correction`,
+                authorId: 3,
+                reversesId: ids[index]!,
+                reason: "generated",
+              },
+            };
           });
-          if (corrected.length) await db.transaction((transaction) => appendEntries(corrected.map((x) => x.entry), transaction));
+          if (corrected.length)
+            await db.transaction((transaction) =>
+              appendEntries(
+                corrected.map((x) => x.entry),
+                transaction,
+              ),
+            );
 
           // The model: what reaches waste, with its stream and instant.
           const model: { at: number; stream: string; volume_dL: number }[] = [];
           originals.forEach((o, i) => {
-            if (WASTE_KINDS.has(o.kind)) model.push({ at: entries[i]!.occurredAt.getTime(), stream: streamOf(o.stream) ?? "unassigned", volume_dL: o.volume_dL });
+            if (WASTE_KINDS.has(o.kind))
+              model.push({ at: entries[i]!.occurredAt.getTime(), stream: streamOf(o.stream) ?? "unassigned", volume_dL: o.volume_dL });
           });
           for (const { index, entry } of corrected) {
             const o = originals[index]!;
-            if (WASTE_KINDS.has(o.kind)) model.push({ at: entry.occurredAt.getTime(), stream: entry.wasteStreamId ?? streamOf(o.stream) ?? "unassigned", volume_dL: -o.volume_dL });
+            if (WASTE_KINDS.has(o.kind))
+              model.push({
+                at: entry.occurredAt.getTime(),
+                stream: entry.wasteStreamId ?? streamOf(o.stream) ?? "unassigned",
+                volume_dL: -o.volume_dL,
+              });
           }
 
           for (const [fromDay, length] of [...periods, [0, 364] as [number, number]]) {
@@ -116,7 +159,12 @@ describe("the waste summary over random ledgers", () => {
             // Every site stream is listed; a stream with nothing in it shows 0, not a gap.
             for (const s of streams) expect(got.has(s)).toBe(true);
             for (const stream of new Set([...expected.keys(), ...got.keys()])) {
-              expect({ stream, from, to, volume_mL: (got.get(stream) ?? 0) + 0 }).toEqual({ stream, from, to, volume_mL: (expected.get(stream) ?? 0) / 10 + 0 });
+              expect({ stream, from, to, volume_mL: (got.get(stream) ?? 0) + 0 }).toEqual({
+                stream,
+                from,
+                to,
+                volume_mL: (expected.get(stream) ?? 0) / 10 + 0,
+              });
             }
           }
         },

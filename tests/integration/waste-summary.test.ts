@@ -34,7 +34,10 @@ describe("GET /api/waste/summary", () => {
       `SELECT waste_stream_id AS stream, SUM(volume_ml) AS v FROM ledger_entries
         WHERE kind IN ('run', 'draw', 'discard') AND occurred_at >= :start AND occurred_at < :end
         GROUP BY waste_stream_id`,
-      { type: QueryTypes.SELECT, replacements: { start: new Date(`${from}T00:00:00Z`), end: new Date(new Date(`${to}T00:00:00Z`).getTime() + DAY) } },
+      {
+        type: QueryTypes.SELECT,
+        replacements: { start: new Date(`${from}T00:00:00Z`), end: new Date(new Date(`${to}T00:00:00Z`).getTime() + DAY) },
+      },
     );
     expect(rows.length).toBeGreaterThan(0);
     const expected = Object.fromEntries(rows.map((r) => [r.stream, Number(r.v)]));
@@ -81,7 +84,11 @@ describe("GET /api/waste/summary", () => {
     for (const email of ["tech@demo.test", "client@demo.test"]) {
       const c = await client(email);
       expect((await c.fetch("/api/waste/settings")).status).toBe(403);
-      const put = await c.fetch("/api/waste/settings", { method: "PUT", headers: { "content-type": "application/json" }, body: JSON.stringify({ fullThreshold_percent: 50 }) });
+      const put = await c.fetch("/api/waste/settings", {
+        method: "PUT",
+        headers: { "content-type": "application/json" },
+        body: JSON.stringify({ fullThreshold_percent: 50 }),
+      });
       expect(put.status).toBe(403);
     }
   });
@@ -92,14 +99,28 @@ describe("GET /api/waste/summary", () => {
     const response = await tech.fetch("/api/waste/route", {
       method: "POST",
       headers: { "content-type": "application/json" },
-      body: JSON.stringify({ containerId: wren!.id, parts: [{ reagentId: "water", volume_mL: 499.5 }, { reagentId: "acetonitrile", volume_mL: 499.5 }, { reagentId: "trifluoroacetic-acid", volume_mL: 1 }] }),
+      body: JSON.stringify({
+        containerId: wren!.id,
+        parts: [
+          { reagentId: "water", volume_mL: 499.5 },
+          { reagentId: "acetonitrile", volume_mL: 499.5 },
+          { reagentId: "trifluoroacetic-acid", volume_mL: 1 },
+        ],
+      }),
     });
     expect(response.status).toBe(200);
-    const body = (await response.json()) as { assignment: { streamId: string }; acceptance: { ok: boolean; code?: string; reason?: string } };
+    const body = (await response.json()) as {
+      assignment: { streamId: string };
+      acceptance: { ok: boolean; code?: string; reason?: string };
+    };
     expect(body.assignment.streamId).toBe("halogenated-organic");
     expect(body.acceptance).toMatchObject({ ok: false, code: "wrong-stream" });
     expect(body.acceptance.reason).toMatch(/does not take halogenated organic waste/);
-    const bad = await tech.fetch("/api/waste/route", { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify({ containerId: wren!.id, parts: [{ reagentId: "unobtainium", volume_mL: 5 }] }) });
+    const bad = await tech.fetch("/api/waste/route", {
+      method: "POST",
+      headers: { "content-type": "application/json" },
+      body: JSON.stringify({ containerId: wren!.id, parts: [{ reagentId: "unobtainium", volume_mL: 5 }] }),
+    });
     expect(bad.status).toBe(400);
     expect(((await bad.json()) as { error: string }).error).toMatch(/^parts: unobtainium/);
   });
@@ -111,6 +132,10 @@ describe("GET /api/waste/summary", () => {
     expect((await csv.text()).split("\r\n")[0]).toBe("section,key,stream,volume_mL");
     const pdf = await safety.fetch(`/api/waste/report?from=${from}&to=${to}&format=pdf`);
     expect(pdf.status).toBe(200);
-    expect(Buffer.from(await pdf.arrayBuffer()).subarray(0, 5).toString()).toBe("%PDF-");
+    expect(
+      Buffer.from(await pdf.arrayBuffer())
+        .subarray(0, 5)
+        .toString(),
+    ).toBe("%PDF-");
   });
 });

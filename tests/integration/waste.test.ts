@@ -7,8 +7,17 @@ import { QueryTypes, type Sequelize } from "sequelize";
 import { beforeAll, describe, expect, it } from "vitest";
 import { acquireJobLock, releaseJobLock } from "../../src/lib/server/job-lock";
 import {
-  checkContainerAccepts, getContainer, listContainers, recordCollection, recordReading, requestPickup,
-  runWasteAlertCheck, setContainerStatus, wasteOnHand, wasteStreamForMix, wasteSummary,
+  checkContainerAccepts,
+  getContainer,
+  listContainers,
+  recordCollection,
+  recordReading,
+  requestPickup,
+  runWasteAlertCheck,
+  setContainerStatus,
+  wasteOnHand,
+  wasteStreamForMix,
+  wasteSummary,
 } from "../../src/lib/server/services/waste";
 import { useServiceDatabase } from "../support/service-database";
 
@@ -61,7 +70,11 @@ describe("level readings", () => {
 });
 
 describe("routing a mix to a container", () => {
-  const tfaMix = [{ reagentId: "water", volume_mL: 499.5 }, { reagentId: "acetonitrile", volume_mL: 499.5 }, { reagentId: "trifluoroacetic-acid", volume_mL: 1 }];
+  const tfaMix = [
+    { reagentId: "water", volume_mL: 499.5 },
+    { reagentId: "acetonitrile", volume_mL: 499.5 },
+    { reagentId: "trifluoroacetic-acid", volume_mL: 1 },
+  ];
 
   it("refuses a halogenated mix in a non-halogenated container, with the reason", async () => {
     const mix = await wasteStreamForMix(tfaMix);
@@ -90,7 +103,9 @@ describe("routing a mix to a container", () => {
   });
 
   it("follows a site override that routes TFA elsewhere", async () => {
-    await db.query(`INSERT INTO settings (\`key\`, value, updated_at) VALUES ('waste.reagentStreams', '{"trifluoroacetic-acid":"acidic-corrosive"}', NOW(3))`);
+    await db.query(
+      `INSERT INTO settings (\`key\`, value, updated_at) VALUES ('waste.reagentStreams', '{"trifluoroacetic-acid":"acidic-corrosive"}', NOW(3))`,
+    );
     expect((await wasteStreamForMix(tfaMix)).streamId).toBe("non-halogenated-organic");
     await db.query("DELETE FROM settings WHERE `key` = 'waste.reagentStreams'");
     expect((await wasteStreamForMix(tfaMix)).streamId).toBe("halogenated-organic");
@@ -110,7 +125,10 @@ describe("pickups", () => {
     expect((await getContainer(id)).status).toBe("awaiting_pickup");
     // It takes no more waste, and its instrument is unhooked.
     expect(await checkContainerAccepts(id, "halogenated-organic")).toMatchObject({ ok: false, code: "not-in-use" });
-    const [heron] = await db.query<{ waste_container_id: number | null }>("SELECT waste_container_id FROM instruments WHERE name = 'Heron'", { type: QueryTypes.SELECT });
+    const [heron] = await db.query<{ waste_container_id: number | null }>(
+      "SELECT waste_container_id FROM instruments WHERE name = 'Heron'",
+      { type: QueryTypes.SELECT },
+    );
     expect(heron!.waste_container_id).toBeNull();
     await expect(requestPickup({ containerIds: [id], note: null }, { actor })).rejects.toThrow(/already/);
 
@@ -123,7 +141,10 @@ describe("pickups", () => {
 
     const onHandAfter = await wasteOnHand();
     expect(onHandAfter.total_mL).toBeCloseTo(onHandBefore.total_mL - container.estimated_mL, 0);
-    expect(onHandAfter.byStream["halogenated-organic"] ?? 0).toBeCloseTo((onHandBefore.byStream["halogenated-organic"] ?? 0) - container.estimated_mL, 0);
+    expect(onHandAfter.byStream["halogenated-organic"] ?? 0).toBeCloseTo(
+      (onHandBefore.byStream["halogenated-organic"] ?? 0) - container.estimated_mL,
+      0,
+    );
     // What was produced stays in the period's totals: the ledger is history.
     expect(await wasteSummary(period)).toEqual(summaryBefore);
     await expect(recordCollection(pickup.id, { manifestRef: "again", note: null }, { actor })).rejects.toThrow(/collected already/);
@@ -187,7 +208,10 @@ describe("alert mails", () => {
     await runWasteAlertCheck();
     await addWaste(id, 500, "non-halogenated-organic");
     await runWasteAlertCheck();
-    const rows = await db.query<{ kind: string }>("SELECT kind FROM waste_alerts WHERE container_id = :id", { type: QueryTypes.SELECT, replacements: { id } });
+    const rows = await db.query<{ kind: string }>("SELECT kind FROM waste_alerts WHERE container_id = :id", {
+      type: QueryTypes.SELECT,
+      replacements: { id },
+    });
     expect(rows).toEqual([{ kind: "over-capacity" }]);
     await settle();
     const mails = await mailsTo(address);

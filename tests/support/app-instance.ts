@@ -31,7 +31,6 @@ export interface AppInstance {
   recentOutput(): string;
 }
 
-
 export function clientOf(baseUrl: string) {
   return async (email?: string, password = DEMO_PASSWORD): Promise<Client> => {
     const c: Client = {
@@ -46,7 +45,11 @@ export function clientOf(baseUrl: string) {
       },
     };
     if (email) {
-      const response = await c.fetch("/api/auth/sign-in", { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify({ email, password }) });
+      const response = await c.fetch("/api/auth/sign-in", {
+        method: "POST",
+        headers: { "content-type": "application/json" },
+        body: JSON.stringify({ email, password }),
+      });
       if (response.status !== 200) throw new Error(`sign-in as ${email} answered ${response.status}`);
     }
     return c;
@@ -72,7 +75,17 @@ export function useAppInstance(extraEnv: NodeJS.ProcessEnv = {}): AppInstance {
     const baseUrl = `http://127.0.0.1:${port}`;
     child = spawn(...appServerCommand(process.env.DECANT_OUT_DIR ?? "dist"), {
       // No scheduled jobs: they would write while a test compares the database before and after.
-      env: { ...process.env, DATABASE_NAME: name, HOST: "127.0.0.1", PORT: String(port), APP_ORIGIN: baseUrl, UPLOAD_DIR: uploadDir, NODE_ENV: "production", DECANT_NO_SCHEDULE: "1", ...extraEnv },
+      env: {
+        ...process.env,
+        DATABASE_NAME: name,
+        HOST: "127.0.0.1",
+        PORT: String(port),
+        APP_ORIGIN: baseUrl,
+        UPLOAD_DIR: uploadDir,
+        NODE_ENV: "production",
+        DECANT_NO_SCHEDULE: "1",
+        ...extraEnv,
+      },
       stdio: ["ignore", "pipe", "pipe"],
     });
     child.stdout?.on("data", (d: Buffer) => (output = (output + d.toString()).slice(-4000)));
@@ -80,7 +93,10 @@ export function useAppInstance(extraEnv: NodeJS.ProcessEnv = {}): AppInstance {
     const deadline = Date.now() + 30_000;
     for (;;) {
       if (child.exitCode !== null) throw new Error(`the app instance exited (${child.exitCode}):\n${output}`);
-      const up = await fetch(`${baseUrl}/api/health`).then((r) => r.status === 200, () => false);
+      const up = await fetch(`${baseUrl}/api/health`).then(
+        (r) => r.status === 200,
+        () => false,
+      );
       if (up) break;
       if (Date.now() > deadline) throw new Error(`the app instance did not answer within 30 s:\n${output}`);
       await new Promise((r) => setTimeout(r, 150));
@@ -120,11 +136,21 @@ export function rssOf(pid: number): number {
 
 /** Row count and checksum of every table of a database: equal before and after means nothing was written. */
 export async function databaseFingerprint(sequelize: Sequelize): Promise<Record<string, string>> {
-  const tables = (await sequelize.query<{ name: string }>("SELECT table_name AS name FROM information_schema.tables WHERE table_schema = DATABASE() AND table_type = 'BASE TABLE' ORDER BY table_name", { type: QueryTypes.SELECT })).map((t) => t.name);
-  const sums = await sequelize.query<{ Table: string; Checksum: number | string | null }>(`CHECKSUM TABLE ${tables.map((t) => `\`${t}\``).join(", ")}`, { type: QueryTypes.SELECT });
+  const tables = (
+    await sequelize.query<{ name: string }>(
+      "SELECT table_name AS name FROM information_schema.tables WHERE table_schema = DATABASE() AND table_type = 'BASE TABLE' ORDER BY table_name",
+      { type: QueryTypes.SELECT },
+    )
+  ).map((t) => t.name);
+  const sums = await sequelize.query<{ Table: string; Checksum: number | string | null }>(
+    `CHECKSUM TABLE ${tables.map((t) => `\`${t}\``).join(", ")}`,
+    { type: QueryTypes.SELECT },
+  );
   const out: Record<string, string> = {};
   for (const t of tables) {
-    const [{ n }] = (await sequelize.query<{ n: number }>(`SELECT COUNT(*) AS n FROM \`${t}\``, { type: QueryTypes.SELECT })) as [{ n: number }];
+    const [{ n }] = (await sequelize.query<{ n: number }>(`SELECT COUNT(*) AS n FROM \`${t}\``, { type: QueryTypes.SELECT })) as [
+      { n: number },
+    ];
     const sum = sums.find((s) => s.Table.endsWith(`.${t}`))?.Checksum;
     out[t] = `${Number(n)} rows, checksum ${String(sum)}`;
   }

@@ -18,14 +18,22 @@ export async function messagesTo(address: string): Promise<StoredMessage[]> {
  * Waits until a message to the address arrives (received after `since`, when given, and matching
  * `subject`), and returns the newest such message.
  */
-export async function waitForMail(address: string, options: { since?: Date; subject?: RegExp; timeout_ms?: number } = {}): Promise<StoredMessage> {
+export async function waitForMail(
+  address: string,
+  options: { since?: Date; subject?: RegExp; timeout_ms?: number } = {},
+): Promise<StoredMessage> {
   const deadline = Date.now() + (options.timeout_ms ?? 10_000);
   for (;;) {
     const found = (await messagesTo(address)).find(
-      (m) => (!options.since || Date.parse(m.receivedAt) >= options.since.getTime() - 1000) && (!options.subject || options.subject.test(m.subject)),
+      (m) =>
+        (!options.since || Date.parse(m.receivedAt) >= options.since.getTime() - 1000) &&
+        (!options.subject || options.subject.test(m.subject)),
     );
     if (found) return found;
-    if (Date.now() > deadline) throw new Error(`No mail to ${address}${options.subject ? ` with subject ${options.subject}` : ""} arrived within ${options.timeout_ms ?? 10_000} ms.`);
+    if (Date.now() > deadline)
+      throw new Error(
+        `No mail to ${address}${options.subject ? ` with subject ${options.subject}` : ""} arrived within ${options.timeout_ms ?? 10_000} ms.`,
+      );
     await new Promise((resolve) => setTimeout(resolve, 100));
   }
 }

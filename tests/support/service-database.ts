@@ -11,7 +11,8 @@ export function useServiceDatabase() {
     (name) => {
       process.env.DATABASE_NAME = name;
       const sequelize = getSequelize();
-      if (sequelize.getDatabaseName() !== name) throw new Error("getSequelize() was opened before useServiceDatabase(); call it first in the file");
+      if (sequelize.getDatabaseName() !== name)
+        throw new Error("getSequelize() was opened before useServiceDatabase(); call it first in the file");
       return sequelize;
     },
     true,

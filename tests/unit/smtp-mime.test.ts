@@ -10,7 +10,7 @@ async function compose(options: ConstructorParameters<typeof MailComposer>[0]): 
 describe("parseMessage", () => {
   it.each([
     // Plain ASCII: nodemailer sends 7bit.
-    ["ascii", "Your link", "Open http://127.0.0.1:4321/set-password?token=abc_DEF-123 now.", "<p>Open the <a href=\"x\">link</a>.</p>"],
+    ["ascii", "Your link", "Open http://127.0.0.1:4321/set-password?token=abc_DEF-123 now.", '<p>Open the <a href="x">link</a>.</p>'],
     // Non-ASCII text: quoted-printable; long lines get soft line breaks.
     ["accents and a long line", "Einladung für Zoë", `Hallo Zoë, ${"lange Zeile ".repeat(20)}Ende.`, "<p>Grüße — Ångström</p>"],
     // Mostly non-Latin text: nodemailer picks base64.
@@ -27,7 +27,13 @@ describe("parseMessage", () => {
   });
 
   it("skips attachments and keeps the first text part", async () => {
-    const raw = await compose({ from: "a@lab.test", to: "b@lab.test", subject: "With file", text: "Body text", attachments: [{ filename: "notes.txt", content: "not the body" }] });
+    const raw = await compose({
+      from: "a@lab.test",
+      to: "b@lab.test",
+      subject: "With file",
+      text: "Body text",
+      attachments: [{ filename: "notes.txt", content: "not the body" }],
+    });
     expect(parseMessage(raw).text).toBe("Body text");
   });
 });

@@ -27,9 +27,28 @@ export default function ChangePasswordForm({ email }: { email: string }) {
   return (
     <IslandForm method="post" onSubmit={onSubmit} noValidate className="flex max-w-sm flex-col gap-4" aria-label="Change password">
       <input type="email" name="username" autoComplete="username" value={email} readOnly hidden />
-      <Field label="Current password" type="password" autoComplete="current-password" registration={register("currentPassword")} error={formState.errors.currentPassword?.message} />
-      <Field label="New password" type="password" autoComplete="new-password" registration={register("newPassword")} error={formState.errors.newPassword?.message} hint="At least 12 characters." />
-      <Field label="Repeat the new password" type="password" autoComplete="new-password" registration={register("confirmPassword")} error={formState.errors.confirmPassword?.message} />
+      <Field
+        label="Current password"
+        type="password"
+        autoComplete="current-password"
+        registration={register("currentPassword")}
+        error={formState.errors.currentPassword?.message}
+      />
+      <Field
+        label="New password"
+        type="password"
+        autoComplete="new-password"
+        registration={register("newPassword")}
+        error={formState.errors.newPassword?.message}
+        hint="At least 12 characters."
+      />
+      <Field
+        label="Repeat the new password"
+        type="password"
+        autoComplete="new-password"
+        registration={register("confirmPassword")}
+        error={formState.errors.confirmPassword?.message}
+      />
       {problem && (
         <p className="notice notice-danger" role="alert">
           {problem}

@@ -34,7 +34,13 @@ export default function ForgotPasswordForm() {
 
   return (
     <IslandForm method="post" onSubmit={onSubmit} noValidate className="flex flex-col gap-4" aria-label="Forgotten password">
-      <Field label="E-mail address" type="email" autoComplete="username" registration={register("email")} error={formState.errors.email?.message} />
+      <Field
+        label="E-mail address"
+        type="email"
+        autoComplete="username"
+        registration={register("email")}
+        error={formState.errors.email?.message}
+      />
       {problem && (
         <p className="notice notice-danger" role="alert">
           {problem}

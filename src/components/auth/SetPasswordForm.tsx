@@ -23,8 +23,21 @@ export default function SetPasswordForm({ token, email }: { token: string; email
       <input type="hidden" {...register("token")} />
       {/* Lets password managers file the new password under the right account. */}
       <input type="email" name="username" autoComplete="username" value={email} readOnly hidden />
-      <Field label="New password" type="password" autoComplete="new-password" registration={register("newPassword")} error={formState.errors.newPassword?.message} hint="At least 12 characters; a few unrelated words make a good one." />
-      <Field label="Repeat the new password" type="password" autoComplete="new-password" registration={register("confirmPassword")} error={formState.errors.confirmPassword?.message} />
+      <Field
+        label="New password"
+        type="password"
+        autoComplete="new-password"
+        registration={register("newPassword")}
+        error={formState.errors.newPassword?.message}
+        hint="At least 12 characters; a few unrelated words make a good one."
+      />
+      <Field
+        label="Repeat the new password"
+        type="password"
+        autoComplete="new-password"
+        registration={register("confirmPassword")}
+        error={formState.errors.confirmPassword?.message}
+      />
       {(problem || formState.errors.token) && (
         <p className="notice notice-danger" role="alert">
           {problem ?? formState.errors.token?.message}

@@ -21,8 +21,21 @@ export default function SignInForm({ next, email = "" }: { next: string; email?:
 
   return (
     <IslandForm method="post" onSubmit={onSubmit} noValidate className="flex flex-col gap-4" aria-label="Sign in">
-      <Field label="E-mail address" type="email" autoComplete="username" defaultValue={email || undefined} registration={register("email")} error={formState.errors.email?.message} />
-      <Field label="Password" type="password" autoComplete="current-password" registration={register("password")} error={formState.errors.password?.message} />
+      <Field
+        label="E-mail address"
+        type="email"
+        autoComplete="username"
+        defaultValue={email || undefined}
+        registration={register("email")}
+        error={formState.errors.email?.message}
+      />
+      <Field
+        label="Password"
+        type="password"
+        autoComplete="current-password"
+        registration={register("password")}
+        error={formState.errors.password?.message}
+      />
       {problem && (
         <p className="notice notice-danger" role="alert">
           {problem}

@@ -26,15 +26,29 @@ export default function InvoiceActions({ invoiceId, number, status }: Props) {
   if (status !== "open" && status !== "uncollectible") return null;
   return (
     <span className="inline-flex flex-wrap items-center gap-2">
-      <button type="button" className="btn btn-quiet" disabled={busy !== null} onClick={() => act("void", `Void invoice ${number ?? ""}? The client can no longer pay it; anything owed goes on the next period.`)}>
+      <button
+        type="button"
+        className="btn btn-quiet"
+        disabled={busy !== null}
+        onClick={() => act("void", `Void invoice ${number ?? ""}? The client can no longer pay it; anything owed goes on the next period.`)}
+      >
         {busy === "void" ? "Voiding…" : "Void"}
       </button>
       {status === "open" && (
-        <button type="button" className="btn btn-quiet" disabled={busy !== null} onClick={() => act("uncollectible", `Mark invoice ${number ?? ""} uncollectible? It stays payable.`)}>
+        <button
+          type="button"
+          className="btn btn-quiet"
+          disabled={busy !== null}
+          onClick={() => act("uncollectible", `Mark invoice ${number ?? ""} uncollectible? It stays payable.`)}
+        >
           {busy === "uncollectible" ? "Saving…" : "Write off"}
         </button>
       )}
-      {problem && <span className="field-error" role="alert">{problem}</span>}
+      {problem && (
+        <span className="field-error" role="alert">
+          {problem}
+        </span>
+      )}
     </span>
   );
 }

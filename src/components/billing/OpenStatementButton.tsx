@@ -28,7 +28,11 @@ export default function OpenStatementButton({ clientId, clientName, periodStart,
       <button type="button" className="btn btn-quiet" onClick={open} disabled={busy} aria-label={`Open the draft for ${clientName}`}>
         {busy ? "Opening…" : "Open draft"}
       </button>
-      {problem && <span className="field-error" role="alert">{problem}</span>}
+      {problem && (
+        <span className="field-error" role="alert">
+          {problem}
+        </span>
+      )}
     </span>
   );
 }

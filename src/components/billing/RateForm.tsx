@@ -85,19 +85,38 @@ export default function RateForm({ reagents, currency, today }: Props) {
         <>
           <div className="field">
             <label htmlFor={`${id}-reagent`}>Reagent</label>
-            <select id={`${id}-reagent`} className="input" value={reagentId} onChange={(e) => { setReagentId(e.target.value); setGrade(""); }} aria-invalid={errors.reagentId ? true : undefined}>
+            <select
+              id={`${id}-reagent`}
+              className="input"
+              value={reagentId}
+              onChange={(e) => {
+                setReagentId(e.target.value);
+                setGrade("");
+              }}
+              aria-invalid={errors.reagentId ? true : undefined}
+            >
               {reagents.map((r) => (
-                <option key={r.id} value={r.id}>{r.name}</option>
+                <option key={r.id} value={r.id}>
+                  {r.name}
+                </option>
               ))}
             </select>
             {error("reagentId")}
           </div>
           <div className="field">
             <label htmlFor={`${id}-grade`}>Grade</label>
-            <select id={`${id}-grade`} className="input" value={grade} onChange={(e) => setGrade(e.target.value)} aria-invalid={errors.grade ? true : undefined}>
+            <select
+              id={`${id}-grade`}
+              className="input"
+              value={grade}
+              onChange={(e) => setGrade(e.target.value)}
+              aria-invalid={errors.grade ? true : undefined}
+            >
               <option value="">Any grade (general price)</option>
               {(reagent?.grades ?? []).map((g) => (
-                <option key={g} value={g}>{g}</option>
+                <option key={g} value={g}>
+                  {g}
+                </option>
               ))}
             </select>
             {error("grade")}
@@ -106,26 +125,56 @@ export default function RateForm({ reagents, currency, today }: Props) {
       )}
       <div className="field">
         <label htmlFor={`${id}-list`}>Price list</label>
-        <select id={`${id}-list`} className="input" value={priceList} onChange={(e) => setPriceList(e.target.value as "internal" | "external")}>
+        <select
+          id={`${id}-list`}
+          className="input"
+          value={priceList}
+          onChange={(e) => setPriceList(e.target.value as "internal" | "external")}
+        >
           <option value="internal">Internal research groups</option>
           <option value="external">External clients</option>
         </select>
       </div>
       <div className="field">
-        <label htmlFor={`${id}-price`}>Price in {currency} per {unit}</label>
-        <input id={`${id}-price`} className="input num" inputMode="decimal" value={price} onChange={(e) => setPrice(e.target.value)} placeholder="42.00" aria-invalid={errors.amount_minor ? true : undefined} aria-describedby={errors.amount_minor ? `${id}-amount_minor-error` : undefined} />
+        <label htmlFor={`${id}-price`}>
+          Price in {currency} per {unit}
+        </label>
+        <input
+          id={`${id}-price`}
+          className="input num"
+          inputMode="decimal"
+          value={price}
+          onChange={(e) => setPrice(e.target.value)}
+          placeholder="42.00"
+          aria-invalid={errors.amount_minor ? true : undefined}
+          aria-describedby={errors.amount_minor ? `${id}-amount_minor-error` : undefined}
+        />
         {error("amount_minor")}
       </div>
       <div className="field">
         <label htmlFor={`${id}-from`}>Effective from</label>
-        <input id={`${id}-from`} type="date" className="input" value={effectiveFrom} onChange={(e) => setEffectiveFrom(e.target.value)} aria-invalid={errors.effectiveFrom ? true : undefined} aria-describedby={errors.effectiveFrom ? `${id}-effectiveFrom-error` : undefined} />
+        <input
+          id={`${id}-from`}
+          type="date"
+          className="input"
+          value={effectiveFrom}
+          onChange={(e) => setEffectiveFrom(e.target.value)}
+          aria-invalid={errors.effectiveFrom ? true : undefined}
+          aria-describedby={errors.effectiveFrom ? `${id}-effectiveFrom-error` : undefined}
+        />
         {error("effectiveFrom")}
       </div>
       <div className="flex items-end gap-3 sm:col-span-2 lg:col-span-3">
-        <button type="submit" className="btn" disabled={busy}>{busy ? "Adding…" : "Add rate"}</button>
+        <button type="submit" className="btn" disabled={busy}>
+          {busy ? "Adding…" : "Add rate"}
+        </button>
         <p className="text-sm text-[var(--color-muted)]">Entries before this date keep the price that was in force then.</p>
       </div>
-      {problem && <p className="notice notice-danger sm:col-span-2 lg:col-span-3" role="alert">{problem}</p>}
+      {problem && (
+        <p className="notice notice-danger sm:col-span-2 lg:col-span-3" role="alert">
+          {problem}
+        </p>
+      )}
     </IslandForm>
   );
 }

@@ -19,7 +19,9 @@ function deferredResolver<T extends FieldValues>(load: () => Promise<FormSchema<
   let loading: Promise<Resolver<T>> | null = null;
   return async (values, context, options) => {
     // The resolver's overloads want the schema's input type to be FieldValues; ours is `unknown`.
-    loading ??= Promise.all([import("@hookform/resolvers/zod"), load()]).then(([{ zodResolver }, schema]) => zodResolver(schema as never) as unknown as Resolver<T>);
+    loading ??= Promise.all([import("@hookform/resolvers/zod"), load()]).then(
+      ([{ zodResolver }, schema]) => zodResolver(schema as never) as unknown as Resolver<T>,
+    );
     let resolve: Resolver<T>;
     try {
       resolve = await loading;
@@ -50,7 +52,14 @@ export function Field({ label, registration, error, hint, ...input }: FieldProps
   return (
     <div className="field">
       <label htmlFor={id}>{label}</label>
-      <input id={id} className="input" aria-invalid={error ? true : undefined} aria-describedby={error ? `${id}-error` : undefined} {...input} {...registration} />
+      <input
+        id={id}
+        className="input"
+        aria-invalid={error ? true : undefined}
+        aria-describedby={error ? `${id}-error` : undefined}
+        {...input}
+        {...registration}
+      />
       {hint && !error && <p className="text-xs text-[var(--color-muted)]">{hint}</p>}
       {error && (
         <p id={`${id}-error`} className="field-error" role="alert">
@@ -76,7 +85,14 @@ export function SelectField({ label, registration, options, error, placeholder, 
   return (
     <div className="field">
       <label htmlFor={id}>{label}</label>
-      <select id={id} className="input" aria-invalid={error ? true : undefined} aria-describedby={error ? `${id}-error` : undefined} {...select} {...registration}>
+      <select
+        id={id}
+        className="input"
+        aria-invalid={error ? true : undefined}
+        aria-describedby={error ? `${id}-error` : undefined}
+        {...select}
+        {...registration}
+      >
         {placeholder !== undefined && <option value="">{placeholder}</option>}
         {options.map((o) => (
           <option key={o.value} value={o.value}>

@@ -28,11 +28,29 @@ export default function CorrectionPanel({ runId, open }: { runId: number; open: 
     <IslandForm onSubmit={submit} noValidate className="flex flex-col gap-3" aria-label="Reverse this run">
       <div className="field">
         <label htmlFor="correction-reason">Why is this run wrong?</label>
-        <input id="correction-reason" className="input" value={reason} onChange={(e) => setReason(e.target.value)} maxLength={255} aria-invalid={problem ? true : undefined} />
-        <p className="text-xs text-[var(--color-muted)]">Reversing adds a correction for each of the {open} open entries and puts the volume back in the batches. The original entries stay in the ledger.</p>
+        <input
+          id="correction-reason"
+          className="input"
+          value={reason}
+          onChange={(e) => setReason(e.target.value)}
+          maxLength={255}
+          aria-invalid={problem ? true : undefined}
+        />
+        <p className="text-xs text-[var(--color-muted)]">
+          Reversing adds a correction for each of the {open} open entries and puts the volume back in the batches. The original entries stay
+          in the ledger.
+        </p>
       </div>
-      {problem && <p className="field-error" role="alert">{problem}</p>}
-      <div><button className="btn btn-quiet" type="submit" disabled={busy}>{busy ? "Reversing…" : "Reverse this run's entries"}</button></div>
+      {problem && (
+        <p className="field-error" role="alert">
+          {problem}
+        </p>
+      )}
+      <div>
+        <button className="btn btn-quiet" type="submit" disabled={busy}>
+          {busy ? "Reversing…" : "Reverse this run's entries"}
+        </button>
+      </div>
     </IslandForm>
   );
 }

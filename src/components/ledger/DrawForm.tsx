@@ -12,7 +12,12 @@ interface Props {
   containers: { id: number; code: string; stream: string; room: string }[];
 }
 
-const PURPOSE_LABELS: Record<(typeof DRAW_PURPOSES)[number], string> = { wash: "Wash or flush", spill: "Spill", transfer: "Transfer to another vessel", other: "Something else" };
+const PURPOSE_LABELS: Record<(typeof DRAW_PURPOSES)[number], string> = {
+  wash: "Wash or flush",
+  spill: "Spill",
+  transfer: "Transfer to another vessel",
+  other: "Something else",
+};
 
 /** A manual withdrawal from a batch, with its reason. */
 export default function DrawForm({ batches: initial, projects, containers }: Props) {
@@ -35,33 +40,86 @@ export default function DrawForm({ batches: initial, projects, containers }: Pro
     }
   });
   const e = formState.errors;
-  const select = (name: "batchId" | "projectId" | "wasteContainerId" | "purpose", label: string, options: { value: string | number; label: string }[], placeholder: string, error?: string) => (
+  const select = (
+    name: "batchId" | "projectId" | "wasteContainerId" | "purpose",
+    label: string,
+    options: { value: string | number; label: string }[],
+    placeholder: string,
+    error?: string,
+  ) => (
     <div className="field">
       <label htmlFor={`draw-${name}`}>{label}</label>
       <select id={`draw-${name}`} className="input" aria-invalid={error ? true : undefined} {...register(name)}>
         <option value="">{placeholder}</option>
-        {options.map((o) => <option key={o.value} value={o.value}>{o.label}</option>)}
+        {options.map((o) => (
+          <option key={o.value} value={o.value}>
+            {o.label}
+          </option>
+        ))}
       </select>
-      {error && <p className="field-error" role="alert">{error}</p>}
+      {error && (
+        <p className="field-error" role="alert">
+          {error}
+        </p>
+      )}
     </div>
   );
   return (
     <IslandForm method="post" onSubmit={onSubmit} noValidate className="card flex max-w-2xl flex-col gap-4 p-5" aria-label="Log a draw">
       <input type="hidden" {...register("idempotencyKey")} />
-      {select("batchId", "Batch", batches.map((b) => ({ value: b.id, label: `${b.code} · ${b.name} · ${formatVolume(b.remaining_mL)} left` })), "Choose…", e.batchId?.message)}
+      {select(
+        "batchId",
+        "Batch",
+        batches.map((b) => ({ value: b.id, label: `${b.code} · ${b.name} · ${formatVolume(b.remaining_mL)} left` })),
+        "Choose…",
+        e.batchId?.message,
+      )}
       <div className="grid gap-4 md:grid-cols-2">
         <Field label="Volume, mL" inputMode="decimal" registration={register("volume_mL")} error={e.volume_mL?.message} />
-        {select("purpose", "What for", DRAW_PURPOSES.map((p) => ({ value: p, label: PURPOSE_LABELS[p] })), "Choose…", e.purpose?.message)}
+        {select(
+          "purpose",
+          "What for",
+          DRAW_PURPOSES.map((p) => ({ value: p, label: PURPOSE_LABELS[p] })),
+          "Choose…",
+          e.purpose?.message,
+        )}
       </div>
-      <Field label="Note" registration={register("note")} error={e.note?.message} hint="Kept with the ledger entry, e.g. which column was flushed." />
+      <Field
+        label="Note"
+        registration={register("note")}
+        error={e.note?.message}
+        hint="Kept with the ledger entry, e.g. which column was flushed."
+      />
       <div className="grid gap-4 md:grid-cols-2">
-        {select("projectId", "Charged to project", projects.map((p) => ({ value: p.id, label: `${p.code} · ${p.name}` })), "No project (facility)", e.projectId?.message)}
-        {select("wasteContainerId", "Went to waste container", containers.map((c) => ({ value: c.id, label: `${c.code} · ${c.stream} · ${c.room}` })), "None (e.g. absorbed spill)", e.wasteContainerId?.message)}
+        {select(
+          "projectId",
+          "Charged to project",
+          projects.map((p) => ({ value: p.id, label: `${p.code} · ${p.name}` })),
+          "No project (facility)",
+          e.projectId?.message,
+        )}
+        {select(
+          "wasteContainerId",
+          "Went to waste container",
+          containers.map((c) => ({ value: c.id, label: `${c.code} · ${c.stream} · ${c.room}` })),
+          "None (e.g. absorbed spill)",
+          e.wasteContainerId?.message,
+        )}
       </div>
-      {problem && <p className="notice notice-danger" role="alert">{problem}</p>}
-      {done && <p className="notice" role="status">{done}</p>}
+      {problem && (
+        <p className="notice notice-danger" role="alert">
+          {problem}
+        </p>
+      )}
+      {done && (
+        <p className="notice" role="status">
+          {done}
+        </p>
+      )}
       <div>
-        <button className="btn" type="submit" disabled={formState.isSubmitting}>{formState.isSubmitting ? "Recording…" : "Record the draw"}</button>
+        <button className="btn" type="submit" disabled={formState.isSubmitting}>
+          {formState.isSubmitting ? "Recording…" : "Record the draw"}
+        </button>
       </div>
     </IslandForm>
   );

@@ -16,8 +16,15 @@ type Stage =
 const yieldToBrowser = () => new Promise<void>((resolve) => setTimeout(resolve, 0));
 
 async function send(mode: "check" | "commit", file: File, content: string): Promise<{ status: number; body: Report & { error?: string } }> {
-  const response = await fetch(`/api/imports?mode=${mode}&fileName=${encodeURIComponent(file.name)}`, { method: "POST", headers: { "content-type": "text/csv" }, body: content });
-  const body = (await response.json().catch(() => ({ error: `The server answered ${response.status}.` }))) as Report & { error?: string; report?: Report };
+  const response = await fetch(`/api/imports?mode=${mode}&fileName=${encodeURIComponent(file.name)}`, {
+    method: "POST",
+    headers: { "content-type": "text/csv" },
+    body: content,
+  });
+  const body = (await response.json().catch(() => ({ error: `The server answered ${response.status}.` }))) as Report & {
+    error?: string;
+    report?: Report;
+  };
   return { status: response.status, body: body.report ? { ...body.report, error: body.error } : body };
 }
 
@@ -25,12 +32,26 @@ function Issues({ issues }: { issues: RowIssue[] }) {
   if (issues.length === 0) return null;
   return (
     <div className="card overflow-x-auto" role="alert">
-      <p className="px-4 pt-3 text-sm font-semibold text-[var(--color-danger)]">{issues.length} problem{issues.length === 1 ? "" : "s"}: nothing has been written.</p>
+      <p className="px-4 pt-3 text-sm font-semibold text-[var(--color-danger)]">
+        {issues.length} problem{issues.length === 1 ? "" : "s"}: nothing has been written.
+      </p>
       <table className="table" aria-label="Problems in the file">
-        <thead><tr><th className="num">Row</th><th>Column</th><th>What is wrong</th></tr></thead>
+        <thead>
+          <tr>
+            <th className="num">Row</th>
+            <th>Column</th>
+            <th>What is wrong</th>
+          </tr>
+        </thead>
         <tbody>
           {issues.slice(0, 200).map((i, n) => (
-            <tr key={n}><td className="num">{i.row}</td><td><code>{i.column ?? "—"}</code></td><td>{i.message}</td></tr>
+            <tr key={n}>
+              <td className="num">{i.row}</td>
+              <td>
+                <code>{i.column ?? "—"}</code>
+              </td>
+              <td>{i.message}</td>
+            </tr>
           ))}
         </tbody>
       </table>
@@ -50,14 +71,17 @@ export default function ImportWizard() {
     const chosen = event.target.files?.[0];
     if (!chosen) return;
     if (chosen.size > RUN_LOG_MAX_BYTES) {
-      setProblem(`${chosen.name} is ${(chosen.size / 1024 / 1024).toFixed(1)} MB; the limit is ${RUN_LOG_MAX_BYTES / 1024 / 1024} MB. Split it into smaller files.`);
+      setProblem(
+        `${chosen.name} is ${(chosen.size / 1024 / 1024).toFixed(1)} MB; the limit is ${RUN_LOG_MAX_BYTES / 1024 / 1024} MB. Split it into smaller files.`,
+      );
       setStage({ step: "idle" });
       return;
     }
     setStage({ step: "reading", fraction: 0, label: "Reading the file" });
     const content = await new Promise<string>((resolve, reject) => {
       const reader = new FileReader();
-      reader.onprogress = (e) => e.lengthComputable && setStage({ step: "reading", fraction: (e.loaded / e.total) * 0.3, label: "Reading the file" });
+      reader.onprogress = (e) =>
+        e.lengthComputable && setStage({ step: "reading", fraction: (e.loaded / e.total) * 0.3, label: "Reading the file" });
       reader.onerror = () => reject(reader.error ?? new Error("The file could not be read."));
       reader.onload = () => resolve(String(reader.result ?? ""));
       reader.readAsText(chosen);
@@ -70,11 +94,16 @@ export default function ImportWizard() {
     const parsed = await readRunLog(content, {
       chunk: 1_000,
       onProgress: async (done, total) => {
-        setStage({ step: "reading", fraction: 0.3 + (done / Math.max(total, 1)) * 0.6, label: `Checking row ${done.toLocaleString("en-GB")} of ${total.toLocaleString("en-GB")}` });
+        setStage({
+          step: "reading",
+          fraction: 0.3 + (done / Math.max(total, 1)) * 0.6,
+          label: `Checking row ${done.toLocaleString("en-GB")} of ${total.toLocaleString("en-GB")}`,
+        });
         await yieldToBrowser();
       },
     });
-    if (parsed.issues.length) return setStage({ step: "checked", rows: parsed.rows, rowCount: parsed.rowCount, issues: parsed.issues, report: null });
+    if (parsed.issues.length)
+      return setStage({ step: "checked", rows: parsed.rows, rowCount: parsed.rowCount, issues: parsed.issues, report: null });
     setStage({ step: "reading", fraction: 0.92, label: "Checking names, codes and batches with Decant" });
     try {
       const { status, body } = await send("check", chosen, content);
@@ -102,41 +131,96 @@ export default function ImportWizard() {
         <div className="field max-w-md">
           <label htmlFor="run-log-file">Run log (CSV, at most {RUN_LOG_MAX_BYTES / 1024 / 1024} MB)</label>
           <HydratedControls>
-            <input id="run-log-file" type="file" accept=".csv,text/csv" className="input" onChange={choose} disabled={stage.step === "reading" || stage.step === "committing"} />
+            <input
+              id="run-log-file"
+              type="file"
+              accept=".csv,text/csv"
+              className="input"
+              onChange={choose}
+              disabled={stage.step === "reading" || stage.step === "committing"}
+            />
           </HydratedControls>
         </div>
         {stage.step === "reading" && (
           <div className="mt-4">
             <progress className="w-full" max={1} value={stage.fraction} aria-label="Progress" />
-            <p className="text-sm text-[var(--color-muted)]" aria-live="polite">{stage.label}…</p>
+            <p className="text-sm text-[var(--color-muted)]" aria-live="polite">
+              {stage.label}…
+            </p>
           </div>
         )}
       </div>
-      {problem && <p className="notice notice-danger" role="alert">{problem}</p>}
+      {problem && (
+        <p className="notice notice-danger" role="alert">
+          {problem}
+        </p>
+      )}
       {stage.step === "checked" && (
         <>
           <Issues issues={stage.issues} />
           {stage.report && stage.issues.length === 0 && (
             <div className="card flex flex-col gap-3 p-5" data-testid="import-ready">
               <p>
-                <strong>{stage.report.newRuns.toLocaleString("en-GB")}</strong> new run{stage.report.newRuns === 1 ? "" : "s"} ({stage.report.entries.toLocaleString("en-GB")} ledger entries, {formatVolume(stage.report.volume_mL)})
-                {stage.report.alreadyRecorded > 0 && <>; <strong>{stage.report.alreadyRecorded.toLocaleString("en-GB")}</strong> already recorded, which will be skipped</>}.
+                <strong>{stage.report.newRuns.toLocaleString("en-GB")}</strong> new run{stage.report.newRuns === 1 ? "" : "s"} (
+                {stage.report.entries.toLocaleString("en-GB")} ledger entries, {formatVolume(stage.report.volume_mL)})
+                {stage.report.alreadyRecorded > 0 && (
+                  <>
+                    ; <strong>{stage.report.alreadyRecorded.toLocaleString("en-GB")}</strong> already recorded, which will be skipped
+                  </>
+                )}
+                .
               </p>
-              {stage.report.previousImport && <p className="notice">This very file was imported on {formatDateTime(stage.report.previousImport.at)} (import {stage.report.previousImport.id}); runs already recorded are not counted again.</p>}
-              <div><button type="button" className="btn" onClick={commit} disabled={stage.report.newRuns === 0}>{stage.report.newRuns === 0 ? "Nothing new to import" : `Import ${stage.report.newRuns.toLocaleString("en-GB")} runs`}</button></div>
+              {stage.report.previousImport && (
+                <p className="notice">
+                  This very file was imported on {formatDateTime(stage.report.previousImport.at)} (import {stage.report.previousImport.id});
+                  runs already recorded are not counted again.
+                </p>
+              )}
+              <div>
+                <button type="button" className="btn" onClick={commit} disabled={stage.report.newRuns === 0}>
+                  {stage.report.newRuns === 0 ? "Nothing new to import" : `Import ${stage.report.newRuns.toLocaleString("en-GB")} runs`}
+                </button>
+              </div>
             </div>
           )}
           {stage.rows.length > 0 && (
             <div className="card overflow-x-auto">
-              <p className="px-4 pt-3 text-sm text-[var(--color-muted)]">Preview: the first {Math.min(10, stage.rows.length)} of {stage.rowCount.toLocaleString("en-GB")} rows</p>
+              <p className="px-4 pt-3 text-sm text-[var(--color-muted)]">
+                Preview: the first {Math.min(10, stage.rows.length)} of {stage.rowCount.toLocaleString("en-GB")} rows
+              </p>
               <table className="table" aria-label="Preview">
-                <thead><tr><th className="num">Row</th><th>Reference</th><th>Instrument</th><th>Method</th><th>Project</th><th>Started (UTC)</th><th className="num">Inj.</th><th>Batches</th></tr></thead>
+                <thead>
+                  <tr>
+                    <th className="num">Row</th>
+                    <th>Reference</th>
+                    <th>Instrument</th>
+                    <th>Method</th>
+                    <th>Project</th>
+                    <th>Started (UTC)</th>
+                    <th className="num">Inj.</th>
+                    <th>Batches</th>
+                  </tr>
+                </thead>
                 <tbody>
                   {stage.rows.slice(0, 10).map((r) => (
                     <tr key={r.row}>
-                      <td className="num">{r.row}</td><td><code>{r.reference}</code></td><td>{r.instrument}</td><td>{r.method}</td><td>{r.project}</td>
-                      <td className="whitespace-nowrap">{formatDateTime(r.startedAt)}</td><td className="num">{r.injections}{r.blanks ? ` + ${r.blanks}` : ""}</td>
-                      <td>{Object.entries(r.batches).map(([ch, code]) => `${ch}: ${code}`).join(", ")}</td>
+                      <td className="num">{r.row}</td>
+                      <td>
+                        <code>{r.reference}</code>
+                      </td>
+                      <td>{r.instrument}</td>
+                      <td>{r.method}</td>
+                      <td>{r.project}</td>
+                      <td className="whitespace-nowrap">{formatDateTime(r.startedAt)}</td>
+                      <td className="num">
+                        {r.injections}
+                        {r.blanks ? ` + ${r.blanks}` : ""}
+                      </td>
+                      <td>
+                        {Object.entries(r.batches)
+                          .map(([ch, code]) => `${ch}: ${code}`)
+                          .join(", ")}
+                      </td>
                     </tr>
                   ))}
                 </tbody>
@@ -145,10 +229,16 @@ export default function ImportWizard() {
           )}
         </>
       )}
-      {stage.step === "committing" && <p className="notice" aria-live="polite">Writing every run in one transaction…</p>}
+      {stage.step === "committing" && (
+        <p className="notice" aria-live="polite">
+          Writing every run in one transaction…
+        </p>
+      )}
       {stage.step === "done" && (
         <p className="notice" role="status" data-testid="import-done">
-          Imported {stage.report.newRuns.toLocaleString("en-GB")} runs ({stage.report.entries.toLocaleString("en-GB")} ledger entries){stage.report.alreadyRecorded ? `; ${stage.report.alreadyRecorded.toLocaleString("en-GB")} already recorded were skipped` : ""}. Import {stage.report.importId}.
+          Imported {stage.report.newRuns.toLocaleString("en-GB")} runs ({stage.report.entries.toLocaleString("en-GB")} ledger entries)
+          {stage.report.alreadyRecorded ? `; ${stage.report.alreadyRecorded.toLocaleString("en-GB")} already recorded were skipped` : ""}.
+          Import {stage.report.importId}.
         </p>
       )}
     </div>

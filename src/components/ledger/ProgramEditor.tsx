@@ -15,7 +15,13 @@ interface Props {
   canEdit: boolean;
 }
 
-const toText = (r: ProgramRow): RowText => ({ time_min: String(r.time_min), flow_mL_min: String(r.flow_mL_min), B: String(r.B), C: String(r.C), D: String(r.D) });
+const toText = (r: ProgramRow): RowText => ({
+  time_min: String(r.time_min),
+  flow_mL_min: String(r.flow_mL_min),
+  B: String(r.B),
+  C: String(r.C),
+  D: String(r.D),
+});
 const EMPTY: ProgramRow[] = [
   { time_min: 0, flow_mL_min: 1, B: 5, C: 0, D: 0 },
   { time_min: 10, flow_mL_min: 1, B: 95, C: 0, D: 0 },
@@ -51,8 +57,13 @@ export default function ProgramEditor({ method, canEdit }: Props) {
     }
   }, [JSON.stringify(goodRows), rows.length]);
 
-  const setCell = (i: number, key: keyof ProgramRow, value: string) => setRows((rs) => rs.map((r, j) => (j === i ? { ...r, [key]: value } : r)));
-  const addRow = () => setRows((rs) => [...rs, { ...(rs[rs.length - 1] ?? toText(EMPTY[0]!)), time_min: String(Number(rs[rs.length - 1]?.time_min ?? 0) + 1) }]);
+  const setCell = (i: number, key: keyof ProgramRow, value: string) =>
+    setRows((rs) => rs.map((r, j) => (j === i ? { ...r, [key]: value } : r)));
+  const addRow = () =>
+    setRows((rs) => [
+      ...rs,
+      { ...(rs[rs.length - 1] ?? toText(EMPTY[0]!)), time_min: String(Number(rs[rs.length - 1]?.time_min ?? 0) + 1) },
+    ]);
   const removeRow = (i: number) => setRows((rs) => rs.filter((_, j) => j !== i));
 
   async function save(event: React.FormEvent) {
@@ -68,7 +79,9 @@ export default function ProgramEditor({ method, canEdit }: Props) {
     setSaving(true);
     try {
       const body = { name, description, rows: parsed.data.rows, reEquilibration_min: parsed.data.reEquilibration_min };
-      const result = method ? await postJson<{ id: number }>(`/api/methods/${method.id}`, body, "PUT") : await postJson<{ id: number }>("/api/methods", body);
+      const result = method
+        ? await postJson<{ id: number }>(`/api/methods/${method.id}`, body, "PUT")
+        : await postJson<{ id: number }>("/api/methods", body);
       if (!method) window.location.assign(`/methods/${result.id}`);
       else setStatus({ kind: "ok", text: "Saved. Runs already logged keep the volumes they were recorded with." });
     } catch (error) {
@@ -83,17 +96,43 @@ export default function ProgramEditor({ method, canEdit }: Props) {
       <div className="grid gap-4 md:grid-cols-2">
         <div className="field">
           <label htmlFor="method-name">Name</label>
-          <input id="method-name" className="input" value={name} onChange={(e) => setName(e.target.value)} disabled={!canEdit} aria-invalid={errors.name ? true : undefined} />
-          {errors.name && <p className="field-error" role="alert">{errors.name}</p>}
+          <input
+            id="method-name"
+            className="input"
+            value={name}
+            onChange={(e) => setName(e.target.value)}
+            disabled={!canEdit}
+            aria-invalid={errors.name ? true : undefined}
+          />
+          {errors.name && (
+            <p className="field-error" role="alert">
+              {errors.name}
+            </p>
+          )}
         </div>
         <div className="field">
           <label htmlFor="method-reeq">Re-equilibration, min</label>
-          <input id="method-reeq" className="input" inputMode="decimal" value={reEq} onChange={(e) => setReEq(e.target.value)} disabled={!canEdit} />
-          <p className="text-xs text-[var(--color-muted)]">The return to starting conditions is part of the program's last rows; this says how much of it is re-equilibration.</p>
+          <input
+            id="method-reeq"
+            className="input"
+            inputMode="decimal"
+            value={reEq}
+            onChange={(e) => setReEq(e.target.value)}
+            disabled={!canEdit}
+          />
+          <p className="text-xs text-[var(--color-muted)]">
+            The return to starting conditions is part of the program's last rows; this says how much of it is re-equilibration.
+          </p>
         </div>
         <div className="field md:col-span-2">
           <label htmlFor="method-description">Description</label>
-          <input id="method-description" className="input" value={description} onChange={(e) => setDescription(e.target.value)} disabled={!canEdit} />
+          <input
+            id="method-description"
+            className="input"
+            value={description}
+            onChange={(e) => setDescription(e.target.value)}
+            disabled={!canEdit}
+          />
         </div>
       </div>
 
@@ -103,9 +142,19 @@ export default function ProgramEditor({ method, canEdit }: Props) {
             <thead>
               <tr>
                 <th scope="col">#</th>
-                {COLUMNS.map((c) => <th key={c.key} scope="col" className="num">{c.label}</th>)}
-                <th scope="col" className="num">%A</th>
-                {canEdit && <th scope="col"><span className="sr-only">Remove</span></th>}
+                {COLUMNS.map((c) => (
+                  <th key={c.key} scope="col" className="num">
+                    {c.label}
+                  </th>
+                ))}
+                <th scope="col" className="num">
+                  %A
+                </th>
+                {canEdit && (
+                  <th scope="col">
+                    <span className="sr-only">Remove</span>
+                  </th>
+                )}
               </tr>
             </thead>
             <tbody>
@@ -132,10 +181,20 @@ export default function ProgramEditor({ method, canEdit }: Props) {
                         </td>
                       );
                     })}
-                    <td className="num" style={{ color: a < 0 ? "var(--color-danger)" : undefined }}>{Number.isFinite(a) ? Number(a.toFixed(3)) : "–"}</td>
+                    <td className="num" style={{ color: a < 0 ? "var(--color-danger)" : undefined }}>
+                      {Number.isFinite(a) ? Number(a.toFixed(3)) : "–"}
+                    </td>
                     {canEdit && (
                       <td>
-                        <button type="button" className="btn btn-quiet px-2 py-1 text-xs" onClick={() => removeRow(i)} disabled={rows.length <= 2} aria-label={`Remove row ${i + 1}`}>✕</button>
+                        <button
+                          type="button"
+                          className="btn btn-quiet px-2 py-1 text-xs"
+                          onClick={() => removeRow(i)}
+                          disabled={rows.length <= 2}
+                          aria-label={`Remove row ${i + 1}`}
+                        >
+                          ✕
+                        </button>
                       </td>
                     )}
                   </tr>
@@ -144,7 +203,11 @@ export default function ProgramEditor({ method, canEdit }: Props) {
             </tbody>
           </table>
           {errors.rows && <p className="field-error">{errors.rows}</p>}
-          {canEdit && <button type="button" className="btn btn-quiet mt-3" onClick={addRow}>Add a row</button>}
+          {canEdit && (
+            <button type="button" className="btn btn-quiet mt-3" onClick={addRow}>
+              Add a row
+            </button>
+          )}
         </div>
         <div className="flex flex-col gap-4">
           <ProgramChart rows={goodRows} />
@@ -155,24 +218,37 @@ export default function ProgramEditor({ method, canEdit }: Props) {
                 {Object.entries(use.byChannel_mL).map(([ch, v]) => (
                   <div key={ch} className="contents">
                     <dt>Channel {ch}</dt>
-                    <dd className="num">{formatVolume(v)} <span className="text-[var(--color-muted)]">· {formatVolume(v * 100)} per 100</span></dd>
+                    <dd className="num">
+                      {formatVolume(v)} <span className="text-[var(--color-muted)]">· {formatVolume(v * 100)} per 100</span>
+                    </dd>
                   </div>
                 ))}
                 <dt className="font-semibold">Total to waste</dt>
-                <dd className="num font-semibold">{formatVolume(use.total_mL)} <span className="font-normal text-[var(--color-muted)]">· {formatVolume(use.total_mL * 100)} per 100</span></dd>
+                <dd className="num font-semibold">
+                  {formatVolume(use.total_mL)}{" "}
+                  <span className="font-normal text-[var(--color-muted)]">· {formatVolume(use.total_mL * 100)} per 100</span>
+                </dd>
               </dl>
             ) : (
               <p className="text-sm text-[var(--color-muted)]">Fill in every cell to see the volumes.</p>
             )}
-            <p className="mt-2 text-xs text-[var(--color-muted)]">Flow and composition change linearly between rows, as the pump delivers them; each injection runs the whole program once.</p>
+            <p className="mt-2 text-xs text-[var(--color-muted)]">
+              Flow and composition change linearly between rows, as the pump delivers them; each injection runs the whole program once.
+            </p>
           </div>
         </div>
       </div>
 
-      {status && <p className={status.kind === "ok" ? "notice" : "notice notice-danger"} role={status.kind === "ok" ? "status" : "alert"}>{status.text}</p>}
+      {status && (
+        <p className={status.kind === "ok" ? "notice" : "notice notice-danger"} role={status.kind === "ok" ? "status" : "alert"}>
+          {status.text}
+        </p>
+      )}
       {canEdit && (
         <div>
-          <button className="btn" type="submit" disabled={saving}>{saving ? "Saving…" : method ? "Save the method" : "Create the method"}</button>
+          <button className="btn" type="submit" disabled={saving}>
+            {saving ? "Saving…" : method ? "Save the method" : "Create the method"}
+          </button>
         </div>
       )}
     </IslandForm>

@@ -10,7 +10,11 @@ import { IslandForm } from "../forms/island-form";
 import { postJson } from "../forms/post-json";
 import { newKey, utcInputValue } from "./keys";
 
-interface Option { id: number; label: string; /** exact mL left, for tests and screen readers' titles */ ml?: number }
+interface Option {
+  id: number;
+  label: string;
+  /** exact mL left, for tests and screen readers' titles */ ml?: number;
+}
 interface Props {
   instruments: { id: number; name: string; channels: string[]; wasteContainerCode: string | null }[];
   methods: { id: number; name: string; program: ProgramPoint[] }[];
@@ -19,21 +23,53 @@ interface Props {
 }
 
 interface Answer {
-  run: { id: number; channelVolumes_mL: Record<string, number>; total_mL: number; projectCode: string; channelBatches: Record<string, { id: number; code: string | null }> };
+  run: {
+    id: number;
+    channelVolumes_mL: Record<string, number>;
+    total_mL: number;
+    projectCode: string;
+    channelBatches: Record<string, { id: number; code: string | null }>;
+  };
   replayed: boolean;
   batches: { id: number; code: string; remaining_mL: number }[];
 }
 
-function Select({ label, options, registration, error, placeholder = "Choose…" }: { label: string; options: Option[]; registration: ReturnType<ReturnType<typeof useZodForm<RunInput>>["register"]>; error?: string | undefined; placeholder?: string }) {
+function Select({
+  label,
+  options,
+  registration,
+  error,
+  placeholder = "Choose…",
+}: {
+  label: string;
+  options: Option[];
+  registration: ReturnType<ReturnType<typeof useZodForm<RunInput>>["register"]>;
+  error?: string | undefined;
+  placeholder?: string;
+}) {
   const id = `run-${registration.name.replace(/\W/g, "-")}`;
   return (
     <div className="field">
       <label htmlFor={id}>{label}</label>
-      <select id={id} className="input" aria-invalid={error ? true : undefined} aria-describedby={error ? `${id}-error` : undefined} {...registration}>
+      <select
+        id={id}
+        className="input"
+        aria-invalid={error ? true : undefined}
+        aria-describedby={error ? `${id}-error` : undefined}
+        {...registration}
+      >
         <option value="">{placeholder}</option>
-        {options.map((o) => <option key={o.id} value={o.id} data-ml={o.ml}>{o.label}</option>)}
+        {options.map((o) => (
+          <option key={o.id} value={o.id} data-ml={o.ml}>
+            {o.label}
+          </option>
+        ))}
       </select>
-      {error && <p id={`${id}-error`} className="field-error" role="alert">{error}</p>}
+      {error && (
+        <p id={`${id}-error`} className="field-error" role="alert">
+          {error}
+        </p>
+      )}
     </div>
   );
 }
@@ -75,7 +111,9 @@ export default function RunForm({ instruments, methods, projects, batches: initi
     try {
       const result = await postJson<Answer>("/api/runs", { ...values, startedAt: values.startedAt.toISOString() });
       setAnswer(result);
-      setBatches((bs) => bs.map((b) => ({ ...b, remaining_mL: result.batches.find((x) => x.id === b.id)?.remaining_mL ?? b.remaining_mL })));
+      setBatches((bs) =>
+        bs.map((b) => ({ ...b, remaining_mL: result.batches.find((x) => x.id === b.id)?.remaining_mL ?? b.remaining_mL })),
+      );
       reset({ ...values, startedAt: utcInputValue() as unknown as Date, idempotencyKey: newKey("run") });
     } catch (error) {
       setProblem(error instanceof Error ? error.message : String(error));
@@ -88,14 +126,40 @@ export default function RunForm({ instruments, methods, projects, batches: initi
       <IslandForm method="post" onSubmit={onSubmit} noValidate className="card flex flex-col gap-4 p-5" aria-label="Log a run">
         <input type="hidden" {...register("idempotencyKey")} />
         <div className="grid gap-4 md:grid-cols-2">
-          <Select label="Instrument" options={instruments.map((i) => ({ id: i.id, label: i.name }))} registration={register("instrumentId")} error={e.instrumentId?.message} />
-          <Select label="Method" options={methods.map((m) => ({ id: m.id, label: m.name }))} registration={register("methodId")} error={e.methodId?.message} />
-          <Select label="Project" options={projects.map((p) => ({ id: p.id, label: `${p.code} · ${p.name}` }))} registration={register("projectId")} error={e.projectId?.message} />
+          <Select
+            label="Instrument"
+            options={instruments.map((i) => ({ id: i.id, label: i.name }))}
+            registration={register("instrumentId")}
+            error={e.instrumentId?.message}
+          />
+          <Select
+            label="Method"
+            options={methods.map((m) => ({ id: m.id, label: m.name }))}
+            registration={register("methodId")}
+            error={e.methodId?.message}
+          />
+          <Select
+            label="Project"
+            options={projects.map((p) => ({ id: p.id, label: `${p.code} · ${p.name}` }))}
+            registration={register("projectId")}
+            error={e.projectId?.message}
+          />
           <Field label="Start time (UTC)" type="datetime-local" registration={register("startedAt")} error={e.startedAt?.message} />
           <Field label="Injections" inputMode="numeric" registration={register("injections")} error={e.injections?.message} />
           <Field label="Extra blanks" inputMode="numeric" placeholder="0" registration={register("blanks")} error={e.blanks?.message} />
-          <Field label="Purge / prime per channel, mL" inputMode="decimal" placeholder="0" registration={register("purge_mL")} error={e.purge_mL?.message} />
-          <Field label="Sequence name (optional)" registration={register("reference")} error={e.reference?.message} hint="Unique per instrument; a CSV import recognises runs by it." />
+          <Field
+            label="Purge / prime per channel, mL"
+            inputMode="decimal"
+            placeholder="0"
+            registration={register("purge_mL")}
+            error={e.purge_mL?.message}
+          />
+          <Field
+            label="Sequence name (optional)"
+            registration={register("reference")}
+            error={e.reference?.message}
+            hint="Unique per instrument; a CSV import recognises runs by it."
+          />
         </div>
         <fieldset className="flex flex-col gap-3">
           <legend className="mb-1 text-sm font-semibold">Batch on each channel</legend>
@@ -106,18 +170,36 @@ export default function RunForm({ instruments, methods, projects, batches: initi
                 key={ch}
                 label={`Channel ${ch}${preview?.[ch] !== undefined ? ` · needs ${formatVolume(preview[ch]!)}` : ""}`}
                 placeholder="Not used"
-                options={batches.map((b) => ({ id: b.id, label: `${b.code} · ${b.name} · ${formatVolume(b.remaining_mL)} left`, ml: b.remaining_mL }))}
+                options={batches.map((b) => ({
+                  id: b.id,
+                  label: `${b.code} · ${b.name} · ${formatVolume(b.remaining_mL)} left`,
+                  ml: b.remaining_mL,
+                }))}
                 registration={register(`channelBatches.${ch}`)}
                 error={(e.channelBatches as Record<string, { message?: string }> | undefined)?.[ch]?.message}
               />
             ))}
           </div>
-          {e.channelBatches?.root?.message && <p className="field-error" role="alert">{e.channelBatches.root.message}</p>}
-          {(e.channelBatches as { message?: string } | undefined)?.message && <p className="field-error" role="alert">{(e.channelBatches as { message?: string }).message}</p>}
+          {e.channelBatches?.root?.message && (
+            <p className="field-error" role="alert">
+              {e.channelBatches.root.message}
+            </p>
+          )}
+          {(e.channelBatches as { message?: string } | undefined)?.message && (
+            <p className="field-error" role="alert">
+              {(e.channelBatches as { message?: string }).message}
+            </p>
+          )}
         </fieldset>
-        {problem && <p className="notice notice-danger" role="alert">{problem}</p>}
+        {problem && (
+          <p className="notice notice-danger" role="alert">
+            {problem}
+          </p>
+        )}
         <div>
-          <button className="btn" type="submit" disabled={formState.isSubmitting}>{formState.isSubmitting ? "Recording…" : "Record the run"}</button>
+          <button className="btn" type="submit" disabled={formState.isSubmitting}>
+            {formState.isSubmitting ? "Recording…" : "Record the run"}
+          </button>
         </div>
       </IslandForm>
 
@@ -127,7 +209,10 @@ export default function RunForm({ instruments, methods, projects, batches: initi
           {preview ? (
             <dl className="grid grid-cols-[auto_1fr] gap-x-6 gap-y-1 text-sm">
               {Object.entries(preview).map(([ch, v]) => (
-                <div key={ch} className="contents"><dt>Channel {ch}</dt><dd className="num">{formatVolume(v)}</dd></div>
+                <div key={ch} className="contents">
+                  <dt>Channel {ch}</dt>
+                  <dd className="num">{formatVolume(v)}</dd>
+                </div>
               ))}
               <dt className="font-semibold">To waste{instrument?.wasteContainerCode ? ` (${instrument.wasteContainerCode})` : ""}</dt>
               <dd className="num font-semibold">{formatVolume(Object.values(preview).reduce((a, b) => a + b, 0))}</dd>
@@ -135,18 +220,25 @@ export default function RunForm({ instruments, methods, projects, batches: initi
           ) : (
             <p className="text-sm text-[var(--color-muted)]">Choose a method and the number of injections.</p>
           )}
-          <p className="mt-2 text-xs text-[var(--color-muted)]">Each injection and blank runs the method's whole program; the purge volume is added to each channel in use.</p>
+          <p className="mt-2 text-xs text-[var(--color-muted)]">
+            Each injection and blank runs the method's whole program; the purge volume is added to each channel in use.
+          </p>
         </div>
         {answer && (
           <div className="card border-[var(--color-ok)] p-4" role="status" data-testid="run-recorded">
             <h2 className="mb-2">{answer.replayed ? "Already recorded" : "Run recorded"}</h2>
             <p className="text-sm">
-              {formatVolume(answer.run.total_mL)} for {answer.run.projectCode}. <a href={`/runs/${answer.run.id}`}>See the ledger entries</a>.
+              {formatVolume(answer.run.total_mL)} for {answer.run.projectCode}.{" "}
+              <a href={`/runs/${answer.run.id}`}>See the ledger entries</a>.
             </p>
             <ul className="mt-2 text-sm">
               {answer.batches.map((b) => (
                 <li key={b.id}>
-                  <code>{b.code}</code>: <span className="num" data-testid={`left-${b.code}`} data-ml={b.remaining_mL}>{formatVolume(b.remaining_mL)}</span> left
+                  <code>{b.code}</code>:{" "}
+                  <span className="num" data-testid={`left-${b.code}`} data-ml={b.remaining_mL}>
+                    {formatVolume(b.remaining_mL)}
+                  </span>{" "}
+                  left
                 </li>
               ))}
             </ul>

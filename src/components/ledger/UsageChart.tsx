@@ -34,7 +34,9 @@ function chartConfig(series: UsageChartSeries): ChartConfiguration<"bar", (numbe
       labels: series.labels,
       datasets: [
         { label: "Volume", data: series.volumes_mL, xAxisID: "volume", backgroundColor: theme.volume, borderRadius: 2 },
-        ...(cost ? [{ label: `Cost (${cost.currency})`, data: cost.amounts, xAxisID: "cost", backgroundColor: theme.cost, borderRadius: 2 }] : []),
+        ...(cost
+          ? [{ label: `Cost (${cost.currency})`, data: cost.amounts, xAxisID: "cost", backgroundColor: theme.cost, borderRadius: 2 }]
+          : []),
       ],
     },
     options: {
@@ -46,12 +48,35 @@ function chartConfig(series: UsageChartSeries): ChartConfiguration<"bar", (numbe
       color: theme.ink,
       scales: {
         y: { ticks: { color: theme.ink, autoSkip: false }, grid: { display: false } },
-        volume: { type: "linear", position: "bottom", beginAtZero: true, title: { display: true, text: "Volume", color: theme.ink }, ticks: { color: theme.ink, callback: (v) => formatVolume(Number(v)) }, grid: { color: theme.rule } },
-        ...(cost ? { cost: { type: "linear" as const, position: "top" as const, beginAtZero: true, title: { display: true, text: `Cost (${cost.currency})`, color: theme.ink }, ticks: { color: theme.ink, callback: (v: number | string) => money(Number(v)) }, grid: { display: false } } } : {}),
+        volume: {
+          type: "linear",
+          position: "bottom",
+          beginAtZero: true,
+          title: { display: true, text: "Volume", color: theme.ink },
+          ticks: { color: theme.ink, callback: (v) => formatVolume(Number(v)) },
+          grid: { color: theme.rule },
+        },
+        ...(cost
+          ? {
+              cost: {
+                type: "linear" as const,
+                position: "top" as const,
+                beginAtZero: true,
+                title: { display: true, text: `Cost (${cost.currency})`, color: theme.ink },
+                ticks: { color: theme.ink, callback: (v: number | string) => money(Number(v)) },
+                grid: { display: false },
+              },
+            }
+          : {}),
       },
       plugins: {
         legend: { display: cost !== null, position: "bottom", labels: { color: theme.ink, boxWidth: 14 } },
-        tooltip: { callbacks: { label: (item) => `${item.dataset.label}: ${item.dataset.xAxisID === "cost" ? money(item.parsed.x ?? 0) : formatVolume(item.parsed.x ?? 0)}` } },
+        tooltip: {
+          callbacks: {
+            label: (item) =>
+              `${item.dataset.label}: ${item.dataset.xAxisID === "cost" ? money(item.parsed.x ?? 0) : formatVolume(item.parsed.x ?? 0)}`,
+          },
+        },
       },
     },
   };
@@ -80,9 +105,14 @@ export default function UsageChart({ series, name }: { series: UsageChartSeries;
   useEffect(() => () => chart.current?.destroy(), []);
 
   return (
-    <div className="relative w-full" style={{ height: `${series.labels.length * BAR_ROW_PX * (series.cost ? 1.4 : 1) + AXES_PX * (series.cost ? 2 : 1)}px` }}>
+    <div
+      className="relative w-full"
+      style={{ height: `${series.labels.length * BAR_ROW_PX * (series.cost ? 1.4 : 1) + AXES_PX * (series.cost ? 2 : 1)}px` }}
+    >
       <canvas ref={canvas} role="img" aria-label={name} aria-describedby={descriptionId} data-groups={JSON.stringify(series.labels)} />
-      <p id={descriptionId} className="sr-only">{series.description}</p>
+      <p id={descriptionId} className="sr-only">
+        {series.description}
+      </p>
     </div>
   );
 }

@@ -1,5 +1,12 @@
 import { QueryClient, QueryClientProvider, useQuery } from "@tanstack/react-query";
-import { getCoreRowModel, getFilteredRowModel, getSortedRowModel, useReactTable, type ColumnDef, type SortingState } from "@tanstack/react-table";
+import {
+  getCoreRowModel,
+  getFilteredRowModel,
+  getSortedRowModel,
+  useReactTable,
+  type ColumnDef,
+  type SortingState,
+} from "@tanstack/react-table";
 import { lazy, Suspense, useEffect, useMemo, useState } from "react";
 import type { UsageRow } from "../../lib/server/services/usage";
 import type { GroupedUsageRow } from "../../lib/server/services/usage-groups";
@@ -30,12 +37,37 @@ interface Row {
 }
 type SortKey = "label" | "detail" | "runs" | "injections" | "total" | "cost";
 
-const GROUP_LABEL: Record<UsageGrouping, string> = { project: "Project", client: "Client", instrument: "Instrument", reagent: "Reagent", month: "Month" };
+const GROUP_LABEL: Record<UsageGrouping, string> = {
+  project: "Project",
+  client: "Client",
+  instrument: "Instrument",
+  reagent: "Reagent",
+  month: "Month",
+};
 const fromProject = (r: UsageRow & { mobilePhases_mL?: Record<string, number> }): Row => ({
-  key: r.projectCode, label: r.projectCode, detail: `${r.projectName} · ${r.clientName}`, volumes_mL: r.volumes_mL, masses_g: r.masses_g, mobilePhases_mL: r.mobilePhases_mL ?? {},
-  runs: r.runs, injections: r.injections, costs: [r.cost], uncosted: r.uncosted,
+  key: r.projectCode,
+  label: r.projectCode,
+  detail: `${r.projectName} · ${r.clientName}`,
+  volumes_mL: r.volumes_mL,
+  masses_g: r.masses_g,
+  mobilePhases_mL: r.mobilePhases_mL ?? {},
+  runs: r.runs,
+  injections: r.injections,
+  costs: [r.cost],
+  uncosted: r.uncosted,
 });
-const fromGroup = (r: GroupedUsageRow): Row => ({ key: r.key, label: r.label, detail: "", volumes_mL: r.volumes_mL, masses_g: r.masses_g, mobilePhases_mL: r.mobilePhases_mL, runs: r.runs, injections: r.injections, costs: r.costs, uncosted: r.uncosted });
+const fromGroup = (r: GroupedUsageRow): Row => ({
+  key: r.key,
+  label: r.label,
+  detail: "",
+  volumes_mL: r.volumes_mL,
+  masses_g: r.masses_g,
+  mobilePhases_mL: r.mobilePhases_mL,
+  runs: r.runs,
+  injections: r.injections,
+  costs: r.costs,
+  uncosted: r.uncosted,
+});
 const costOf = (r: Row) => r.costs.reduce((a, c) => a + c.amount, 0);
 
 const total = (r: Row) => Object.values(r.volumes_mL).reduce((a, b) => a + b, 0);
@@ -51,7 +83,11 @@ interface Loaded {
 
 async function fetchUsage(from: string, to: string, groupBy: UsageGrouping): Promise<Loaded> {
   const r = await fetch(`/api/usage?from=${from}&to=${to}&groupBy=${groupBy}&phases=1`);
-  const body = (await r.json().catch(() => ({}))) as { rows?: (UsageRow | GroupedUsageRow)[]; mobilePhases?: Record<string, string>; error?: string };
+  const body = (await r.json().catch(() => ({}))) as {
+    rows?: (UsageRow | GroupedUsageRow)[];
+    mobilePhases?: Record<string, string>;
+    error?: string;
+  };
   if (!r.ok) throw new Error(body.error ?? `The usage could not be loaded (${r.status}).`);
   const rows = (body.rows ?? []).map((row) => (groupBy === "project" ? fromProject(row as UsageRow) : fromGroup(row as GroupedUsageRow)));
   return { rows, phases: body.mobilePhases ?? {}, groupBy };
@@ -66,7 +102,8 @@ const COLUMNS: ColumnDef<Row>[] = [
   { id: "total", accessorFn: total, sortDescFirst: true },
   { id: "cost", accessorFn: costOf, sortDescFirst: true },
 ];
-const searchText = (r: Row) => `${r.key} ${r.label} ${r.detail} ${Object.keys(r.volumes_mL).join(" ")} ${Object.keys(r.mobilePhases_mL).join(" ")}`.toLowerCase();
+const searchText = (r: Row) =>
+  `${r.key} ${r.label} ${r.detail} ${Object.keys(r.volumes_mL).join(" ")} ${Object.keys(r.mobilePhases_mL).join(" ")}`.toLowerCase();
 
 const queryClient = new QueryClient({ defaultOptions: { queries: { retry: 1, refetchOnWindowFocus: false } } });
 
@@ -79,7 +116,15 @@ export default function UsageTable(props: { initialFrom?: string; initialTo?: st
   );
 }
 
-function UsageView({ initialFrom, initialTo, initialGroupBy }: { initialFrom?: string; initialTo?: string; initialGroupBy?: UsageGrouping }) {
+function UsageView({
+  initialFrom,
+  initialTo,
+  initialGroupBy,
+}: {
+  initialFrom?: string;
+  initialTo?: string;
+  initialGroupBy?: UsageGrouping;
+}) {
   const [from, setFrom] = useState(initialFrom ?? thirtyDaysAgo());
   const [to, setTo] = useState(initialTo ?? today());
   const [groupBy, setGroupBy] = useState<UsageGrouping>(initialGroupBy ?? "project");
@@ -118,8 +163,34 @@ function UsageView({ initialFrom, initialTo, initialGroupBy }: { initialFrom?: s
   const groupNoun = GROUP_LABEL[shown].toLowerCase();
 
   function exportCsv() {
-    const header = [shown, `${shown}_name`, "detail", "runs", "injections", ...reagents.map((r) => `${r}_mL`), ...phases.map((p) => `phase_${p}_mL`), "total_mL", "cost_minor", "currency"];
-    const lines = rows.map((r) => [r.key, r.label, r.detail, r.runs ?? "", r.injections ?? "", ...reagents.map((x) => r.volumes_mL[x] ?? 0), ...phases.map((p) => r.mobilePhases_mL[p] ?? 0), total(r).toFixed(4), r.costs.map((c) => c.amount).join(" "), r.costs.map((c) => c.currency).join(" ")].map(csvField).join(","));
+    const header = [
+      shown,
+      `${shown}_name`,
+      "detail",
+      "runs",
+      "injections",
+      ...reagents.map((r) => `${r}_mL`),
+      ...phases.map((p) => `phase_${p}_mL`),
+      "total_mL",
+      "cost_minor",
+      "currency",
+    ];
+    const lines = rows.map((r) =>
+      [
+        r.key,
+        r.label,
+        r.detail,
+        r.runs ?? "",
+        r.injections ?? "",
+        ...reagents.map((x) => r.volumes_mL[x] ?? 0),
+        ...phases.map((p) => r.mobilePhases_mL[p] ?? 0),
+        total(r).toFixed(4),
+        r.costs.map((c) => c.amount).join(" "),
+        r.costs.map((c) => c.currency).join(" "),
+      ]
+        .map(csvField)
+        .join(","),
+    );
     const blob = new Blob([[header.join(","), ...lines].join("\r\n") + "\r\n"], { type: "text/csv" });
     const a = document.createElement("a");
     a.href = URL.createObjectURL(blob);
@@ -129,9 +200,18 @@ function UsageView({ initialFrom, initialTo, initialGroupBy }: { initialFrom?: s
   }
 
   const header = (key: SortKey, label: string, numeric = false) => (
-    <th scope="col" className={numeric ? "num" : undefined} aria-sort={sort.key === key ? (sort.desc ? "descending" : "ascending") : "none"}>
-      <button type="button" className="cursor-pointer uppercase" onClick={() => setSorting((s) => [{ id: key, desc: s[0]?.id === key ? !s[0].desc : numeric }])}>
-        {label}{sort.key === key ? (sort.desc ? " ↓" : " ↑") : ""}
+    <th
+      scope="col"
+      className={numeric ? "num" : undefined}
+      aria-sort={sort.key === key ? (sort.desc ? "descending" : "ascending") : "none"}
+    >
+      <button
+        type="button"
+        className="cursor-pointer uppercase"
+        onClick={() => setSorting((s) => [{ id: key, desc: s[0]?.id === key ? !s[0].desc : numeric }])}
+      >
+        {label}
+        {sort.key === key ? (sort.desc ? " ↓" : " ↑") : ""}
       </button>
     </th>
   );
@@ -139,19 +219,70 @@ function UsageView({ initialFrom, initialTo, initialGroupBy }: { initialFrom?: s
   return (
     <div className="flex flex-col gap-4">
       <IslandForm className="card flex flex-wrap items-end gap-4 p-4" aria-label="Period" onSubmit={(e) => e.preventDefault()}>
-        <div className="field"><label htmlFor="usage-from">From</label><input id="usage-from" type="date" className="input" value={from} max={to} onChange={(e) => e.target.value && setFrom(e.target.value)} /></div>
-        <div className="field"><label htmlFor="usage-to">To (included)</label><input id="usage-to" type="date" className="input" value={to} min={from} onChange={(e) => e.target.value && setTo(e.target.value)} /></div>
+        <div className="field">
+          <label htmlFor="usage-from">From</label>
+          <input
+            id="usage-from"
+            type="date"
+            className="input"
+            value={from}
+            max={to}
+            onChange={(e) => e.target.value && setFrom(e.target.value)}
+          />
+        </div>
+        <div className="field">
+          <label htmlFor="usage-to">To (included)</label>
+          <input
+            id="usage-to"
+            type="date"
+            className="input"
+            value={to}
+            min={from}
+            onChange={(e) => e.target.value && setTo(e.target.value)}
+          />
+        </div>
         <div className="field">
           <label htmlFor="usage-group">Group by</label>
-          <select id="usage-group" className="input" value={groupBy} onChange={(e) => { setGroupBy(e.target.value as UsageGrouping); setSorting([{ id: "total", desc: true }]); }}>
-            {USAGE_GROUPINGS.map((g) => <option key={g} value={g}>{GROUP_LABEL[g]}</option>)}
+          <select
+            id="usage-group"
+            className="input"
+            value={groupBy}
+            onChange={(e) => {
+              setGroupBy(e.target.value as UsageGrouping);
+              setSorting([{ id: "total", desc: true }]);
+            }}
+          >
+            {USAGE_GROUPINGS.map((g) => (
+              <option key={g} value={g}>
+                {GROUP_LABEL[g]}
+              </option>
+            ))}
           </select>
         </div>
-        <div className="field"><label htmlFor="usage-filter">Filter</label><input id="usage-filter" className="input" placeholder="name, reagent or mobile phase" value={filter} onChange={(e) => setFilter(e.target.value)} /></div>
-        <button type="button" className="btn btn-quiet" onClick={exportCsv} disabled={rows.length === 0}>Export CSV</button>
+        <div className="field">
+          <label htmlFor="usage-filter">Filter</label>
+          <input
+            id="usage-filter"
+            className="input"
+            placeholder="name, reagent or mobile phase"
+            value={filter}
+            onChange={(e) => setFilter(e.target.value)}
+          />
+        </div>
+        <button type="button" className="btn btn-quiet" onClick={exportCsv} disabled={rows.length === 0}>
+          Export CSV
+        </button>
       </IslandForm>
-      {state.kind === "loading" && <p className="text-sm text-[var(--color-muted)]" role="status">Loading the usage…</p>}
-      {state.kind === "error" && <p className="notice notice-danger" role="alert">{state.message}</p>}
+      {state.kind === "loading" && (
+        <p className="text-sm text-[var(--color-muted)]" role="status">
+          Loading the usage…
+        </p>
+      )}
+      {state.kind === "error" && (
+        <p className="notice notice-danger" role="alert">
+          {state.message}
+        </p>
+      )}
       {state.kind === "ready" && rows.length === 0 && <p className="notice">No usage in this period.</p>}
       {rows.length > 0 && (
         <>
@@ -177,24 +308,64 @@ function UsageView({ initialFrom, initialTo, initialGroupBy }: { initialFrom?: s
                     {shown !== "reagent" && <td className="num">{r.runs}</td>}
                     {shown !== "reagent" && <td className="num">{r.injections}</td>}
                     <td className="text-xs">
-                      {Object.entries(r.volumes_mL).filter(([, v]) => v !== 0).map(([id, v]) => <div key={id}>{id}: <span className="num whitespace-nowrap">{formatVolume(v)}</span></div>)}
-                      {Object.entries(r.masses_g).filter(([, g]) => g !== 0).map(([id, g]) => <div key={id}>{id}: <span className="num whitespace-nowrap">{g.toFixed(3)} g</span></div>)}
+                      {Object.entries(r.volumes_mL)
+                        .filter(([, v]) => v !== 0)
+                        .map(([id, v]) => (
+                          <div key={id}>
+                            {id}: <span className="num whitespace-nowrap">{formatVolume(v)}</span>
+                          </div>
+                        ))}
+                      {Object.entries(r.masses_g)
+                        .filter(([, g]) => g !== 0)
+                        .map(([id, g]) => (
+                          <div key={id}>
+                            {id}: <span className="num whitespace-nowrap">{g.toFixed(3)} g</span>
+                          </div>
+                        ))}
                     </td>
                     <td className="text-xs" data-testid="usage-phases">
-                      {Object.entries(r.mobilePhases_mL).filter(([, v]) => v !== 0).map(([code, v]) => <div key={code} title={phaseName(code)}>{code === "none" ? "not from a batch" : code}: <span className="num whitespace-nowrap">{formatVolume(v)}</span></div>)}
+                      {Object.entries(r.mobilePhases_mL)
+                        .filter(([, v]) => v !== 0)
+                        .map(([code, v]) => (
+                          <div key={code} title={phaseName(code)}>
+                            {code === "none" ? "not from a batch" : code}: <span className="num whitespace-nowrap">{formatVolume(v)}</span>
+                          </div>
+                        ))}
                     </td>
-                    <td className="num whitespace-nowrap" data-testid="usage-total">{formatVolume(total(r))}</td>
-                    <td className="num">{r.costs.map((c) => <div key={c.currency}>{formatMoney(c)}</div>)}{r.uncosted.length > 0 && <div className="text-xs text-[var(--color-amber)]" title={`No rate for ${r.uncosted.join(", ")}`}>+ uncosted</div>}</td>
+                    <td className="num whitespace-nowrap" data-testid="usage-total">
+                      {formatVolume(total(r))}
+                    </td>
+                    <td className="num">
+                      {r.costs.map((c) => (
+                        <div key={c.currency}>{formatMoney(c)}</div>
+                      ))}
+                      {r.uncosted.length > 0 && (
+                        <div className="text-xs text-[var(--color-amber)]" title={`No rate for ${r.uncosted.join(", ")}`}>
+                          + uncosted
+                        </div>
+                      )}
+                    </td>
                   </tr>
                 ))}
               </tbody>
             </table>
           </div>
           <figure className="card m-0 p-4">
-            <figcaption className="mb-2 text-sm font-semibold">{chartSeries.cost ? "Volume and cost" : "Volume"} per {groupNoun}, {from} to {to}</figcaption>
+            <figcaption className="mb-2 text-sm font-semibold">
+              {chartSeries.cost ? "Volume and cost" : "Volume"} per {groupNoun}, {from} to {to}
+            </figcaption>
             <LoadBoundary fallback={<p className="notice">The chart could not be loaded. The table above has every figure.</p>}>
-              <Suspense fallback={<p className="text-sm text-[var(--color-muted)]" role="status">Loading the chart…</p>}>
-                <UsageChart series={chartSeries} name={`Bar chart of the ${chartSeries.cost ? "volume and cost" : "volume"} per ${groupNoun}`} />
+              <Suspense
+                fallback={
+                  <p className="text-sm text-[var(--color-muted)]" role="status">
+                    Loading the chart…
+                  </p>
+                }
+              >
+                <UsageChart
+                  series={chartSeries}
+                  name={`Bar chart of the ${chartSeries.cost ? "volume and cost" : "volume"} per ${groupNoun}`}
+                />
               </Suspense>
             </LoadBoundary>
           </figure>

@@ -17,8 +17,14 @@ export default function ApproveButton({ recipeId, version }: { recipeId: number;
   }
   return (
     <div>
-      <button type="button" className="btn" onClick={approve} disabled={busy}>Approve version {version}</button>
-      {error && <p className="field-error mt-2" role="alert">{error}</p>}
+      <button type="button" className="btn" onClick={approve} disabled={busy}>
+        Approve version {version}
+      </button>
+      {error && (
+        <p className="field-error mt-2" role="alert">
+          {error}
+        </p>
+      )}
     </div>
   );
 }

@@ -22,10 +22,26 @@ export default function BatchLookup({ autoFocus = false }: { autoFocus?: boolean
     <IslandForm onSubmit={open} className="flex flex-wrap items-end gap-2" role="search" aria-label="Open a batch by its code">
       <div className="field">
         <label htmlFor={id}>Batch code</label>
-        <input id={id} className="input w-48 font-mono uppercase" value={code} onChange={(e) => setCode(e.target.value)} placeholder="Scan or type" autoComplete="off" autoFocus={autoFocus} aria-invalid={error ? true : undefined} aria-describedby={error ? `${id}-error` : undefined} />
+        <input
+          id={id}
+          className="input w-48 font-mono uppercase"
+          value={code}
+          onChange={(e) => setCode(e.target.value)}
+          placeholder="Scan or type"
+          autoComplete="off"
+          autoFocus={autoFocus}
+          aria-invalid={error ? true : undefined}
+          aria-describedby={error ? `${id}-error` : undefined}
+        />
       </div>
-      <button className="btn btn-quiet" type="submit" disabled={busy}>Open</button>
-      {error && <p id={`${id}-error`} className="field-error w-full" role="alert">{error}</p>}
+      <button className="btn btn-quiet" type="submit" disabled={busy}>
+        Open
+      </button>
+      {error && (
+        <p id={`${id}-error`} className="field-error w-full" role="alert">
+          {error}
+        </p>
+      )}
     </IslandForm>
   );
 }

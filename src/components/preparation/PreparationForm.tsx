@@ -44,7 +44,9 @@ const loadBatchSchema = () => import("../../lib/schemas/preparation").then((m) =
 const ROLE_LABEL: Record<string, string> = { solvent: "solvent", buffer: "buffer", titrant: "to pH", additive: "additive" };
 
 function newKey(): string {
-  return typeof crypto !== "undefined" && "randomUUID" in crypto ? crypto.randomUUID() : `k${Date.now()}${Math.random().toString(36).slice(2)}`;
+  return typeof crypto !== "undefined" && "randomUUID" in crypto
+    ? crypto.randomUUID()
+    : `k${Date.now()}${Math.random().toString(36).slice(2)}`;
 }
 
 function fmt(n: number, digits = 4): string {
@@ -59,8 +61,16 @@ export default function PreparationForm({ recipes, lots, tolerances, expiryRules
   const first = recipes.find((r) => r.versionId === initialRecipeVersionId) ?? recipes[0];
   const form = useZodForm<BatchCreateInput>(loadBatchSchema, {
     defaultValues: {
-      idempotencyKey: key.current, recipeVersionId: first?.versionId ?? 0, volume_mL: 1000, bottles: 1, bottleSize_mL: 1000, temperature_C: 22,
-      measuredPH: null, phMeterTemperature_C: null, components: [], deviationReason: "",
+      idempotencyKey: key.current,
+      recipeVersionId: first?.versionId ?? 0,
+      volume_mL: 1000,
+      bottles: 1,
+      bottleSize_mL: 1000,
+      temperature_C: 22,
+      measuredPH: null,
+      phMeterTemperature_C: null,
+      components: [],
+      deviationReason: "",
       ...(rooms[0] !== undefined ? { room: rooms[0] } : {}),
     },
   });
@@ -86,7 +96,15 @@ export default function PreparationForm({ recipes, lots, tolerances, expiryRules
     if (!recipe) return { plan: null, error: "Pick a recipe." };
     if (!(volume > 0)) return { plan: null, error: "Type the batch volume." };
     try {
-      return { plan: preparationPlan({ spec: recipe.spec, volume_mL: volume, temperature_C: Number.isFinite(temperature) ? temperature : 22, detection_nm: recipe.detection_nm }), error: null };
+      return {
+        plan: preparationPlan({
+          spec: recipe.spec,
+          volume_mL: volume,
+          temperature_C: Number.isFinite(temperature) ? temperature : 22,
+          detection_nm: recipe.detection_nm,
+        }),
+        error: null,
+      };
     } catch (error) {
       return { plan: null, error: error instanceof ChemInputError ? error.message : "These numbers cannot be computed." };
     }
@@ -96,7 +114,8 @@ export default function PreparationForm({ recipes, lots, tolerances, expiryRules
   const rowKey = (i: number) => `${versionId}:${i}`;
   const display = (amount: number, unit: "mL" | "g") =>
     unit === "mL" ? convert(amount).from("ml").to(liquidUnit) : convert(amount).from("g").to(massUnit);
-  const canonical = (value: number, unit: "mL" | "g") => (unit === "mL" ? convert(value).from(liquidUnit).to("ml") : convert(value).from(massUnit).to("g"));
+  const canonical = (value: number, unit: "mL" | "g") =>
+    unit === "mL" ? convert(value).from(liquidUnit).to("ml") : convert(value).from(massUnit).to("g");
   const unitLabel = (unit: "mL" | "g") => (unit === "mL" ? (liquidUnit === "ml" ? "mL" : "L") : massUnit);
 
   // Keep the form's component lines in step with the plan (one line per planned component).
@@ -126,8 +145,13 @@ export default function PreparationForm({ recipes, lots, tolerances, expiryRules
 
   const expiry = plan
     ? batchExpiry({
-        kind: plan.kind, preparedAt: new Date(), rules: expiryRules,
-        lots: chosenLots.map((c) => lots.find((l) => l.id === Number(c.stockLotId))).filter((l): l is FormLot => l !== undefined).map((l) => ({ lotNumber: l.lotNumber, expiresOn: l.expiresOn })),
+        kind: plan.kind,
+        preparedAt: new Date(),
+        rules: expiryRules,
+        lots: chosenLots
+          .map((c) => lots.find((l) => l.id === Number(c.stockLotId)))
+          .filter((l): l is FormLot => l !== undefined)
+          .map((l) => ({ lotNumber: l.lotNumber, expiresOn: l.expiresOn })),
       })
     : null;
 
@@ -146,7 +170,8 @@ export default function PreparationForm({ recipes, lots, tolerances, expiryRules
   const errors = formState.errors;
   const perBottle = bottles > 0 ? volume / bottles : 0;
 
-  if (recipes.length === 0) return <p className="notice">No recipe is approved yet. A manager approves a recipe before batches are made from it.</p>;
+  if (recipes.length === 0)
+    return <p className="notice">No recipe is approved yet. A manager approves a recipe before batches are made from it.</p>;
 
   return (
     <IslandForm onSubmit={onSubmit} noValidate className="grid gap-6 xl:grid-cols-[minmax(0,1fr)_22rem]" aria-describedby="prep-status">
@@ -158,7 +183,10 @@ export default function PreparationForm({ recipes, lots, tolerances, expiryRules
               <label htmlFor="prep-recipe">Recipe</label>
               <select id="prep-recipe" className="input" {...register("recipeVersionId", { valueAsNumber: true })}>
                 {recipes.map((r) => (
-                  <option key={r.versionId} value={r.versionId}>{`${r.code} · ${r.name} (v${r.version}${r.channel ? `, ch. ${r.channel}` : ""})`}</option>
+                  <option
+                    key={r.versionId}
+                    value={r.versionId}
+                  >{`${r.code} · ${r.name} (v${r.version}${r.channel ? `, ch. ${r.channel}` : ""})`}</option>
                 ))}
               </select>
             </div>
@@ -166,46 +194,85 @@ export default function PreparationForm({ recipes, lots, tolerances, expiryRules
               <label htmlFor="prep-volume">Batch volume</label>
               <div className="flex gap-2">
                 <input
-                  id="prep-volume" className="input min-w-0 flex-1" inputMode="decimal" value={volumeText} aria-invalid={errors.volume_mL ? true : undefined}
+                  id="prep-volume"
+                  className="input min-w-0 flex-1"
+                  inputMode="decimal"
+                  value={volumeText}
+                  aria-invalid={errors.volume_mL ? true : undefined}
                   onChange={(e) => {
                     setVolumeText(e.target.value);
                     const n = Number(e.target.value.replace(",", "."));
-                    setValue("volume_mL", Number.isFinite(n) && n > 0 ? convert(n).from(volumeUnit).to("ml") : NaN, { shouldValidate: formState.isSubmitted });
+                    setValue("volume_mL", Number.isFinite(n) && n > 0 ? convert(n).from(volumeUnit).to("ml") : NaN, {
+                      shouldValidate: formState.isSubmitted,
+                    });
                   }}
                 />
-                <select aria-label="Unit of volume" className="input" value={volumeUnit} onChange={(e) => {
-                  const unit = e.target.value as VolumeUnit;
-                  setVolumeUnit(unit);
-                  if (volume > 0) setVolumeText(String(+convert(volume).from("ml").to(unit).toFixed(4)));
-                }}>
+                <select
+                  aria-label="Unit of volume"
+                  className="input"
+                  value={volumeUnit}
+                  onChange={(e) => {
+                    const unit = e.target.value as VolumeUnit;
+                    setVolumeUnit(unit);
+                    if (volume > 0) setVolumeText(String(+convert(volume).from("ml").to(unit).toFixed(4)));
+                  }}
+                >
                   <option value="ml">mL</option>
                   <option value="l">L</option>
                 </select>
               </div>
-              {errors.volume_mL && <p className="field-error" role="alert">{errors.volume_mL.message}</p>}
+              {errors.volume_mL && (
+                <p className="field-error" role="alert">
+                  {errors.volume_mL.message}
+                </p>
+              )}
             </div>
             <div className="field">
               <label htmlFor="prep-temp">Preparation temperature (°C)</label>
               <input id="prep-temp" className="input" inputMode="decimal" {...register("temperature_C", { valueAsNumber: true })} />
-              {errors.temperature_C && <p className="field-error" role="alert">{errors.temperature_C.message}</p>}
+              {errors.temperature_C && (
+                <p className="field-error" role="alert">
+                  {errors.temperature_C.message}
+                </p>
+              )}
             </div>
             <div className="field">
               <label htmlFor="prep-bottles">Bottles</label>
               <input id="prep-bottles" className="input" inputMode="numeric" {...register("bottles", { valueAsNumber: true })} />
-              {errors.bottles && <p className="field-error" role="alert">{errors.bottles.message}</p>}
+              {errors.bottles && (
+                <p className="field-error" role="alert">
+                  {errors.bottles.message}
+                </p>
+              )}
             </div>
             <div className="field">
               <label htmlFor="prep-bottle-size">Bottle size (mL)</label>
               <input id="prep-bottle-size" className="input" inputMode="numeric" {...register("bottleSize_mL", { valueAsNumber: true })} />
-              {errors.bottleSize_mL ? <p className="field-error" role="alert">{errors.bottleSize_mL.message}</p> : perBottle > 0 && <p className="text-xs text-[var(--color-muted)]">{fmt(perBottle)} mL in each bottle</p>}
+              {errors.bottleSize_mL ? (
+                <p className="field-error" role="alert">
+                  {errors.bottleSize_mL.message}
+                </p>
+              ) : (
+                perBottle > 0 && <p className="text-xs text-[var(--color-muted)]">{fmt(perBottle)} mL in each bottle</p>
+              )}
             </div>
             {rooms.length > 0 && (
               <div className="field">
                 <label htmlFor="prep-room">Kept in room</label>
                 <select id="prep-room" className="input" {...register("room")}>
-                  {rooms.map((r) => <option key={r} value={r}>{r}</option>)}
+                  {rooms.map((r) => (
+                    <option key={r} value={r}>
+                      {r}
+                    </option>
+                  ))}
                 </select>
-                {errors.room ? <p className="field-error" role="alert">{errors.room.message}</p> : <p className="text-xs text-[var(--color-muted)]">Counted in the room's flammable liquids on hand</p>}
+                {errors.room ? (
+                  <p className="field-error" role="alert">
+                    {errors.room.message}
+                  </p>
+                ) : (
+                  <p className="text-xs text-[var(--color-muted)]">Counted in the room's flammable liquids on hand</p>
+                )}
               </div>
             )}
           </div>
@@ -218,24 +285,47 @@ export default function PreparationForm({ recipes, lots, tolerances, expiryRules
               <p className="text-sm text-[var(--color-muted)]">Solvent percentages are v/v, each measured separately before mixing.</p>
             </div>
             <div className="flex gap-2 text-sm">
-              <label className="flex items-center gap-1">Liquids
-                <select className="input py-1" value={liquidUnit} onChange={(e) => setLiquidUnit(e.target.value as VolumeUnit)} aria-label="Unit for liquids">
-                  <option value="ml">mL</option><option value="l">L</option>
+              <label className="flex items-center gap-1">
+                Liquids
+                <select
+                  className="input py-1"
+                  value={liquidUnit}
+                  onChange={(e) => setLiquidUnit(e.target.value as VolumeUnit)}
+                  aria-label="Unit for liquids"
+                >
+                  <option value="ml">mL</option>
+                  <option value="l">L</option>
                 </select>
               </label>
-              <label className="flex items-center gap-1">Solids
-                <select className="input py-1" value={massUnit} onChange={(e) => setMassUnit(e.target.value as MassUnit)} aria-label="Unit for solids">
-                  <option value="g">g</option><option value="mg">mg</option>
+              <label className="flex items-center gap-1">
+                Solids
+                <select
+                  className="input py-1"
+                  value={massUnit}
+                  onChange={(e) => setMassUnit(e.target.value as MassUnit)}
+                  aria-label="Unit for solids"
+                >
+                  <option value="g">g</option>
+                  <option value="mg">mg</option>
                 </select>
               </label>
             </div>
           </div>
-          {computed.error && <p className="notice notice-danger" role="alert">{computed.error}</p>}
+          {computed.error && (
+            <p className="notice notice-danger" role="alert">
+              {computed.error}
+            </p>
+          )}
           {plan && (
             <div className="overflow-x-auto">
               <table className="table" data-testid="amounts">
                 <thead>
-                  <tr><th>Component</th><th className="num">Target</th><th>Lot used</th><th className="num">Actual</th></tr>
+                  <tr>
+                    <th>Component</th>
+                    <th className="num">Target</th>
+                    <th>Lot used</th>
+                    <th className="num">Actual</th>
+                  </tr>
                 </thead>
                 <tbody>
                   {lines.map((c, i) => {
@@ -253,7 +343,9 @@ export default function PreparationForm({ recipes, lots, tolerances, expiryRules
                         </td>
                         <td>
                           <select
-                            className="input w-full min-w-44 py-1" aria-label={`Lot of ${c.name}`} aria-invalid={lotError ? true : undefined}
+                            className="input w-full min-w-44 py-1"
+                            aria-label={`Lot of ${c.name}`}
+                            aria-invalid={lotError ? true : undefined}
                             {...register(`components.${i}.stockLotId` as const, { valueAsNumber: true })}
                           >
                             <option value={0}>Choose a lot…</option>
@@ -267,16 +359,27 @@ export default function PreparationForm({ recipes, lots, tolerances, expiryRules
                             })}
                           </select>
                           {options.length === 0 && <p className="field-error">No lot of {c.name} is recorded: add it under Stock lots.</p>}
-                          {lotError && <p className="field-error" role="alert">{lotError === "Pick the lot used" || lotError.startsWith("Expected") ? "Pick the lot used" : lotError}</p>}
+                          {lotError && (
+                            <p className="field-error" role="alert">
+                              {lotError === "Pick the lot used" || lotError.startsWith("Expected") ? "Pick the lot used" : lotError}
+                            </p>
+                          )}
                         </td>
                         <td className="num">
                           <input
-                            className="input w-28 py-1 text-right" inputMode="decimal" aria-label={`Actual amount of ${c.name} (${unitLabel(c.unit)})`} value={text}
-                            placeholder={fmt(display(c.target, c.unit))} aria-invalid={deviantFields.has(field) ? true : undefined}
+                            className="input w-28 py-1 text-right"
+                            inputMode="decimal"
+                            aria-label={`Actual amount of ${c.name} (${unitLabel(c.unit)})`}
+                            value={text}
+                            placeholder={fmt(display(c.target, c.unit))}
+                            aria-invalid={deviantFields.has(field) ? true : undefined}
                             onChange={(e) => {
                               setActualText({ ...actualText, [rowKey(i)]: e.target.value });
                               const n = Number(e.target.value.replace(",", "."));
-                              setValue(`components.${i}.actualAmount` as const, e.target.value.trim() !== "" && Number.isFinite(n) ? canonical(n, c.unit) : null);
+                              setValue(
+                                `components.${i}.actualAmount` as const,
+                                e.target.value.trim() !== "" && Number.isFinite(n) ? canonical(n, c.unit) : null,
+                              );
                             }}
                           />
                         </td>
@@ -290,20 +393,41 @@ export default function PreparationForm({ recipes, lots, tolerances, expiryRules
           {recipe?.spec.buffer && (
             <div className="mt-4 grid gap-4 sm:grid-cols-2">
               <div className="field">
-                <label htmlFor="prep-ph">Measured pH (target {recipe.spec.buffer.targetPH.toFixed(2)} ± {tolerances.pH})</label>
-                <input id="prep-ph" className="input" inputMode="decimal" aria-invalid={deviantFields.has("measuredPH") || errors.measuredPH ? true : undefined} {...register("measuredPH", { valueAsNumber: true })} />
-                {errors.measuredPH && <p className="field-error" role="alert">{errors.measuredPH.message}</p>}
+                <label htmlFor="prep-ph">
+                  Measured pH (target {recipe.spec.buffer.targetPH.toFixed(2)} ± {tolerances.pH})
+                </label>
+                <input
+                  id="prep-ph"
+                  className="input"
+                  inputMode="decimal"
+                  aria-invalid={deviantFields.has("measuredPH") || errors.measuredPH ? true : undefined}
+                  {...register("measuredPH", { valueAsNumber: true })}
+                />
+                {errors.measuredPH && (
+                  <p className="field-error" role="alert">
+                    {errors.measuredPH.message}
+                  </p>
+                )}
               </div>
               <div className="field">
                 <label htmlFor="prep-ph-temp">pH read at (°C)</label>
-                <input id="prep-ph-temp" className="input" inputMode="decimal" {...register("phMeterTemperature_C", { valueAsNumber: true })} />
+                <input
+                  id="prep-ph-temp"
+                  className="input"
+                  inputMode="decimal"
+                  {...register("phMeterTemperature_C", { valueAsNumber: true })}
+                />
               </div>
             </div>
           )}
           {deviations.length > 0 && (
             <div className="notice mt-4" role="status">
               <p className="font-medium">Outside the facility's tolerances:</p>
-              <ul className="ml-5 list-disc">{deviations.map((d) => <li key={d.field}>{d.message}</li>)}</ul>
+              <ul className="ml-5 list-disc">
+                {deviations.map((d) => (
+                  <li key={d.field}>{d.message}</li>
+                ))}
+              </ul>
               <div className="field mt-3">
                 <label htmlFor="prep-reason">Reason for the deviation (printed on the label)</label>
                 <input id="prep-reason" className="input" {...register("deviationReason")} />
@@ -315,7 +439,11 @@ export default function PreparationForm({ recipes, lots, tolerances, expiryRules
         {plan && (
           <section className="card p-5" aria-labelledby="order-heading">
             <h2 id="order-heading">Order of work</h2>
-            <ol className="ml-5 mt-2 list-decimal space-y-1 text-sm">{plan.steps.map((s) => <li key={s}>{s}</li>)}</ol>
+            <ol className="ml-5 mt-2 list-decimal space-y-1 text-sm">
+              {plan.steps.map((s) => (
+                <li key={s}>{s}</li>
+              ))}
+            </ol>
           </section>
         )}
       </div>
@@ -323,34 +451,80 @@ export default function PreparationForm({ recipes, lots, tolerances, expiryRules
       <aside className="grid content-start gap-4" aria-label="Checks">
         {plan && (
           <section className="card p-4 text-sm" aria-labelledby="props-heading">
-            <h2 id="props-heading" className="text-base">The mix</h2>
+            <h2 id="props-heading" className="text-base">
+              The mix
+            </h2>
             <dl className="mt-2 grid grid-cols-[auto_1fr] gap-x-3 gap-y-1">
-              <dt className="text-[var(--color-muted)]">Final volume</dt><dd className="num" data-testid="final-volume">{fmt(plan.finalVolume_mL)} mL</dd>
-              <dt className="text-[var(--color-muted)]">Polarity index P′</dt><dd className="num">{plan.properties.polarityIndex.toFixed(2)}</dd>
-              <dt className="text-[var(--color-muted)]">UV cutoff</dt><dd className="num">{plan.properties.uvCutoff_nm} nm{recipe?.detection_nm ? ` (detect at ${recipe.detection_nm} nm)` : ""}</dd>
-              {plan.properties.viscosity_cP !== undefined && (<><dt className="text-[var(--color-muted)]">Viscosity</dt><dd className="num">{plan.properties.viscosity_cP.toFixed(2)} cP at 25 °C</dd></>)}
-              {plan.buffer && (<><dt className="text-[var(--color-muted)]">Buffer pH</dt><dd className="num">{plan.buffer.pH.toFixed(3)} (I = {plan.buffer.ionicStrength_mol_L.toFixed(3)} mol/L)</dd></>)}
-              {expiry && (<><dt className="text-[var(--color-muted)]">Expires</dt><dd className="num" data-testid="expiry-preview">{expiry.expiresAt.toISOString().slice(0, 16).replace("T", " ")} UTC</dd></>)}
+              <dt className="text-[var(--color-muted)]">Final volume</dt>
+              <dd className="num" data-testid="final-volume">
+                {fmt(plan.finalVolume_mL)} mL
+              </dd>
+              <dt className="text-[var(--color-muted)]">Polarity index P′</dt>
+              <dd className="num">{plan.properties.polarityIndex.toFixed(2)}</dd>
+              <dt className="text-[var(--color-muted)]">UV cutoff</dt>
+              <dd className="num">
+                {plan.properties.uvCutoff_nm} nm{recipe?.detection_nm ? ` (detect at ${recipe.detection_nm} nm)` : ""}
+              </dd>
+              {plan.properties.viscosity_cP !== undefined && (
+                <>
+                  <dt className="text-[var(--color-muted)]">Viscosity</dt>
+                  <dd className="num">{plan.properties.viscosity_cP.toFixed(2)} cP at 25 °C</dd>
+                </>
+              )}
+              {plan.buffer && (
+                <>
+                  <dt className="text-[var(--color-muted)]">Buffer pH</dt>
+                  <dd className="num">
+                    {plan.buffer.pH.toFixed(3)} (I = {plan.buffer.ionicStrength_mol_L.toFixed(3)} mol/L)
+                  </dd>
+                </>
+              )}
+              {expiry && (
+                <>
+                  <dt className="text-[var(--color-muted)]">Expires</dt>
+                  <dd className="num" data-testid="expiry-preview">
+                    {expiry.expiresAt.toISOString().slice(0, 16).replace("T", " ")} UTC
+                  </dd>
+                </>
+              )}
             </dl>
             {expiry && <p className="mt-2 text-xs text-[var(--color-muted)]">{expiry.reason}</p>}
           </section>
         )}
         {plan && plan.warnings.length > 0 && (
           <section className="notice text-sm" aria-labelledby="warn-heading">
-            <h2 id="warn-heading" className="text-base">Warnings</h2>
-            <ul className="ml-4 mt-1 list-disc space-y-1" data-testid="chem-warnings">{plan.warnings.map((w) => <li key={`${w.code}:${w.reagent ?? ""}`}>{w.message}</li>)}</ul>
+            <h2 id="warn-heading" className="text-base">
+              Warnings
+            </h2>
+            <ul className="ml-4 mt-1 list-disc space-y-1" data-testid="chem-warnings">
+              {plan.warnings.map((w) => (
+                <li key={`${w.code}:${w.reagent ?? ""}`}>{w.message}</li>
+              ))}
+            </ul>
           </section>
         )}
         {plan && (
           <section className="notice notice-danger text-sm" aria-labelledby="caution-heading">
-            <h2 id="caution-heading" className="text-base">Cautions</h2>
-            <ul className="ml-4 mt-1 list-disc space-y-1">{plan.cautions.map((c) => <li key={c}>{c}</li>)}</ul>
+            <h2 id="caution-heading" className="text-base">
+              Cautions
+            </h2>
+            <ul className="ml-4 mt-1 list-disc space-y-1">
+              {plan.cautions.map((c) => (
+                <li key={c}>{c}</li>
+              ))}
+            </ul>
           </section>
         )}
         <div id="prep-status" aria-live="polite">
-          {serverError && <p className="notice notice-danger" role="alert">{serverError}</p>}
+          {serverError && (
+            <p className="notice notice-danger" role="alert">
+              {serverError}
+            </p>
+          )}
         </div>
-        <button type="submit" className="btn justify-center" disabled={saving || !plan}>{saving ? "Recording…" : "Record the batch"}</button>
+        <button type="submit" className="btn justify-center" disabled={saving || !plan}>
+          {saving ? "Recording…" : "Record the batch"}
+        </button>
       </aside>
     </IslandForm>
   );

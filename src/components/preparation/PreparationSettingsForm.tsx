@@ -38,16 +38,40 @@ export default function PreparationSettingsForm({ initial }: { initial: Preparat
     <IslandForm onSubmit={save} className="grid gap-6" noValidate>
       <section className="card p-5" aria-labelledby="rules-heading">
         <h2 id="rules-heading">Expiry rules</h2>
-        <p className="text-sm text-[var(--color-muted)]">The defaults are common practice, not regulation: set them to your facility's SOPs. A batch expires at the earlier of its rule and the expiry of any lot in it.</p>
+        <p className="text-sm text-[var(--color-muted)]">
+          The defaults are common practice, not regulation: set them to your facility's SOPs. A batch expires at the earlier of its rule and
+          the expiry of any lot in it.
+        </p>
         <div className="mt-3 overflow-x-auto">
           <table className="table">
-            <thead><tr><th>Kind of mobile phase</th><th className="num">Shelf life (h)</th><th>Reason shown to the technician</th></tr></thead>
+            <thead>
+              <tr>
+                <th>Kind of mobile phase</th>
+                <th className="num">Shelf life (h)</th>
+                <th>Reason shown to the technician</th>
+              </tr>
+            </thead>
             <tbody>
               {rules.map((r, i) => (
                 <tr key={r.kind}>
                   <td className="font-medium">{r.label}</td>
-                  <td className="num"><input aria-label={`Shelf life of ${r.label} in hours`} className="input w-24 text-right" inputMode="numeric" value={String(r.shelfLife_h)} onChange={(e) => setRules(rules.map((x, j) => (j === i ? { ...x, shelfLife_h: Number(e.target.value) } : x)))} /></td>
-                  <td><input aria-label={`Reason for ${r.label}`} className="input w-full min-w-72" value={r.reason} onChange={(e) => setRules(rules.map((x, j) => (j === i ? { ...x, reason: e.target.value } : x)))} /></td>
+                  <td className="num">
+                    <input
+                      aria-label={`Shelf life of ${r.label} in hours`}
+                      className="input w-24 text-right"
+                      inputMode="numeric"
+                      value={String(r.shelfLife_h)}
+                      onChange={(e) => setRules(rules.map((x, j) => (j === i ? { ...x, shelfLife_h: Number(e.target.value) } : x)))}
+                    />
+                  </td>
+                  <td>
+                    <input
+                      aria-label={`Reason for ${r.label}`}
+                      className="input w-full min-w-72"
+                      value={r.reason}
+                      onChange={(e) => setRules(rules.map((x, j) => (j === i ? { ...x, reason: e.target.value } : x)))}
+                    />
+                  </td>
                 </tr>
               ))}
             </tbody>
@@ -55,19 +79,48 @@ export default function PreparationSettingsForm({ initial }: { initial: Preparat
         </div>
       </section>
       <section className="card grid gap-4 p-5 sm:grid-cols-2" aria-labelledby="tol-heading">
-        <h2 id="tol-heading" className="sm:col-span-2">Deviation tolerances</h2>
-        <div className="field"><label htmlFor="tol-ph">pH (± units)</label><input id="tol-ph" className="input" inputMode="decimal" value={pH} onChange={(e) => setPH(e.target.value)} /></div>
-        <div className="field"><label htmlFor="tol-amount">Amounts (± %)</label><input id="tol-amount" className="input" inputMode="decimal" value={amount} onChange={(e) => setAmount(e.target.value)} /></div>
+        <h2 id="tol-heading" className="sm:col-span-2">
+          Deviation tolerances
+        </h2>
+        <div className="field">
+          <label htmlFor="tol-ph">pH (± units)</label>
+          <input id="tol-ph" className="input" inputMode="decimal" value={pH} onChange={(e) => setPH(e.target.value)} />
+        </div>
+        <div className="field">
+          <label htmlFor="tol-amount">Amounts (± %)</label>
+          <input id="tol-amount" className="input" inputMode="decimal" value={amount} onChange={(e) => setAmount(e.target.value)} />
+        </div>
       </section>
       <section className="card grid gap-3 p-5" aria-labelledby="stocks-heading">
         <h2 id="stocks-heading">Label stocks</h2>
-        <p className="text-sm text-[var(--color-muted)]">Each stock: <code>id</code>, <code>name</code>, <code>kind</code> (roll or sheet), <code>width_mm</code>, <code>height_mm</code>; a sheet adds <code>sheet</code> with page size, columns, rows, margins and gaps (mm).</p>
-        <div className="field"><label htmlFor="stocks-json">Stocks (JSON)</label><textarea id="stocks-json" className="input min-h-64 font-mono text-xs" value={stocks} onChange={(e) => setStocks(e.target.value)} spellCheck={false} /></div>
-        <div className="field w-64"><label htmlFor="stock-default">Default stock id</label><input id="stock-default" className="input" value={defaultStock} onChange={(e) => setDefaultStock(e.target.value)} /></div>
+        <p className="text-sm text-[var(--color-muted)]">
+          Each stock: <code>id</code>, <code>name</code>, <code>kind</code> (roll or sheet), <code>width_mm</code>, <code>height_mm</code>;
+          a sheet adds <code>sheet</code> with page size, columns, rows, margins and gaps (mm).
+        </p>
+        <div className="field">
+          <label htmlFor="stocks-json">Stocks (JSON)</label>
+          <textarea
+            id="stocks-json"
+            className="input min-h-64 font-mono text-xs"
+            value={stocks}
+            onChange={(e) => setStocks(e.target.value)}
+            spellCheck={false}
+          />
+        </div>
+        <div className="field w-64">
+          <label htmlFor="stock-default">Default stock id</label>
+          <input id="stock-default" className="input" value={defaultStock} onChange={(e) => setDefaultStock(e.target.value)} />
+        </div>
       </section>
       <div className="flex items-center gap-3">
-        <button className="btn" type="submit">Save settings</button>
-        {message && <p className={message.ok ? "text-sm text-[var(--color-ok)]" : "field-error"} role={message.ok ? "status" : "alert"}>{message.text}</p>}
+        <button className="btn" type="submit">
+          Save settings
+        </button>
+        {message && (
+          <p className={message.ok ? "text-sm text-[var(--color-ok)]" : "field-error"} role={message.ok ? "status" : "alert"}>
+            {message.text}
+          </p>
+        )}
       </div>
     </IslandForm>
   );

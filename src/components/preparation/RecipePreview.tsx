@@ -23,15 +23,30 @@ export default function RecipePreview({ spec, detection_nm }: { spec: unknown; d
 
   return (
     <>
-      <p className="mt-1" data-testid="recipe-description">{preview.text ?? "–"}</p>
+      <p className="mt-1" data-testid="recipe-description">
+        {preview.text ?? "–"}
+      </p>
       {preview.error && <p className="field-error mt-2">{preview.error}</p>}
       {preview.plan && (
         <>
           <h3 className="mt-3 font-medium">For 1 L</h3>
           <ul className="mt-1 space-y-0.5" data-testid="recipe-litre">
-            {preview.plan.components.map((c) => <li key={`${c.role}:${c.reagent}`} className="flex justify-between gap-2"><span>{c.name}</span><span className="num">{c.target.toFixed(c.target >= 10 ? 1 : 3)} {c.unit}</span></li>)}
+            {preview.plan.components.map((c) => (
+              <li key={`${c.role}:${c.reagent}`} className="flex justify-between gap-2">
+                <span>{c.name}</span>
+                <span className="num">
+                  {c.target.toFixed(c.target >= 10 ? 1 : 3)} {c.unit}
+                </span>
+              </li>
+            ))}
           </ul>
-          {preview.plan.warnings.length > 0 && <ul className="notice mt-3 ml-0 list-none space-y-1">{preview.plan.warnings.map((w) => <li key={`${w.code}:${w.reagent ?? ""}`}>{w.message}</li>)}</ul>}
+          {preview.plan.warnings.length > 0 && (
+            <ul className="notice mt-3 ml-0 list-none space-y-1">
+              {preview.plan.warnings.map((w) => (
+                <li key={`${w.code}:${w.reagent ?? ""}`}>{w.message}</li>
+              ))}
+            </ul>
+          )}
         </>
       )}
     </>

@@ -9,7 +9,17 @@ const MAX_MB = 10;
 /** Records a lot as received, with its certificate of analysis (PDF or image). */
 export default function StockLotForm() {
   const today = new Date().toISOString().slice(0, 10);
-  const form = useZodForm<StockLotInput>(stockLotInputSchema, { defaultValues: { reagent: "acetonitrile", lotNumber: "", supplier: "", grade: "HPLC", receivedOn: today, expiresOn: "", quantity: 4000 } });
+  const form = useZodForm<StockLotInput>(stockLotInputSchema, {
+    defaultValues: {
+      reagent: "acetonitrile",
+      lotNumber: "",
+      supplier: "",
+      grade: "HPLC",
+      receivedOn: today,
+      expiresOn: "",
+      quantity: 4000,
+    },
+  });
   const { register, handleSubmit, formState, watch } = form;
   const [file, setFile] = useState<File | null>(null);
   const [error, setError] = useState<string | null>(null);
@@ -34,29 +44,57 @@ export default function StockLotForm() {
   });
 
   return (
-    <IslandForm onSubmit={onSubmit} noValidate className="card grid gap-4 p-5 sm:grid-cols-2 lg:grid-cols-4" aria-label="Record a stock lot">
+    <IslandForm
+      onSubmit={onSubmit}
+      noValidate
+      className="card grid gap-4 p-5 sm:grid-cols-2 lg:grid-cols-4"
+      aria-label="Record a stock lot"
+    >
       <div className="field sm:col-span-2">
         <label htmlFor="lot-reagent">Reagent</label>
         <select id="lot-reagent" className="input" {...register("reagent")}>
-          {reagents.map((r) => <option key={r.id} value={r.id}>{r.name}</option>)}
+          {reagents.map((r) => (
+            <option key={r.id} value={r.id}>
+              {r.name}
+            </option>
+          ))}
         </select>
       </div>
       <Field label="Lot number" registration={register("lotNumber")} error={errors.lotNumber?.message} />
       <Field label="Grade" registration={register("grade")} error={errors.grade?.message} />
-      <div className="sm:col-span-2"><Field label="Supplier" registration={register("supplier")} error={errors.supplier?.message} /></div>
-      <Field label={`Quantity (${reagent?.form === "solid" ? "g" : "mL"})`} inputMode="decimal" registration={register("quantity")} error={errors.quantity?.message} />
+      <div className="sm:col-span-2">
+        <Field label="Supplier" registration={register("supplier")} error={errors.supplier?.message} />
+      </div>
+      <Field
+        label={`Quantity (${reagent?.form === "solid" ? "g" : "mL"})`}
+        inputMode="decimal"
+        registration={register("quantity")}
+        error={errors.quantity?.message}
+      />
       <Field label="Room" registration={register("room")} error={errors.room?.message} />
       <Field label="Received" type="date" registration={register("receivedOn")} error={errors.receivedOn?.message} />
       <Field label="Opened (optional)" type="date" registration={register("openedOn")} error={errors.openedOn?.message} />
       <Field label="Expires" type="date" registration={register("expiresOn")} error={errors.expiresOn?.message} />
       <div className="field">
         <label htmlFor="lot-coa">Certificate of analysis</label>
-        <input id="lot-coa" type="file" accept="application/pdf,image/png,image/jpeg,image/webp" className="text-sm" onChange={(e) => setFile(e.target.files?.[0] ?? null)} />
+        <input
+          id="lot-coa"
+          type="file"
+          accept="application/pdf,image/png,image/jpeg,image/webp"
+          className="text-sm"
+          onChange={(e) => setFile(e.target.files?.[0] ?? null)}
+        />
         <p className="text-xs text-[var(--color-muted)]">PDF or image, at most {MAX_MB} MB</p>
       </div>
       <div className="flex items-end gap-3 sm:col-span-2 lg:col-span-4">
-        <button type="submit" className="btn" disabled={saving}>{saving ? "Saving…" : "Record the lot"}</button>
-        {error && <p className="field-error" role="alert">{error}</p>}
+        <button type="submit" className="btn" disabled={saving}>
+          {saving ? "Saving…" : "Record the lot"}
+        </button>
+        {error && (
+          <p className="field-error" role="alert">
+            {error}
+          </p>
+        )}
       </div>
     </IslandForm>
   );

@@ -33,6 +33,8 @@ export const NAV_ITEMS: NavItem[] = [
 
 export function navFor(role: Role, options: { devMail?: boolean } = {}): NavItem[] {
   return NAV_ITEMS.filter(
-    (item) => (!item.devMailOnly || options.devMail === true) && (can(role, item.permission) || (item.own && can(role, `${item.permission}:own` as Permission))),
+    (item) =>
+      (!item.devMailOnly || options.devMail === true) &&
+      (can(role, item.permission) || (item.own && can(role, `${item.permission}:own` as Permission))),
   );
 }

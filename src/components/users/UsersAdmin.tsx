@@ -28,11 +28,16 @@ const SMALL = "btn btn-quiet px-2 py-1 text-[0.8rem]";
 const stateOf = (u: UserRow) => (!u.active ? "deactivated" : u.invited ? "invited" : "active");
 const sortValue = (u: UserRow, key: SortKey): string => {
   switch (key) {
-    case "name": return u.name.toLowerCase();
-    case "role": return String(ROLES.indexOf(u.role));
-    case "organisation": return (u.clientName ?? "").toLowerCase();
-    case "state": return stateOf(u);
-    case "lastSignIn": return u.lastSignInAt ?? "";
+    case "name":
+      return u.name.toLowerCase();
+    case "role":
+      return String(ROLES.indexOf(u.role));
+    case "organisation":
+      return (u.clientName ?? "").toLowerCase();
+    case "state":
+      return stateOf(u);
+    case "lastSignIn":
+      return u.lastSignInAt ?? "";
   }
 };
 
@@ -46,8 +51,18 @@ function roleOptions(actorRole: Role) {
   return ROLES.filter((r) => actorRole === "admin" || r !== "admin").map((r) => ({ value: r, label: ROLE_LABELS[r] }));
 }
 
-function InviteForm({ clients, actorRole, onInvited }: { clients: ClientOption[]; actorRole: Role; onInvited: (message: string, warning: boolean) => Promise<void> }) {
-  const { register, handleSubmit, formState, watch, reset } = useZodForm<InviteUserInput>(inviteUserSchema, { defaultValues: { role: "technician" } });
+function InviteForm({
+  clients,
+  actorRole,
+  onInvited,
+}: {
+  clients: ClientOption[];
+  actorRole: Role;
+  onInvited: (message: string, warning: boolean) => Promise<void>;
+}) {
+  const { register, handleSubmit, formState, watch, reset } = useZodForm<InviteUserInput>(inviteUserSchema, {
+    defaultValues: { role: "technician" },
+  });
   const [problem, setProblem] = useState<string | null>(null);
   const role = watch("role");
 
@@ -57,7 +72,9 @@ function InviteForm({ clients, actorRole, onInvited }: { clients: ClientOption[]
       const result = await postJson<{ user: UserRow; mailSent: boolean }>("/api/users", values);
       reset({ email: "", name: "", role: values.role });
       await onInvited(
-        result.mailSent ? `Invitation sent to ${result.user.email}.` : `${result.user.email} was added, but the invitation could not be mailed. Use "Send link" once mail works.`,
+        result.mailSent
+          ? `Invitation sent to ${result.user.email}.`
+          : `${result.user.email} was added, but the invitation could not be mailed. Use "Send link" once mail works.`,
         !result.mailSent,
       );
     } catch (error) {
@@ -66,9 +83,21 @@ function InviteForm({ clients, actorRole, onInvited }: { clients: ClientOption[]
   });
 
   return (
-    <IslandForm method="post" onSubmit={onSubmit} noValidate aria-label="Invite a person" className="card grid gap-4 p-5 sm:grid-cols-2 [&>fieldset>*]:min-w-0 [&_.input]:w-full [&_.input]:min-w-0">
+    <IslandForm
+      method="post"
+      onSubmit={onSubmit}
+      noValidate
+      aria-label="Invite a person"
+      className="card grid gap-4 p-5 sm:grid-cols-2 [&>fieldset>*]:min-w-0 [&_.input]:w-full [&_.input]:min-w-0"
+    >
       <Field label="Name" autoComplete="off" registration={register("name")} error={formState.errors.name?.message} />
-      <Field label="E-mail address" type="email" autoComplete="off" registration={register("email")} error={formState.errors.email?.message} />
+      <Field
+        label="E-mail address"
+        type="email"
+        autoComplete="off"
+        registration={register("email")}
+        error={formState.errors.email?.message}
+      />
       <SelectField label="Role" registration={register("role")} options={roleOptions(actorRole)} error={formState.errors.role?.message} />
       {role === "client" ? (
         <SelectField
@@ -96,7 +125,19 @@ function InviteForm({ clients, actorRole, onInvited }: { clients: ClientOption[]
   );
 }
 
-function RoleEditor({ user, clients, actorRole, onDone, onCancel }: { user: UserRow; clients: ClientOption[]; actorRole: Role; onDone: (u: UserRow) => Promise<void>; onCancel: () => void }) {
+function RoleEditor({
+  user,
+  clients,
+  actorRole,
+  onDone,
+  onCancel,
+}: {
+  user: UserRow;
+  clients: ClientOption[];
+  actorRole: Role;
+  onDone: (u: UserRow) => Promise<void>;
+  onCancel: () => void;
+}) {
   const [role, setRole] = useState<Role>(user.role);
   const [clientId, setClientId] = useState<string>(user.clientId ? String(user.clientId) : "");
   const [problem, setProblem] = useState<string | null>(null);
@@ -106,7 +147,11 @@ function RoleEditor({ user, clients, actorRole, onDone, onCancel }: { user: User
     setProblem(null);
     setBusy(true);
     try {
-      const { user: updated } = await postJson<{ user: UserRow }>(`/api/users/${user.id}`, { role, clientId: role === "client" ? clientId : null }, "PATCH");
+      const { user: updated } = await postJson<{ user: UserRow }>(
+        `/api/users/${user.id}`,
+        { role, clientId: role === "client" ? clientId : null },
+        "PATCH",
+      );
       await onDone(updated);
     } catch (error) {
       setProblem(error instanceof Error ? error.message : String(error));
@@ -121,7 +166,9 @@ function RoleEditor({ user, clients, actorRole, onDone, onCancel }: { user: User
         <label htmlFor={`role-${user.id}`}>New role</label>
         <select id={`role-${user.id}`} className="input" value={role} onChange={(e) => setRole(e.target.value as Role)}>
           {roleOptions(actorRole).map((o) => (
-            <option key={o.value} value={o.value}>{o.label}</option>
+            <option key={o.value} value={o.value}>
+              {o.label}
+            </option>
           ))}
         </select>
       </div>
@@ -131,15 +178,27 @@ function RoleEditor({ user, clients, actorRole, onDone, onCancel }: { user: User
           <select id={`client-${user.id}`} className="input" value={clientId} onChange={(e) => setClientId(e.target.value)}>
             <option value="">Choose…</option>
             {clients.map((c) => (
-              <option key={c.id} value={c.id}>{c.name}</option>
+              <option key={c.id} value={c.id}>
+                {c.name}
+              </option>
             ))}
           </select>
         </div>
       )}
-      <button className="btn" type="button" onClick={save} disabled={busy}>Save role</button>
-      <button className="btn btn-quiet" type="button" onClick={onCancel}>Cancel</button>
-      <p className="w-full text-xs text-[var(--color-muted)]">Changing the role signs {user.name} out everywhere, so the new role applies at once.</p>
-      {problem && <p className="notice notice-danger w-full" role="alert">{problem}</p>}
+      <button className="btn" type="button" onClick={save} disabled={busy}>
+        Save role
+      </button>
+      <button className="btn btn-quiet" type="button" onClick={onCancel}>
+        Cancel
+      </button>
+      <p className="w-full text-xs text-[var(--color-muted)]">
+        Changing the role signs {user.name} out everywhere, so the new role applies at once.
+      </p>
+      {problem && (
+        <p className="notice notice-danger w-full" role="alert">
+          {problem}
+        </p>
+      )}
     </div>
   );
 }
@@ -188,7 +247,10 @@ export default function UsersAdmin({ users: initial, clients, actor }: Props) {
         </div>
         {inviting && <InviteForm clients={clients} actorRole={actor.role} onInvited={(text, warning) => reload(text, warning)} />}
         {notice && (
-          <p className={notice.warning ? "notice notice-danger" : "notice border-l-[var(--color-ok)] bg-[var(--color-ok-wash)]"} role="status">
+          <p
+            className={notice.warning ? "notice notice-danger" : "notice border-l-[var(--color-ok)] bg-[var(--color-ok-wash)]"}
+            role="status"
+          >
             {notice.text}
           </p>
         )}
@@ -204,11 +266,15 @@ export default function UsersAdmin({ users: initial, clients, actor }: Props) {
                       onClick={() => setSort({ key: c.key, ascending: sort.key === c.key ? !sort.ascending : true })}
                     >
                       {c.label}
-                      <span aria-hidden="true" className="text-[0.7rem]">{sort.key === c.key ? (sort.ascending ? "▲" : "▼") : "↕"}</span>
+                      <span aria-hidden="true" className="text-[0.7rem]">
+                        {sort.key === c.key ? (sort.ascending ? "▲" : "▼") : "↕"}
+                      </span>
                     </button>
                   </th>
                 ))}
-                <th><span className="sr-only">Actions</span></th>
+                <th>
+                  <span className="sr-only">Actions</span>
+                </th>
               </tr>
             </thead>
             <tbody>
@@ -227,7 +293,9 @@ export default function UsersAdmin({ users: initial, clients, actor }: Props) {
                     {stateOf(u) === "invited" && <span className="tag tag-amber">invited</span>}
                     {stateOf(u) === "deactivated" && <span className="tag tag-muted">deactivated</span>}
                   </td>
-                  <td className="whitespace-nowrap">{u.lastSignInAt ? formatDateTime(u.lastSignInAt) : <span className="text-[var(--color-muted)]">never</span>}</td>
+                  <td className="whitespace-nowrap">
+                    {u.lastSignInAt ? formatDateTime(u.lastSignInAt) : <span className="text-[var(--color-muted)]">never</span>}
+                  </td>
                   <td className="min-w-[21rem]">
                     {mayChange(u) && editing === u.id ? (
                       <RoleEditor
@@ -237,7 +305,9 @@ export default function UsersAdmin({ users: initial, clients, actor }: Props) {
                         onCancel={() => setEditing(null)}
                         onDone={async (updated) => {
                           setEditing(null);
-                          await reload(`${updated.name} is now ${ROLE_LABELS[updated.role]}${updated.clientName ? ` of ${updated.clientName}` : ""}.`);
+                          await reload(
+                            `${updated.name} is now ${ROLE_LABELS[updated.role]}${updated.clientName ? ` of ${updated.clientName}` : ""}.`,
+                          );
                         }}
                       />
                     ) : mayChange(u) && confirming === u.id ? (
@@ -248,23 +318,71 @@ export default function UsersAdmin({ users: initial, clients, actor }: Props) {
                           type="button"
                           onClick={() => {
                             setConfirming(null);
-                            void act(u, () => postJson(`/api/users/${u.id}`, { active: false }, "PATCH"), `${u.name} is deactivated and signed out.`);
+                            void act(
+                              u,
+                              () => postJson(`/api/users/${u.id}`, { active: false }, "PATCH"),
+                              `${u.name} is deactivated and signed out.`,
+                            );
                           }}
                         >
                           Yes, deactivate
                         </button>
-                        <button className="btn btn-quiet" type="button" onClick={() => setConfirming(null)}>Keep</button>
+                        <button className="btn btn-quiet" type="button" onClick={() => setConfirming(null)}>
+                          Keep
+                        </button>
                       </div>
                     ) : mayChange(u) ? (
                       <div className="flex flex-wrap gap-1.5">
-                        {u.active && <button className={SMALL} type="button" onClick={() => { setConfirming(null); setEditing(u.id); }} aria-label={`Change role of ${u.name}`}>Change role</button>}
+                        {u.active && (
+                          <button
+                            className={SMALL}
+                            type="button"
+                            onClick={() => {
+                              setConfirming(null);
+                              setEditing(u.id);
+                            }}
+                            aria-label={`Change role of ${u.name}`}
+                          >
+                            Change role
+                          </button>
+                        )}
                         {u.active ? (
-                          <button className={SMALL} type="button" onClick={() => { setEditing(null); setConfirming(u.id); }} aria-label={`Deactivate ${u.name}`}>Deactivate</button>
+                          <button
+                            className={SMALL}
+                            type="button"
+                            onClick={() => {
+                              setEditing(null);
+                              setConfirming(u.id);
+                            }}
+                            aria-label={`Deactivate ${u.name}`}
+                          >
+                            Deactivate
+                          </button>
                         ) : (
-                          <button className={SMALL} type="button" onClick={() => void act(u, () => postJson(`/api/users/${u.id}`, { active: true }, "PATCH"), `${u.name} is active again.`)} aria-label={`Reactivate ${u.name}`}>Reactivate</button>
+                          <button
+                            className={SMALL}
+                            type="button"
+                            onClick={() =>
+                              void act(u, () => postJson(`/api/users/${u.id}`, { active: true }, "PATCH"), `${u.name} is active again.`)
+                            }
+                            aria-label={`Reactivate ${u.name}`}
+                          >
+                            Reactivate
+                          </button>
                         )}
                         {u.active && (
-                          <button className={SMALL} type="button" onClick={() => void act(u, () => postJson(`/api/users/${u.id}/link`, {}), u.invited ? `A new invitation is on its way to ${u.email}.` : `A reset link is on its way to ${u.email}.`)} aria-label={`Send ${u.name} a new link`}>
+                          <button
+                            className={SMALL}
+                            type="button"
+                            onClick={() =>
+                              void act(
+                                u,
+                                () => postJson(`/api/users/${u.id}/link`, {}),
+                                u.invited ? `A new invitation is on its way to ${u.email}.` : `A reset link is on its way to ${u.email}.`,
+                              )
+                            }
+                            aria-label={`Send ${u.name} a new link`}
+                          >
                             {u.invited ? "Resend invitation" : "Send reset link"}
                           </button>
                         )}

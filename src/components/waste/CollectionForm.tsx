@@ -19,10 +19,21 @@ export default function CollectionForm({ pickupId, reference }: { pickupId: numb
   });
   return (
     <IslandForm onSubmit={onSubmit} noValidate className="flex flex-wrap items-end gap-3" aria-label={`Record collection of ${reference}`}>
-      <Field label="Manifest or reference number" registration={register("manifestRef")} error={formState.errors.manifestRef?.message} maxLength={64} />
+      <Field
+        label="Manifest or reference number"
+        registration={register("manifestRef")}
+        error={formState.errors.manifestRef?.message}
+        maxLength={64}
+      />
       <Field label="Note (optional)" registration={register("note")} error={formState.errors.note?.message} maxLength={255} />
-      <button className="btn" type="submit" disabled={formState.isSubmitting}>{formState.isSubmitting ? "Saving…" : "Record collection"}</button>
-      {problem && <p className="notice notice-danger w-full" role="alert">{problem}</p>}
+      <button className="btn" type="submit" disabled={formState.isSubmitting}>
+        {formState.isSubmitting ? "Saving…" : "Record collection"}
+      </button>
+      {problem && (
+        <p className="notice notice-danger w-full" role="alert">
+          {problem}
+        </p>
+      )}
     </IslandForm>
   );
 }

@@ -12,7 +12,10 @@ export default function ReadingForm({ containerId, estimated_mL }: { containerId
   const onSubmit = handleSubmit(async (values) => {
     setProblem(null);
     try {
-      const r = await postJson<{ estimatedBefore_mL: number; difference_mL: number }>(`/api/waste/containers/${containerId}/readings`, { ...values, note: values.note || null });
+      const r = await postJson<{ estimatedBefore_mL: number; difference_mL: number }>(`/api/waste/containers/${containerId}/readings`, {
+        ...values,
+        note: values.note || null,
+      });
       const sign = r.difference_mL > 0 ? "+" : "";
       setResult(`Reading kept. Estimate before: ${r.estimatedBefore_mL} mL; difference ${sign}${r.difference_mL} mL.`);
       reset({ note: null });
@@ -23,12 +26,31 @@ export default function ReadingForm({ containerId, estimated_mL }: { containerId
   });
   return (
     <IslandForm onSubmit={onSubmit} noValidate className="flex flex-col gap-3" aria-label="Record a level reading">
-      <Field label="Level read off the container (mL)" type="number" inputMode="decimal" step="any" min={0} registration={register("level_mL")} error={formState.errors.level_mL?.message} hint={`Decant's estimate now: ${Math.round(estimated_mL)} mL`} />
+      <Field
+        label="Level read off the container (mL)"
+        type="number"
+        inputMode="decimal"
+        step="any"
+        min={0}
+        registration={register("level_mL")}
+        error={formState.errors.level_mL?.message}
+        hint={`Decant's estimate now: ${Math.round(estimated_mL)} mL`}
+      />
       <Field label="Note (optional)" registration={register("note")} error={formState.errors.note?.message} maxLength={255} />
-      {problem && <p className="notice notice-danger" role="alert">{problem}</p>}
-      {result && <p className="notice" role="status">{result}</p>}
+      {problem && (
+        <p className="notice notice-danger" role="alert">
+          {problem}
+        </p>
+      )}
+      {result && (
+        <p className="notice" role="status">
+          {result}
+        </p>
+      )}
       <div>
-        <button className="btn" type="submit" disabled={formState.isSubmitting}>{formState.isSubmitting ? "Saving…" : "Record reading"}</button>
+        <button className="btn" type="submit" disabled={formState.isSubmitting}>
+          {formState.isSubmitting ? "Saving…" : "Record reading"}
+        </button>
       </div>
     </IslandForm>
   );

@@ -22,7 +22,11 @@ export default function StatusButtons({ containerId, status }: { containerId: nu
       <button type="button" className="btn btn-quiet text-sm" disabled={busy} onClick={change}>
         {next === "full" ? "Mark full (takes no more waste)" : "Put back in use"}
       </button>
-      {problem && <p className="field-error" role="alert">{problem}</p>}
+      {problem && (
+        <p className="field-error" role="alert">
+          {problem}
+        </p>
+      )}
     </div>
   );
 }

@@ -11,7 +11,14 @@ type FormValues = z.infer<typeof formSchema>;
 
 interface Props {
   /** Editing this stream; creating one when absent. */
-  stream?: { id: string; name: string; description: string | null; restrictiveness: number; minShare_percent: number | null; alsoAccepts: readonly string[] | null };
+  stream?: {
+    id: string;
+    name: string;
+    description: string | null;
+    restrictiveness: number;
+    minShare_percent: number | null;
+    alsoAccepts: readonly string[] | null;
+  };
   defaults?: { minShare_percent: number; alsoAccepts: readonly string[] } | null;
 }
 
@@ -28,8 +35,17 @@ export default function StreamForm({ stream, defaults = null }: Props) {
   const onSubmit = handleSubmit(async (values) => {
     setProblem(null);
     setSaved(false);
-    const list = values.alsoAccepts.split(",").map((s) => s.trim()).filter(Boolean);
-    const body = { name: values.name, description: values.description || null, restrictiveness: values.restrictiveness, minShare_percent: values.minShare_percent, alsoAccepts: list.length || !defaults ? list : null };
+    const list = values.alsoAccepts
+      .split(",")
+      .map((s) => s.trim())
+      .filter(Boolean);
+    const body = {
+      name: values.name,
+      description: values.description || null,
+      restrictiveness: values.restrictiveness,
+      minShare_percent: values.minShare_percent,
+      alsoAccepts: list.length || !defaults ? list : null,
+    };
     try {
       if (stream) await postJson(`/api/waste/streams/${stream.id}`, body, "PUT");
       else await postJson("/api/waste/streams", { id: values.id, ...body });
@@ -41,10 +57,22 @@ export default function StreamForm({ stream, defaults = null }: Props) {
   });
   const e = formState.errors;
   return (
-    <IslandForm onSubmit={onSubmit} noValidate className="grid gap-3 md:grid-cols-2" aria-label={stream ? `Edit ${stream.name}` : "New stream"}>
+    <IslandForm
+      onSubmit={onSubmit}
+      noValidate
+      className="grid gap-3 md:grid-cols-2"
+      aria-label={stream ? `Edit ${stream.name}` : "New stream"}
+    >
       {!stream && <Field label="Id" registration={register("id")} error={e.id?.message} placeholder="e.g. heavy-metal-aqueous" />}
       <Field label="Name" registration={register("name")} error={e.name?.message} />
-      <Field label="Restrictiveness (higher wins)" type="number" step={1} min={0} registration={register("restrictiveness")} error={e.restrictiveness?.message} />
+      <Field
+        label="Restrictiveness (higher wins)"
+        type="number"
+        step={1}
+        min={0}
+        registration={register("restrictiveness")}
+        error={e.restrictiveness?.message}
+      />
       <Field
         label="Reached from share of the mix (%)"
         type="number"
@@ -65,10 +93,20 @@ export default function StreamForm({ stream, defaults = null }: Props) {
         <label htmlFor={`desc-${stream?.id ?? "new"}`}>Description</label>
         <textarea id={`desc-${stream?.id ?? "new"}`} className="input" rows={2} {...register("description", { setValueAs: orNull })} />
       </div>
-      {problem && <p className="notice notice-danger md:col-span-2" role="alert">{problem}</p>}
+      {problem && (
+        <p className="notice notice-danger md:col-span-2" role="alert">
+          {problem}
+        </p>
+      )}
       <div className="flex items-center gap-3 md:col-span-2">
-        <button className="btn" type="submit" disabled={formState.isSubmitting}>{formState.isSubmitting ? "Saving…" : stream ? "Save stream" : "Add stream"}</button>
-        {saved && <span className="text-sm text-[var(--color-ok)]" role="status">Saved.</span>}
+        <button className="btn" type="submit" disabled={formState.isSubmitting}>
+          {formState.isSubmitting ? "Saving…" : stream ? "Save stream" : "Add stream"}
+        </button>
+        {saved && (
+          <span className="text-sm text-[var(--color-ok)]" role="status">
+            Saved.
+          </span>
+        )}
       </div>
     </IslandForm>
   );

@@ -8,11 +8,22 @@ export async function up({ context: qi }: MigrationParams<QueryInterface>) {
   await qi.addColumn("batches", "deviation_reason", { type: DataTypes.STRING(500) });
   await qi.addColumn("batches", "expiry_reason", { type: DataTypes.STRING(300) });
   await qi.addColumn("stock_lots", "certificate_size", { type: DataTypes.INTEGER.UNSIGNED });
-  await qi.addColumn("stock_lots", "created_by", { type: DataTypes.INTEGER.UNSIGNED, references: { model: "users", key: "id" }, onDelete: "SET NULL", onUpdate: "CASCADE" });
+  await qi.addColumn("stock_lots", "created_by", {
+    type: DataTypes.INTEGER.UNSIGNED,
+    references: { model: "users", key: "id" },
+    onDelete: "SET NULL",
+    onUpdate: "CASCADE",
+  });
 
   await qi.createTable("batch_bottles", {
     id: { type: DataTypes.INTEGER.UNSIGNED, autoIncrement: true, primaryKey: true },
-    batch_id: { type: DataTypes.INTEGER.UNSIGNED, allowNull: false, references: { model: "batches", key: "id" }, onDelete: "CASCADE", onUpdate: "CASCADE" },
+    batch_id: {
+      type: DataTypes.INTEGER.UNSIGNED,
+      allowNull: false,
+      references: { model: "batches", key: "id" },
+      onDelete: "CASCADE",
+      onUpdate: "CASCADE",
+    },
     number: { type: DataTypes.INTEGER.UNSIGNED, allowNull: false },
     status: { type: DataTypes.ENUM("ready", "in_use", "empty", "discarded"), allowNull: false, defaultValue: "ready" },
     discarded_ml: { type: DataTypes.DECIMAL(14, 4) },

@@ -16,7 +16,13 @@ export async function up({ context: qi }: MigrationParams<QueryInterface>) {
 
   await qi.createTable("waste_alerts", {
     id: { type: DataTypes.INTEGER.UNSIGNED, autoIncrement: true, primaryKey: true },
-    container_id: { type: DataTypes.INTEGER.UNSIGNED, allowNull: false, references: { model: "waste_containers", key: "id" }, onDelete: "CASCADE", onUpdate: "CASCADE" },
+    container_id: {
+      type: DataTypes.INTEGER.UNSIGNED,
+      allowNull: false,
+      references: { model: "waste_containers", key: "id" },
+      onDelete: "CASCADE",
+      onUpdate: "CASCADE",
+    },
     kind: { type: DataTypes.ENUM("near-full", "over-capacity", "accumulation-approaching", "accumulation-over"), allowNull: false },
     // One alert of a kind per accumulation cycle of the container (its accumulation start, ISO).
     cycle: { type: DataTypes.STRING(32), allowNull: false },
@@ -28,7 +34,11 @@ export async function up({ context: qi }: MigrationParams<QueryInterface>) {
 
   await qi.addColumn("pickups", "note", { type: DataTypes.STRING(255), allowNull: true });
   await qi.addColumn("pickups", "recorded_by", {
-    type: DataTypes.INTEGER.UNSIGNED, allowNull: true, references: { model: "users", key: "id" }, onDelete: "SET NULL", onUpdate: "CASCADE",
+    type: DataTypes.INTEGER.UNSIGNED,
+    allowNull: true,
+    references: { model: "users", key: "id" },
+    onDelete: "SET NULL",
+    onUpdate: "CASCADE",
   });
   await qi.addIndex("waste_readings", ["container_id", "read_at"], { name: "waste_readings_container_read" });
 }
@@ -38,7 +48,9 @@ export async function down({ context: qi }: MigrationParams<QueryInterface>) {
   await qi.removeColumn("pickups", "recorded_by");
   await qi.removeColumn("pickups", "note");
   await qi.dropTable("waste_alerts");
-  await qi.sequelize.query("DELETE FROM waste_streams WHERE id = 'basic-corrosive' AND NOT EXISTS (SELECT 1 FROM waste_containers WHERE stream_id = 'basic-corrosive')");
+  await qi.sequelize.query(
+    "DELETE FROM waste_streams WHERE id = 'basic-corrosive' AND NOT EXISTS (SELECT 1 FROM waste_containers WHERE stream_id = 'basic-corrosive')",
+  );
   await qi.removeColumn("waste_streams", "also_accepts");
   await qi.removeColumn("waste_streams", "min_share_percent");
 }

@@ -11,23 +11,88 @@ export async function up({ context: qi }: MigrationParams<QueryInterface>) {
   const day = (offset: number) => new Date(now.getTime() + offset * DAY).toISOString().slice(0, 10);
   const stamp = { created_at: now, updated_at: now };
   await qi.bulkInsert("stock_lots", [
-    { reagent_id: "ammonium-acetate", lot_number: "AA-3307", supplier: "Pellworth Reagents", grade: "LC-MS", received_on: day(-400), opened_on: day(-380), expires_on: day(-10), quantity: 250, remaining: 180, room: "B2.16", ...stamp },
-    { reagent_id: "phosphoric-acid", lot_number: "PA-5120", supplier: "Pellworth Reagents", grade: "analytical", received_on: day(-30), opened_on: day(-28), expires_on: day(900), quantity: 500, remaining: 455, room: "B2.16", ...stamp },
-    { reagent_id: "potassium-dihydrogen-phosphate", lot_number: "KP-8120", supplier: "Pellworth Reagents", grade: "analytical", received_on: day(-12), expires_on: day(1000), quantity: 500, remaining: 500, room: "B2.16", ...stamp },
-    { reagent_id: "methanol", lot_number: "ME-12044", supplier: "Northfold Chemicals", grade: "LC-MS", received_on: day(-20), expires_on: day(700), quantity: 4_000, remaining: 300, room: "B2.14", ...stamp },
+    {
+      reagent_id: "ammonium-acetate",
+      lot_number: "AA-3307",
+      supplier: "Pellworth Reagents",
+      grade: "LC-MS",
+      received_on: day(-400),
+      opened_on: day(-380),
+      expires_on: day(-10),
+      quantity: 250,
+      remaining: 180,
+      room: "B2.16",
+      ...stamp,
+    },
+    {
+      reagent_id: "phosphoric-acid",
+      lot_number: "PA-5120",
+      supplier: "Pellworth Reagents",
+      grade: "analytical",
+      received_on: day(-30),
+      opened_on: day(-28),
+      expires_on: day(900),
+      quantity: 500,
+      remaining: 455,
+      room: "B2.16",
+      ...stamp,
+    },
+    {
+      reagent_id: "potassium-dihydrogen-phosphate",
+      lot_number: "KP-8120",
+      supplier: "Pellworth Reagents",
+      grade: "analytical",
+      received_on: day(-12),
+      expires_on: day(1000),
+      quantity: 500,
+      remaining: 500,
+      room: "B2.16",
+      ...stamp,
+    },
+    {
+      reagent_id: "methanol",
+      lot_number: "ME-12044",
+      supplier: "Northfold Chemicals",
+      grade: "LC-MS",
+      received_on: day(-20),
+      expires_on: day(700),
+      quantity: 4_000,
+      remaining: 300,
+      room: "B2.14",
+      ...stamp,
+    },
   ]);
 
   const taken = (await qi.sequelize.query<{ code: string }>("SELECT code FROM batches", { type: QueryTypes.SELECT })).map((r) => r.code);
   const batch = async (recipeVersionId: number, preparedAt: Date, expiresAt: Date, volume: number, status: string, ph: number | null) => {
     const code = nextBatchCode(batchCodeBase(preparedAt), taken);
     taken.push(code);
-    await qi.bulkInsert("batches", [{
-      code, recipe_version_id: recipeVersionId, spec_snapshot: JSON.stringify({ recipeVersionId }), volume_ml: volume, remaining_ml: volume,
-      bottles: volume / 1000, bottle_size_ml: 1000, temperature_c: 22, measured_ph: ph, prepared_by: 3, prepared_at: preparedAt, expires_at: expiresAt,
-      status, expiry_reason: "Demo data", created_at: preparedAt, updated_at: preparedAt,
-    }]);
-    const [row] = await qi.sequelize.query<{ id: number }>("SELECT id FROM batches WHERE code = ?", { type: QueryTypes.SELECT, replacements: [code] });
-    for (let n = 1; n <= volume / 1000; n++) await qi.bulkInsert("batch_bottles", [{ batch_id: row!.id, number: n, status, created_at: preparedAt, updated_at: preparedAt }]);
+    await qi.bulkInsert("batches", [
+      {
+        code,
+        recipe_version_id: recipeVersionId,
+        spec_snapshot: JSON.stringify({ recipeVersionId }),
+        volume_ml: volume,
+        remaining_ml: volume,
+        bottles: volume / 1000,
+        bottle_size_ml: 1000,
+        temperature_c: 22,
+        measured_ph: ph,
+        prepared_by: 3,
+        prepared_at: preparedAt,
+        expires_at: expiresAt,
+        status,
+        expiry_reason: "Demo data",
+        created_at: preparedAt,
+        updated_at: preparedAt,
+      },
+    ]);
+    const [row] = await qi.sequelize.query<{ id: number }>("SELECT id FROM batches WHERE code = ?", {
+      type: QueryTypes.SELECT,
+      replacements: [code],
+    });
+    for (let n = 1; n <= volume / 1000; n++)
+      await qi.bulkInsert("batch_bottles", [{ batch_id: row!.id, number: n, status, created_at: preparedAt, updated_at: preparedAt }]);
   };
   // Acidified water, a week's life: due within the next day.
   const dueAt = new Date(now.getTime() - 6.6 * DAY);

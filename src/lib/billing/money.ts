@@ -26,7 +26,12 @@ export function minorDigits(currency: string): number {
 export function formatMoney(money: Money, locale = "en-GB"): string {
   if (!Number.isInteger(money.amount)) throw new RangeError(`Money amounts are integer minor units, got ${money.amount}`);
   const digits = minorDigits(money.currency);
-  return numberFormat(locale, { style: "currency", currency: money.currency, minimumFractionDigits: digits, maximumFractionDigits: digits }).format(money.amount / 10 ** digits);
+  return numberFormat(locale, {
+    style: "currency",
+    currency: money.currency,
+    minimumFractionDigits: digits,
+    maximumFractionDigits: digits,
+  }).format(money.amount / 10 ** digits);
 }
 
 /** Adds amounts of one currency; mixing currencies is a programming error. */

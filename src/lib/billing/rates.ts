@@ -109,14 +109,24 @@ export interface CostResult {
 }
 
 /** Costs lines at the rates in force at each line's time; rounds once, on the total. */
-export function costLines(lines: readonly CostLine[], rates: readonly Rate[], options: { priceList: PriceList; currency: string }): CostResult {
+export function costLines(
+  lines: readonly CostLine[],
+  rates: readonly Rate[],
+  options: { priceList: PriceList; currency: string },
+): CostResult {
   let exact = 0n;
   const uncosted = new Set<string>();
   for (const line of lines) {
     const hasVolume = line.volume_mL != null && toMicro(line.volume_mL) !== 0n;
     const hasMass = line.mass_g != null && toMicro(line.mass_g) !== 0n;
     if (!hasVolume && !hasMass) continue;
-    const rate = rateInForce(rates, { kind: "reagent", reagentId: line.reagentId, priceList: options.priceList, currency: options.currency, at: line.at });
+    const rate = rateInForce(rates, {
+      kind: "reagent",
+      reagentId: line.reagentId,
+      priceList: options.priceList,
+      currency: options.currency,
+      at: line.at,
+    });
     const cost = rate ? exactCost(hasMass && rate.unit === "g" ? { mass_g: line.mass_g } : { volume_mL: line.volume_mL }, rate) : null;
     if (cost === null) uncosted.add(line.reagentId);
     else exact += cost;

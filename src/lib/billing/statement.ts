@@ -63,7 +63,10 @@ export interface StatementComputation {
  * The rate for an entry: a grade-specific rate in force wins over the reagent's general rate;
  * otherwise the general rate in force (see `rateInForce`). Fees have no grade.
  */
-export function gradeRateInForce(rates: readonly Rate[], query: { kind: RateKind; reagentId: string | null; grade: string | null; priceList: PriceList; currency: string; day: string }): Rate | null {
+export function gradeRateInForce(
+  rates: readonly Rate[],
+  query: { kind: RateKind; reagentId: string | null; grade: string | null; priceList: PriceList; currency: string; day: string },
+): Rate | null {
   if (query.grade) {
     let best: Rate | null = null;
     for (const rate of rates) {
@@ -73,7 +76,13 @@ export function gradeRateInForce(rates: readonly Rate[], query: { kind: RateKind
     }
     if (best) return best;
   }
-  return rateInForce(rates, { kind: query.kind, reagentId: query.reagentId, priceList: query.priceList, currency: query.currency, at: query.day });
+  return rateInForce(rates, {
+    kind: query.kind,
+    reagentId: query.reagentId,
+    priceList: query.priceList,
+    currency: query.currency,
+    at: query.day,
+  });
 }
 
 /** 12345600n (10⁻⁶) → "12.3456"; trailing zeros dropped. */
@@ -110,7 +119,14 @@ export function buildStatement(input: {
     const volume = toMicro(row.volume_mL ?? 0);
     const mass = row.mass_g == null ? 0n : toMicro(row.mass_g);
     if (volume === 0n && mass === 0n) continue;
-    const rate = gradeRateInForce(rates, { kind: "reagent", reagentId: row.reagentId, grade: row.grade, priceList, currency, day: row.day });
+    const rate = gradeRateInForce(rates, {
+      kind: "reagent",
+      reagentId: row.reagentId,
+      grade: row.grade,
+      priceList,
+      currency,
+      day: row.day,
+    });
     const byMass = rate ? rate.unit === "g" : mass !== 0n && volume === 0n;
     const quantity = byMass ? mass : volume;
     if (quantity === 0n) continue;
@@ -139,7 +155,10 @@ export function buildStatement(input: {
     groups.set(key, group);
   }
 
-  const fees: [Exclude<RateKind, "reagent">, readonly CountRow[] | undefined][] = [["preparation_fee", input.preparations], ["injection_fee", input.injections]];
+  const fees: [Exclude<RateKind, "reagent">, readonly CountRow[] | undefined][] = [
+    ["preparation_fee", input.preparations],
+    ["injection_fee", input.injections],
+  ];
   for (const [kind, rows] of fees) {
     for (const row of rows ?? []) {
       if (!row.count) continue;
@@ -239,7 +258,21 @@ export interface StatementHeader {
   currency: string;
 }
 
-export const STATEMENT_CSV_COLUMNS = ["statement", "client", "period_start", "period_end", "project_code", "project_name", "item", "quantity", "quantity_unit", "unit_price", "price_per", "amount", "currency"] as const;
+export const STATEMENT_CSV_COLUMNS = [
+  "statement",
+  "client",
+  "period_start",
+  "period_end",
+  "project_code",
+  "project_name",
+  "item",
+  "quantity",
+  "quantity_unit",
+  "unit_price",
+  "price_per",
+  "amount",
+  "currency",
+] as const;
 
 /** One row per statement line; amounts as plain decimals in the statement's currency. */
 export function statementCsv(header: StatementHeader, lines: readonly StatementLine[]): string {
@@ -269,7 +302,16 @@ export interface JournalStatement extends StatementHeader {
   lines: readonly StatementLine[];
 }
 
-export const JOURNAL_CSV_COLUMNS = ["cost_centre", "project_code", "amount", "currency", "period_start", "period_end", "reference", "description"] as const;
+export const JOURNAL_CSV_COLUMNS = [
+  "cost_centre",
+  "project_code",
+  "amount",
+  "currency",
+  "period_start",
+  "period_end",
+  "reference",
+  "description",
+] as const;
 
 /** The chargeback journal for the finance office: one row per cost centre and project. */
 export function journalCsv(statements: readonly JournalStatement[]): string {

@@ -3,20 +3,20 @@
  * enthalpy and heat-capacity change of each dissociation step where published,
  * and the temperature correction (van 't Hoff with ΔCp°).
  */
-import type { SourceKey } from './sources';
-import { celsiusToKelvin } from './units';
+import type { SourceKey } from "./sources";
+import { celsiusToKelvin } from "./units";
 
 export type AcidSystemId =
-  | 'phosphate'
-  | 'formate'
-  | 'acetate'
-  | 'citrate'
-  | 'ammonium'
-  | 'carbonate'
-  | 'tris'
-  | 'borate'
-  | 'phthalate'
-  | 'tartrate';
+  | "phosphate"
+  | "formate"
+  | "acetate"
+  | "citrate"
+  | "ammonium"
+  | "carbonate"
+  | "tris"
+  | "borate"
+  | "phthalate"
+  | "tartrate";
 
 export interface AcidSystem {
   id: AcidSystemId;
@@ -40,56 +40,122 @@ const sys = (s: AcidSystem): AcidSystem => Object.freeze(s);
 
 export const ACID_SYSTEMS: Readonly<Record<AcidSystemId, AcidSystem>> = Object.freeze({
   phosphate: sys({
-    id: 'phosphate', name: 'phosphoric acid', z0: 0,
-    species: ['H3PO4', 'H2PO4-', 'HPO4^2-', 'PO4^3-'],
-    pKa25: [2.148, 7.198, 12.35], dH_kJ_mol: [-8.0, 3.6, 16.0], dCp_J_K_mol: [-141, -230, -242],
+    id: "phosphate",
+    name: "phosphoric acid",
+    z0: 0,
+    species: ["H3PO4", "H2PO4-", "HPO4^2-", "PO4^3-"],
+    pKa25: [2.148, 7.198, 12.35],
+    dH_kJ_mol: [-8.0, 3.6, 16.0],
+    dCp_J_K_mol: [-141, -230, -242],
     volatile: false,
-    source: { pKa: 'GKL02', thermo: 'GKL02', note: 'Powell et al. 2005 give 2.14 / 7.20 / 12.37' },
+    source: { pKa: "GKL02", thermo: "GKL02", note: "Powell et al. 2005 give 2.14 / 7.20 / 12.37" },
   }),
   formate: sys({
-    id: 'formate', name: 'formic acid', z0: 0, species: ['HCOOH', 'HCOO-'],
-    pKa25: [3.745], dH_kJ_mol: [0], dCp_J_K_mol: [null], volatile: true,
-    source: { pKa: 'NIST46', note: 'CRC lists 3.75 (from memory); ΔH° taken as about 0 (from memory, not in the sources seen)' },
+    id: "formate",
+    name: "formic acid",
+    z0: 0,
+    species: ["HCOOH", "HCOO-"],
+    pKa25: [3.745],
+    dH_kJ_mol: [0],
+    dCp_J_K_mol: [null],
+    volatile: true,
+    source: { pKa: "NIST46", note: "CRC lists 3.75 (from memory); ΔH° taken as about 0 (from memory, not in the sources seen)" },
   }),
   acetate: sys({
-    id: 'acetate', name: 'acetic acid', z0: 0, species: ['CH3COOH', 'CH3COO-'],
-    pKa25: [4.756], dH_kJ_mol: [-0.41], dCp_J_K_mol: [-142], volatile: true,
-    source: { pKa: 'Harris', thermo: 'GKL02', note: 'NIST 46 gives 4.757; sign of ΔH° from the Ka maximum near 22–23 °C' },
+    id: "acetate",
+    name: "acetic acid",
+    z0: 0,
+    species: ["CH3COOH", "CH3COO-"],
+    pKa25: [4.756],
+    dH_kJ_mol: [-0.41],
+    dCp_J_K_mol: [-142],
+    volatile: true,
+    source: { pKa: "Harris", thermo: "GKL02", note: "NIST 46 gives 4.757; sign of ΔH° from the Ka maximum near 22–23 °C" },
   }),
   citrate: sys({
-    id: 'citrate', name: 'citric acid', z0: 0, species: ['H3Cit', 'H2Cit-', 'HCit^2-', 'Cit^3-'],
-    pKa25: [3.128, 4.761, 6.396], dH_kJ_mol: [4.07, 2.23, -3.38], dCp_J_K_mol: [-131, -178, -254],
-    volatile: false, source: { pKa: 'GKL02', thermo: 'GKL02' },
+    id: "citrate",
+    name: "citric acid",
+    z0: 0,
+    species: ["H3Cit", "H2Cit-", "HCit^2-", "Cit^3-"],
+    pKa25: [3.128, 4.761, 6.396],
+    dH_kJ_mol: [4.07, 2.23, -3.38],
+    dCp_J_K_mol: [-131, -178, -254],
+    volatile: false,
+    source: { pKa: "GKL02", thermo: "GKL02" },
   }),
   ammonium: sys({
-    id: 'ammonium', name: 'ammonium', z0: 1, species: ['NH4+', 'NH3'],
-    pKa25: [9.245], dH_kJ_mol: [51.95], dCp_J_K_mol: [8], volatile: true,
-    source: { pKa: 'Harris', thermo: 'GKL02' },
+    id: "ammonium",
+    name: "ammonium",
+    z0: 1,
+    species: ["NH4+", "NH3"],
+    pKa25: [9.245],
+    dH_kJ_mol: [51.95],
+    dCp_J_K_mol: [8],
+    volatile: true,
+    source: { pKa: "Harris", thermo: "GKL02" },
   }),
   carbonate: sys({
-    id: 'carbonate', name: 'carbonic acid', z0: 0, species: ['H2CO3*', 'HCO3-', 'CO3^2-'],
-    pKa25: [6.352, 10.329], dH_kJ_mol: [9.16, 14.6], dCp_J_K_mol: [-371, -249], volatile: true,
-    source: { pKa: 'NIST46', thermo: 'NIST46', note: 'ΔCp° from Goldberg et al. 2002 (from memory), which gives 6.351 / 10.329 and ΔH° 9.15 / 14.70; closed system: loss of CO2 to air is not modelled' },
+    id: "carbonate",
+    name: "carbonic acid",
+    z0: 0,
+    species: ["H2CO3*", "HCO3-", "CO3^2-"],
+    pKa25: [6.352, 10.329],
+    dH_kJ_mol: [9.16, 14.6],
+    dCp_J_K_mol: [-371, -249],
+    volatile: true,
+    source: {
+      pKa: "NIST46",
+      thermo: "NIST46",
+      note: "ΔCp° from Goldberg et al. 2002 (from memory), which gives 6.351 / 10.329 and ΔH° 9.15 / 14.70; closed system: loss of CO2 to air is not modelled",
+    },
   }),
   tris: sys({
-    id: 'tris', name: 'Tris', z0: 1, species: ['TrisH+', 'Tris'],
-    pKa25: [8.072], dH_kJ_mol: [47.45], dCp_J_K_mol: [-59], volatile: false,
-    source: { pKa: 'GKL02', thermo: 'GKL02' },
+    id: "tris",
+    name: "Tris",
+    z0: 1,
+    species: ["TrisH+", "Tris"],
+    pKa25: [8.072],
+    dH_kJ_mol: [47.45],
+    dCp_J_K_mol: [-59],
+    volatile: false,
+    source: { pKa: "GKL02", thermo: "GKL02" },
   }),
   borate: sys({
-    id: 'borate', name: 'boric acid', z0: 0, species: ['B(OH)3', 'B(OH)4-'],
-    pKa25: [9.236], dH_kJ_mol: [13.8], dCp_J_K_mol: [-240], volatile: false,
-    source: { pKa: 'NIST46', thermo: 'GKL02', note: 'Goldberg et al. 2002 give 9.237 (from memory); NIST 46 gives ΔH° 13 kJ/mol; polyborates neglected (fine below about 0.025 mol/L boron)' },
+    id: "borate",
+    name: "boric acid",
+    z0: 0,
+    species: ["B(OH)3", "B(OH)4-"],
+    pKa25: [9.236],
+    dH_kJ_mol: [13.8],
+    dCp_J_K_mol: [-240],
+    volatile: false,
+    source: {
+      pKa: "NIST46",
+      thermo: "GKL02",
+      note: "Goldberg et al. 2002 give 9.237 (from memory); NIST 46 gives ΔH° 13 kJ/mol; polyborates neglected (fine below about 0.025 mol/L boron)",
+    },
   }),
   phthalate: sys({
-    id: 'phthalate', name: 'phthalic acid', z0: 0, species: ['H2Phth', 'HPhth-', 'Phth^2-'],
-    pKa25: [2.95, 5.408], dH_kJ_mol: [null, null], dCp_J_K_mol: [null, null], volatile: false,
-    source: { pKa: 'HPA45', note: 'CRC lists 2.94 / 5.43 (from memory); no ΔH° in the sources used' },
+    id: "phthalate",
+    name: "phthalic acid",
+    z0: 0,
+    species: ["H2Phth", "HPhth-", "Phth^2-"],
+    pKa25: [2.95, 5.408],
+    dH_kJ_mol: [null, null],
+    dCp_J_K_mol: [null, null],
+    volatile: false,
+    source: { pKa: "HPA45", note: "CRC lists 2.94 / 5.43 (from memory); no ΔH° in the sources used" },
   }),
   tartrate: sys({
-    id: 'tartrate', name: 'L-(+)-tartaric acid', z0: 0, species: ['H2Tart', 'HTart-', 'Tart^2-'],
-    pKa25: [3.0, 4.36], dH_kJ_mol: [null, null], dCp_J_K_mol: [null, null], volatile: false,
-    source: { pKa: 'Dalton94', note: 'no ΔH° in the sources used' },
+    id: "tartrate",
+    name: "L-(+)-tartaric acid",
+    z0: 0,
+    species: ["H2Tart", "HTart-", "Tart^2-"],
+    pKa25: [3.0, 4.36],
+    dH_kJ_mol: [null, null],
+    dCp_J_K_mol: [null, null],
+    volatile: false,
+    source: { pKa: "Dalton94", note: "no ΔH° in the sources used" },
   }),
 });
 
@@ -117,10 +183,10 @@ export function systemPKa(system: AcidSystem, temperature_C: number): number[] {
 }
 
 /** Strong (fully dissociated) ions carried by reagents. */
-export type StrongIonId = 'Na+' | 'K+' | 'Cl-' | 'CF3COO-';
+export type StrongIonId = "Na+" | "K+" | "Cl-" | "CF3COO-";
 export const STRONG_ION_CHARGE: Readonly<Record<StrongIonId, number>> = Object.freeze({
-  'Na+': 1,
-  'K+': 1,
-  'Cl-': -1,
-  'CF3COO-': -1,
+  "Na+": 1,
+  "K+": 1,
+  "Cl-": -1,
+  "CF3COO-": -1,
 });

@@ -7,7 +7,7 @@
  * A = 3·A_phi/ln 10 on the molal scale. The solver works in mol/L, so the
  * molal A is converted to the molar scale with A_c = A_m / sqrt(ρ_w).
  */
-import { waterDensity_g_mL } from './water';
+import { waterDensity_g_mL } from "./water";
 
 /** [temperature °C, A (log10, kg^½ mol^−½)] — check-values §3 (D from [CRP94]). */
 export const DEBYE_HUCKEL_A_TABLE: readonly (readonly [number, number])[] = Object.freeze([
@@ -28,7 +28,7 @@ export function debyeHuckelA_molal(temperature_C: number): number {
   while (k < tab.length - 2 && temperature_C > (tab[k + 1]?.[0] ?? Infinity)) k++;
   const lo = tab[k];
   const hi = tab[k + 1];
-  if (lo === undefined || hi === undefined) throw new Error('Debye-Hueckel table is too short.');
+  if (lo === undefined || hi === undefined) throw new Error("Debye-Hueckel table is too short.");
   return lo[1] + ((hi[1] - lo[1]) * (temperature_C - lo[0])) / (hi[0] - lo[0]);
 }
 

@@ -6,16 +6,27 @@
  * strength is iterated to self-consistency around it. The result is then fed
  * back through `solutionPH`, whose pH is what is reported.
  */
-import { type CompiledSystem, compileSystem, gammaOne, lookupReagent, setConditionalOne, solutionPH, systemMoments, ionicStrengthWarning, temperatureWarnings, validateTemperature } from './equilibrium';
-import { STRONG_ION_CHARGE, systemPKa, type AcidSystem } from './acid-systems';
-import { debyeHuckelA_molar } from './activity';
-import { reagentDensity, reagentPurity, type Reagent } from './reagents';
-import { concentratedWarning, nonVolatileWarning, uvCutoffWarning } from './safety';
-import { mLToL, mMToMolar, molarToMM } from './units';
-import { ChemInputError, type ChemWarning, isList, pushWarning, requireFinite } from './warnings';
-import { pKw } from './water';
+import {
+  type CompiledSystem,
+  compileSystem,
+  gammaOne,
+  lookupReagent,
+  setConditionalOne,
+  solutionPH,
+  systemMoments,
+  ionicStrengthWarning,
+  temperatureWarnings,
+  validateTemperature,
+} from "./equilibrium";
+import { STRONG_ION_CHARGE, systemPKa, type AcidSystem } from "./acid-systems";
+import { debyeHuckelA_molar } from "./activity";
+import { reagentDensity, reagentPurity, type Reagent } from "./reagents";
+import { concentratedWarning, nonVolatileWarning, uvCutoffWarning } from "./safety";
+import { mLToL, mMToMolar, molarToMM } from "./units";
+import { ChemInputError, type ChemWarning, isList, pushWarning, requireFinite } from "./warnings";
+import { pKw } from "./water";
 
-export type BufferBasis = 'first' | 'total';
+export type BufferBasis = "first" | "total";
 
 export interface DesignBufferInput {
   targetPH: number;
@@ -67,7 +78,12 @@ function perMole(r: Reagent, temperature_C: number): PerMole {
     strongCharge += z * ion.count;
     strongZ2 += z * z * ion.count;
   }
-  return { reagent: r, strongCharge, strongZ2, systems: r.acidBase.systems.map((s) => ({ cs: compileSystem(s.system, 1, temperature_C), count: s.count })) };
+  return {
+    reagent: r,
+    strongCharge,
+    strongZ2,
+    systems: r.acidBase.systems.map((s) => ({ cs: compileSystem(s.system, 1, temperature_C), count: s.count })),
+  };
 }
 
 let pmCharge = 0;
@@ -95,24 +111,41 @@ function sharedSystem(a: Reagent, b: Reagent): { system: AcidSystem; n1: number;
 }
 
 /** Amount of reagent as a weighable mass or a measurable volume. */
-export function amountToMeasure(r: Reagent, amount_mol: number, temperature_C: number, warnings: ChemWarning[]): { mass_g?: number; volume_mL?: number } {
+export function amountToMeasure(
+  r: Reagent,
+  amount_mol: number,
+  temperature_C: number,
+  warnings: ChemWarning[],
+): { mass_g?: number; volume_mL?: number } {
   const productMass_g = (amount_mol * r.molarMass_g_mol) / reagentPurity(r);
-  if (r.form === 'solid') return { mass_g: productMass_g };
+  if (r.form === "solid") return { mass_g: productMass_g };
   const density = reagentDensity(r, temperature_C);
   if (density === undefined) {
-    pushWarning(warnings, { code: 'no-density-data', message: `No density is recorded for ${r.name}: weigh ${productMass_g.toPrecision(4)} g of it instead of measuring a volume.`, reagent: r.id });
+    pushWarning(warnings, {
+      code: "no-density-data",
+      message: `No density is recorded for ${r.name}: weigh ${productMass_g.toPrecision(4)} g of it instead of measuring a volume.`,
+      reagent: r.id,
+    });
     return { mass_g: productMass_g };
   }
   return { volume_mL: productMass_g / density };
 }
 
 /** Solves for the concentrations (mol/L) of the two reagents. */
-function solveConcentrations(first: PerMole, second: PerMole, targetPH: number, C: number, basis: BufferBasis, temperature_C: number, shared: { n1: number; n2: number } | undefined): [number, number] {
+function solveConcentrations(
+  first: PerMole,
+  second: PerMole,
+  targetPH: number,
+  C: number,
+  basis: BufferBasis,
+  temperature_C: number,
+  shared: { n1: number; n2: number } | undefined,
+): [number, number] {
   const A = debyeHuckelA_molar(temperature_C);
   const Kw = 10 ** -pKw(temperature_C);
   const h = 10 ** -targetPH;
   let I = 0;
-  let c1 = basis === 'first' ? C : 0;
+  let c1 = basis === "first" ? C : 0;
   let c2 = 0;
   for (let it = 0; it < 200; it++) {
     const g = gammaOne(A, I);
@@ -124,7 +157,7 @@ function solveConcentrations(first: PerMole, second: PerMole, targetPH: number, 
     evalPerMole(second, h, g);
     const q2 = pmCharge;
     const i2 = pmZ2;
-    if (basis === 'first') {
+    if (basis === "first") {
       c2 = q2 === 0 ? Number.NaN : -(H - OH + c1 * q1) / q2;
     } else {
       const n1 = shared?.n1 ?? 1;
@@ -149,42 +182,56 @@ function phOf(components: { reagent: string; concentration_mol_L: number }[], te
 export function designBuffer(input: DesignBufferInput): DesignBufferResult {
   const temperature_C = input.temperature_C ?? 25;
   validateTemperature(temperature_C);
-  requireFinite(input.targetPH, 'targetPH');
-  if (input.targetPH < 0 || input.targetPH > 14) throw new ChemInputError('invalid-input', 'targetPH must be between 0 and 14.', 'targetPH');
-  requireFinite(input.volume_mL, 'volume_mL', { positive: true });
-  requireFinite(input.concentration_mM, 'concentration_mM', { positive: true });
-  if (input.basis !== 'first' && input.basis !== 'total') throw new ChemInputError('invalid-input', "basis must be 'first' or 'total'.", 'basis');
-  if (!isList(input.reagents) || input.reagents.length !== 2) throw new ChemInputError('invalid-input', 'reagents must name exactly two reagents.', 'reagents');
+  requireFinite(input.targetPH, "targetPH");
+  if (input.targetPH < 0 || input.targetPH > 14)
+    throw new ChemInputError("invalid-input", "targetPH must be between 0 and 14.", "targetPH");
+  requireFinite(input.volume_mL, "volume_mL", { positive: true });
+  requireFinite(input.concentration_mM, "concentration_mM", { positive: true });
+  if (input.basis !== "first" && input.basis !== "total")
+    throw new ChemInputError("invalid-input", "basis must be 'first' or 'total'.", "basis");
+  if (!isList(input.reagents) || input.reagents.length !== 2)
+    throw new ChemInputError("invalid-input", "reagents must name exactly two reagents.", "reagents");
   const id1 = String(input.reagents[0]);
   const id2 = String(input.reagents[1]);
-  const r1 = lookupReagent(id1, 'reagents[0]');
-  const r2 = lookupReagent(id2, 'reagents[1]');
-  for (const [r, f] of [[r1, 'reagents[0]'], [r2, 'reagents[1]']] as const) {
-    if (r.role === 'solvent') throw new ChemInputError('not-aqueous-solute', `${r.name} is a solvent, not a buffer reagent.`, f);
+  const r1 = lookupReagent(id1, "reagents[0]");
+  const r2 = lookupReagent(id2, "reagents[1]");
+  for (const [r, f] of [
+    [r1, "reagents[0]"],
+    [r2, "reagents[1]"],
+  ] as const) {
+    if (r.role === "solvent") throw new ChemInputError("not-aqueous-solute", `${r.name} is a solvent, not a buffer reagent.`, f);
   }
-  if (r1.id === r2.id) throw new ChemInputError('invalid-input', 'The two reagents must differ.', 'reagents');
+  if (r1.id === r2.id) throw new ChemInputError("invalid-input", "The two reagents must differ.", "reagents");
 
   const C = mMToMolar(input.concentration_mM);
   const shared = sharedSystem(r1, r2);
-  if (input.basis === 'total' && shared === undefined) {
-    throw new ChemInputError('no-shared-acid-system', `${r1.name} and ${r2.name} share no acid–base system, so basis 'total' has no meaning; use basis 'first'.`, 'basis');
+  if (input.basis === "total" && shared === undefined) {
+    throw new ChemInputError(
+      "no-shared-acid-system",
+      `${r1.name} and ${r2.name} share no acid–base system, so basis 'total' has no meaning; use basis 'first'.`,
+      "basis",
+    );
   }
   const pm1 = perMole(r1, temperature_C);
   const pm2 = perMole(r2, temperature_C);
   const [c1, c2] = solveConcentrations(pm1, pm2, input.targetPH, C, input.basis, temperature_C, shared);
 
   const tol = 1e-12;
-  const upper2 = input.basis === 'total' ? C / (shared?.n2 ?? 1) : Number.POSITIVE_INFINITY;
+  const upper2 = input.basis === "total" ? C / (shared?.n2 ?? 1) : Number.POSITIVE_INFINITY;
   if (!Number.isFinite(c2) || c2 < -tol || c1 < -tol || c2 > upper2 * (1 + 1e-9)) {
     let reach: string;
-    if (input.basis === 'first') {
+    if (input.basis === "first") {
       reach = `${r1.name} alone at ${input.concentration_mM} mM gives pH ${phOf([{ reagent: r1.id, concentration_mol_L: C }], temperature_C).toFixed(2)}, and adding ${r2.name} moves it the other way`;
     } else {
       const a = phOf([{ reagent: r1.id, concentration_mol_L: C / (shared?.n1 ?? 1) }], temperature_C);
       const b = phOf([{ reagent: r2.id, concentration_mol_L: C / (shared?.n2 ?? 1) }], temperature_C);
       reach = `this pair spans pH ${Math.min(a, b).toFixed(2)} to ${Math.max(a, b).toFixed(2)} at ${input.concentration_mM} mM`;
     }
-    throw new ChemInputError('target-unreachable', `pH ${input.targetPH} cannot be reached with ${r1.name} and ${r2.name}: ${reach}.`, 'targetPH');
+    throw new ChemInputError(
+      "target-unreachable",
+      `pH ${input.targetPH} cannot be reached with ${r1.name} and ${r2.name}: ${reach}.`,
+      "targetPH",
+    );
   }
   const conc1 = Math.max(c1, 0);
   const conc2 = Math.max(c2, 0);
@@ -204,15 +251,23 @@ export function designBuffer(input: DesignBufferInput): DesignBufferResult {
   ].map(([r, c]) => {
     const reagent = r as Reagent;
     const amount_mol = (c as number) * V_L;
-    return { reagent: reagent.id, amount_mol, concentration_mM: molarToMM(c as number), ...amountToMeasure(reagent, amount_mol, temperature_C, warnings) };
+    return {
+      reagent: reagent.id,
+      amount_mol,
+      concentration_mM: molarToMM(c as number),
+      ...amountToMeasure(reagent, amount_mol, temperature_C, warnings),
+    };
   });
 
   const pKas: number[] = [];
   for (const r of [r1, r2]) for (const s of r.acidBase.systems) pKas.push(...systemPKa(s.system, temperature_C));
   if (pKas.length === 0 || pKas.every((pK) => Math.abs(pK - input.targetPH) > 1)) {
-    const list = pKas.length > 0 ? `the nearest pKa is ${pKas.reduce((a, b) => (Math.abs(b - input.targetPH) < Math.abs(a - input.targetPH) ? b : a)).toFixed(2)}` : 'neither reagent is a weak acid or base';
+    const list =
+      pKas.length > 0
+        ? `the nearest pKa is ${pKas.reduce((a, b) => (Math.abs(b - input.targetPH) < Math.abs(a - input.targetPH) ? b : a)).toFixed(2)}`
+        : "neither reagent is a weak acid or base";
     pushWarning(warnings, {
-      code: 'ph-far-from-pka',
+      code: "ph-far-from-pka",
       message: `pH ${input.targetPH} is more than 1 unit from every pKa of this buffer (${list}): it has little buffer capacity and the pH will drift.`,
     });
   }

@@ -13,12 +13,12 @@
  * is updated by fixed-point iteration around it. The inner loop allocates
  * nothing.
  */
-import { ACID_SYSTEMS, STRONG_ION_CHARGE, type AcidSystem, type StrongIonId, pKaAtTemperature } from './acid-systems';
-import { A_TABLE_MAX_C, A_TABLE_MIN_C, daviesTerm, debyeHuckelA_molar } from './activity';
-import { getReagent, type Reagent } from './reagents';
-import { celsiusToKelvin, molarToMM } from './units';
-import { ChemInputError, type ChemWarning, pushWarning, requireFinite, isList } from './warnings';
-import { pKw } from './water';
+import { ACID_SYSTEMS, STRONG_ION_CHARGE, type AcidSystem, type StrongIonId, pKaAtTemperature } from "./acid-systems";
+import { A_TABLE_MAX_C, A_TABLE_MIN_C, daviesTerm, debyeHuckelA_molar } from "./activity";
+import { getReagent, type Reagent } from "./reagents";
+import { celsiusToKelvin, molarToMM } from "./units";
+import { ChemInputError, type ChemWarning, pushWarning, requireFinite, isList } from "./warnings";
+import { pKw } from "./water";
 
 const LN10 = Math.LN10;
 /** Search bracket for the charge balance, in pH units. */
@@ -52,7 +52,7 @@ export interface Problem {
 }
 
 const kCache = new Map<AcidSystemId, { t: number; K: Float64Array }>();
-type AcidSystemId = AcidSystem['id'];
+type AcidSystemId = AcidSystem["id"];
 
 /** Thermodynamic Ka of each step at the temperature (cached for the last temperature asked). */
 export function kaAt(system: AcidSystem, temperature_C: number): Float64Array {
@@ -79,7 +79,7 @@ export interface ComponentInput {
 
 export function lookupReagent(id: string, field: string): Reagent {
   const r = getReagent(id);
-  if (r === undefined) throw new ChemInputError('unknown-reagent', `There is no reagent "${id}" in the catalogue.`, field);
+  if (r === undefined) throw new ChemInputError("unknown-reagent", `There is no reagent "${id}" in the catalogue.`, field);
   return r;
 }
 
@@ -93,9 +93,13 @@ export function buildProblem(components: readonly ComponentInput[], temperature_
     const field = `components[${i}]`;
     const r = lookupReagent(c.reagent, `${field}.reagent`);
     requireFinite(c.concentration_mol_L, `${field}.concentration_mol_L`, { min: 0 });
-    if (r.id === 'water') continue;
-    if (r.role === 'solvent') {
-      throw new ChemInputError('not-aqueous-solute', `${r.name} is a solvent; the pH model covers aqueous solutions only.`, `${field}.reagent`);
+    if (r.id === "water") continue;
+    if (r.role === "solvent") {
+      throw new ChemInputError(
+        "not-aqueous-solute",
+        `${r.name} is a solvent; the pH model covers aqueous solutions only.`,
+        `${field}.reagent`,
+      );
     }
     for (const s of r.acidBase.systems) totals.set(s.system.id, (totals.get(s.system.id) ?? 0) + s.count * c.concentration_mol_L);
     for (const ion of r.acidBase.ions) strongIons.set(ion.ion, (strongIons.get(ion.ion) ?? 0) + ion.count * c.concentration_mol_L);
@@ -212,9 +216,11 @@ export function solveEquilibrium(p: Problem, pHGuess = 7): EquilibriumState {
   setConditional(p.systems, g);
   // The charge function is monotonic; check it changes sign inside the bracket.
   evaluate(p, PH_MIN, g);
-  if (evF < 0) throw new ChemInputError('invalid-input', 'The solution is more acidic than pH −3: the model does not cover it.', 'components');
+  if (evF < 0)
+    throw new ChemInputError("invalid-input", "The solution is more acidic than pH −3: the model does not cover it.", "components");
   evaluate(p, PH_MAX, g);
-  if (evF > 0) throw new ChemInputError('invalid-input', 'The solution is more basic than pH 17: the model does not cover it.', 'components');
+  if (evF > 0)
+    throw new ChemInputError("invalid-input", "The solution is more basic than pH 17: the model does not cover it.", "components");
   let x = pHGuess;
   for (let it = 0; it < 100; it++) {
     x = solveChargeBalance(p, g, x);
@@ -255,8 +261,8 @@ export interface SpeciesConcentration {
 
 export function speciesList(p: Problem, state: EquilibriumState): SpeciesConcentration[] {
   const out: SpeciesConcentration[] = [
-    { species: 'H+', charge: 1, concentration_mol_L: state.H_mol_L },
-    { species: 'OH-', charge: -1, concentration_mol_L: state.OH_mol_L },
+    { species: "H+", charge: 1, concentration_mol_L: state.H_mol_L },
+    { species: "OH-", charge: -1, concentration_mol_L: state.OH_mol_L },
   ];
   for (const [ion, c] of p.strongIons) out.push({ species: ion, charge: STRONG_ION_CHARGE[ion], concentration_mol_L: c });
   const h = 10 ** -state.pH;
@@ -270,7 +276,11 @@ export function speciesList(p: Problem, state: EquilibriumState): SpeciesConcent
       rs.push(r);
     }
     for (let i = 0; i <= s.n; i++) {
-      out.push({ species: s.system.species[i] ?? `${s.system.id}[${i}]`, charge: s.z0 - i, concentration_mol_L: (s.total * (rs[i] ?? 0)) / sum });
+      out.push({
+        species: s.system.species[i] ?? `${s.system.id}[${i}]`,
+        charge: s.z0 - i,
+        concentration_mol_L: (s.total * (rs[i] ?? 0)) / sum,
+      });
     }
   }
   return out;
@@ -279,7 +289,7 @@ export function speciesList(p: Problem, state: EquilibriumState): SpeciesConcent
 export function temperatureWarnings(temperature_C: number, warnings: ChemWarning[]): void {
   if (temperature_C < A_TABLE_MIN_C || temperature_C > A_TABLE_MAX_C) {
     pushWarning(warnings, {
-      code: 'temperature-out-of-range',
+      code: "temperature-out-of-range",
       message: `${temperature_C} °C is outside 0–50 °C, the range of the activity and pKa data; the result is an extrapolation.`,
     });
   }
@@ -288,15 +298,16 @@ export function temperatureWarnings(temperature_C: number, warnings: ChemWarning
 export function ionicStrengthWarning(I: number, warnings: ChemWarning[]): void {
   if (I > IONIC_STRENGTH_LIMIT_MOL_L) {
     pushWarning(warnings, {
-      code: 'ionic-strength-high',
+      code: "ionic-strength-high",
       message: `Ionic strength ${I.toFixed(3)} mol/L is above the range where the Davies activity model is reliable (about 0.1–0.2 mol/L); measure the pH.`,
     });
   }
 }
 
-export function validateTemperature(temperature_C: number, field = 'temperature_C'): void {
+export function validateTemperature(temperature_C: number, field = "temperature_C"): void {
   requireFinite(temperature_C, field);
-  if (temperature_C < 0 || temperature_C > 100) throw new ChemInputError('invalid-input', 'temperature_C must be between 0 and 100 °C.', field);
+  if (temperature_C < 0 || temperature_C > 100)
+    throw new ChemInputError("invalid-input", "temperature_C must be between 0 and 100 °C.", field);
 }
 
 export interface SolutionPHInput {
@@ -316,7 +327,7 @@ export interface SolutionPHResult {
 export function solutionPH(input: SolutionPHInput): SolutionPHResult {
   const temperature_C = input.temperature_C ?? 25;
   validateTemperature(temperature_C);
-  if (!isList(input.components)) throw new ChemInputError('invalid-input', 'components must be a list.', 'components');
+  if (!isList(input.components)) throw new ChemInputError("invalid-input", "components must be a list.", "components");
   const p = buildProblem(input.components, temperature_C);
   const state = solveEquilibrium(p);
   const warnings: ChemWarning[] = [];

@@ -30,7 +30,7 @@ export function parseFormula(formula: string): Map<string, number> {
   const parts = formula.split(/[·*.]/);
   for (const rawPart of parts) {
     const part = rawPart.trim();
-    if (part === '') throw new Error(`Empty part in formula "${formula}".`);
+    if (part === "") throw new Error(`Empty part in formula "${formula}".`);
     const lead = /^(\d+)(.*)$/.exec(part);
     const multiplier = lead?.[1] !== undefined ? Number(lead[1]) : 1;
     const body = lead?.[2] ?? part;
@@ -51,22 +51,22 @@ function parseGroup(text: string, whole: string): Map<string, number> {
     return n;
   };
   while (i < text.length) {
-    const ch = text[i] ?? '';
-    if (ch === '(') {
+    const ch = text[i] ?? "";
+    if (ch === "(") {
       stack.push(new Map());
       i++;
-    } else if (ch === ')') {
+    } else if (ch === ")") {
       i++;
       const n = readNumber();
       const inner = stack.pop();
       const outer = stack[stack.length - 1];
       if (inner === undefined || outer === undefined || stack.length < 1) throw new Error(`Unbalanced ")" in formula "${whole}".`);
       for (const [el, c] of inner) outer.set(el, (outer.get(el) ?? 0) + c * n);
-    } else if (ch >= 'A' && ch <= 'Z') {
+    } else if (ch >= "A" && ch <= "Z") {
       let sym = ch;
       i++;
       const next = text[i];
-      if (next !== undefined && next >= 'a' && next <= 'z') {
+      if (next !== undefined && next >= "a" && next <= "z") {
         sym += next;
         i++;
       }

@@ -3,25 +3,25 @@
  * and on the server alike. Inputs are single objects; units are in the field
  * names.
  */
-export { reagents, getReagent, reagentDensity, reagentPurity } from './reagents';
-export type { Reagent, PhysicalForm, ReagentRole, WasteStream, GhsData, GhsPictogram, Sourced, AcidBaseData } from './reagents';
-export { ACID_SYSTEMS, systemPKa, pKaAtTemperature } from './acid-systems';
-export type { AcidSystem, AcidSystemId, StrongIonId } from './acid-systems';
-export { solutionPH } from './equilibrium';
-export type { SolutionPHInput, SolutionPHResult, SpeciesConcentration, ComponentInput } from './equilibrium';
-export { designBuffer } from './buffer';
-export type { DesignBufferInput, DesignBufferResult, BufferComponent, BufferBasis } from './buffer';
-export { mixMobilePhase } from './mixing';
-export type { MixMobilePhaseInput, MixMobilePhaseResult, MixComponent, SolventShare } from './mixing';
-export { ADDITIVE_UNITS } from './additive-units';
-export type { AdditiveUnit } from './additive-units';
-export { solventUse } from './solvent-use';
-export type { SolventUseInput, SolventUseResult, ProgramPoint } from './solvent-use';
-export { fitLSS, predictRetention, gradientRetention } from './retention';
-export type { FitLSSInput, LSSParameters, PredictRetentionInput, GradientRetentionInput } from './retention';
-export { mixtureProperties } from './mixture-properties';
-export type { MixturePropertiesInput, MixturePropertiesResult } from './mixture-properties';
-export { WARNING_CODES, ERROR_CODES, ChemInputError } from './warnings';
-export type { ChemWarning, WarningCode, ChemErrorCode } from './warnings';
-export { SOURCES } from './sources';
-export type { Source, SourceKey, Confidence } from './sources';
+export { reagents, getReagent, reagentDensity, reagentPurity } from "./reagents";
+export type { Reagent, PhysicalForm, ReagentRole, WasteStream, GhsData, GhsPictogram, Sourced, AcidBaseData } from "./reagents";
+export { ACID_SYSTEMS, systemPKa, pKaAtTemperature } from "./acid-systems";
+export type { AcidSystem, AcidSystemId, StrongIonId } from "./acid-systems";
+export { solutionPH } from "./equilibrium";
+export type { SolutionPHInput, SolutionPHResult, SpeciesConcentration, ComponentInput } from "./equilibrium";
+export { designBuffer } from "./buffer";
+export type { DesignBufferInput, DesignBufferResult, BufferComponent, BufferBasis } from "./buffer";
+export { mixMobilePhase } from "./mixing";
+export type { MixMobilePhaseInput, MixMobilePhaseResult, MixComponent, SolventShare } from "./mixing";
+export { ADDITIVE_UNITS } from "./additive-units";
+export type { AdditiveUnit } from "./additive-units";
+export { solventUse } from "./solvent-use";
+export type { SolventUseInput, SolventUseResult, ProgramPoint } from "./solvent-use";
+export { fitLSS, predictRetention, gradientRetention } from "./retention";
+export type { FitLSSInput, LSSParameters, PredictRetentionInput, GradientRetentionInput } from "./retention";
+export { mixtureProperties } from "./mixture-properties";
+export type { MixturePropertiesInput, MixturePropertiesResult } from "./mixture-properties";
+export { WARNING_CODES, ERROR_CODES, ChemInputError } from "./warnings";
+export type { ChemWarning, WarningCode, ChemErrorCode } from "./warnings";
+export { SOURCES } from "./sources";
+export type { Source, SourceKey, Confidence } from "./sources";

@@ -5,9 +5,9 @@
  * published 25 °C tables. Viscosity is omitted, with a warning, where no
  * table exists for the mix or the temperature.
  */
-import { lookupReagent, validateTemperature } from './equilibrium';
-import type { SourceKey } from './sources';
-import { ChemInputError, type ChemWarning, pushWarning, requireFinite, isList } from './warnings';
+import { lookupReagent, validateTemperature } from "./equilibrium";
+import type { SourceKey } from "./sources";
+import { ChemInputError, type ChemWarning, pushWarning, requireFinite, isList } from "./warnings";
 
 export interface ViscosityTable {
   organic: string;
@@ -19,8 +19,18 @@ export interface ViscosityTable {
 
 /** 25 °C tables, v/v % organic in 10 % steps (check-values §5, [lcqc]). */
 export const VISCOSITY_TABLES: Readonly<Record<string, ViscosityTable>> = Object.freeze({
-  methanol: { organic: 'methanol', temperature_C: 25, source: 'lcqc', cP: [0.89, 1.18, 1.4, 1.56, 1.62, 1.62, 1.54, 1.36, 1.12, 0.84, 0.56] },
-  acetonitrile: { organic: 'acetonitrile', temperature_C: 25, source: 'lcqc', cP: [0.89, 1.01, 0.98, 0.98, 0.89, 0.82, 0.72, 0.59, 0.52, 0.46, 0.35] },
+  methanol: {
+    organic: "methanol",
+    temperature_C: 25,
+    source: "lcqc",
+    cP: [0.89, 1.18, 1.4, 1.56, 1.62, 1.62, 1.54, 1.36, 1.12, 0.84, 0.56],
+  },
+  acetonitrile: {
+    organic: "acetonitrile",
+    temperature_C: 25,
+    source: "lcqc",
+    cP: [0.89, 1.01, 0.98, 0.98, 0.89, 0.82, 0.72, 0.59, 0.52, 0.46, 0.35],
+  },
 });
 
 /** How far from the table temperature (°C) a viscosity is still given. */
@@ -31,7 +41,7 @@ export function interpolateViscosity(table: ViscosityTable, percentOrganic: numb
   const i = Math.min(9, Math.floor(x));
   const a = table.cP[i];
   const b = table.cP[i + 1];
-  if (a === undefined || b === undefined) throw new Error('Viscosity table is too short.');
+  if (a === undefined || b === undefined) throw new Error("Viscosity table is too short.");
   return a + (b - a) * (x - i);
 }
 
@@ -50,7 +60,8 @@ export interface MixturePropertiesResult {
 export function mixtureProperties(input: MixturePropertiesInput): MixturePropertiesResult {
   const temperature_C = input.temperature_C ?? 25;
   validateTemperature(temperature_C);
-  if (!isList(input.solvents) || input.solvents.length === 0) throw new ChemInputError('invalid-input', 'solvents must list at least one solvent.', 'solvents');
+  if (!isList(input.solvents) || input.solvents.length === 0)
+    throw new ChemInputError("invalid-input", "solvents must list at least one solvent.", "solvents");
   let sum = 0;
   let polarity = 0;
   let uv = Number.NEGATIVE_INFINITY;
@@ -60,7 +71,8 @@ export function mixtureProperties(input: MixturePropertiesInput): MixturePropert
     const r = lookupReagent(s.reagent, `${field}.reagent`);
     requireFinite(s.percent, `${field}.percent`, { min: 0 });
     const p = r.polarityIndex?.value;
-    if (p === undefined) throw new ChemInputError('invalid-input', `${r.name} has no polarity index; it is not a mobile-phase solvent.`, `${field}.reagent`);
+    if (p === undefined)
+      throw new ChemInputError("invalid-input", `${r.name} has no polarity index; it is not a mobile-phase solvent.`, `${field}.reagent`);
     sum += s.percent;
     polarity += (s.percent / 100) * p;
     if (s.percent > 0) {
@@ -68,19 +80,24 @@ export function mixtureProperties(input: MixturePropertiesInput): MixturePropert
       present.push({ id: r.id, percent: s.percent });
     }
   });
-  if (Math.abs(sum - 100) > 1e-6) throw new ChemInputError('composition-not-100', `Solvent percentages add up to ${sum} %, not 100 %.`, 'solvents');
+  if (Math.abs(sum - 100) > 1e-6)
+    throw new ChemInputError("composition-not-100", `Solvent percentages add up to ${sum} %, not 100 %.`, "solvents");
 
   const warnings: ChemWarning[] = [];
   const result: MixturePropertiesResult = { polarityIndex: polarity, uvCutoff_nm: uv, warnings };
-  const organics = present.filter((p) => p.id !== 'water');
+  const organics = present.filter((p) => p.id !== "water");
   const onlyWater = organics.length === 0;
   const organic = organics[0];
-  const table = onlyWater ? VISCOSITY_TABLES.methanol : organics.length === 1 && organic !== undefined ? VISCOSITY_TABLES[organic.id] : undefined;
+  const table = onlyWater
+    ? VISCOSITY_TABLES.methanol
+    : organics.length === 1 && organic !== undefined
+      ? VISCOSITY_TABLES[organic.id]
+      : undefined;
   if (table !== undefined && Math.abs(temperature_C - table.temperature_C) <= VISCOSITY_TEMPERATURE_TOLERANCE_C) {
     result.viscosity_cP = interpolateViscosity(table, organic?.percent ?? 0);
   } else {
     pushWarning(warnings, {
-      code: 'no-viscosity-data',
+      code: "no-viscosity-data",
       message: `No published viscosity table is held for this mix at ${temperature_C} °C (tables cover water with methanol or acetonitrile at 25 °C).`,
     });
   }

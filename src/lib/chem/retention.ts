@@ -8,7 +8,7 @@
  * the initial composition; a solute still on the column when the gradient
  * ends finishes its run isocratically at the final composition.
  */
-import { ChemInputError, requireFinite, isList } from './warnings';
+import { ChemInputError, requireFinite, isList } from "./warnings";
 
 export interface FitLSSInput {
   runs: readonly { percentB: number; retention_min: number }[];
@@ -22,16 +22,18 @@ export interface LSSParameters {
 
 /** Least-squares fit of log k against φ. */
 export function fitLSS(input: FitLSSInput): LSSParameters & { r2: number } {
-  requireFinite(input.deadTime_min, 'deadTime_min', { positive: true });
+  requireFinite(input.deadTime_min, "deadTime_min", { positive: true });
   const t0 = input.deadTime_min;
-  if (!isList(input.runs) || input.runs.length < 2) throw new ChemInputError('invalid-input', 'fitLSS needs at least two isocratic runs.', 'runs');
+  if (!isList(input.runs) || input.runs.length < 2)
+    throw new ChemInputError("invalid-input", "fitLSS needs at least two isocratic runs.", "runs");
   const xs: number[] = [];
   const ys: number[] = [];
   input.runs.forEach((r, i) => {
     requireFinite(r.percentB, `runs[${i}].percentB`, { min: 0 });
     requireFinite(r.retention_min, `runs[${i}].retention_min`);
-    if (r.percentB > 100) throw new ChemInputError('invalid-input', `runs[${i}].percentB must be at most 100.`, `runs[${i}].percentB`);
-    if (!(r.retention_min > t0)) throw new ChemInputError('invalid-input', `runs[${i}].retention_min must be later than the dead time.`, `runs[${i}].retention_min`);
+    if (r.percentB > 100) throw new ChemInputError("invalid-input", `runs[${i}].percentB must be at most 100.`, `runs[${i}].percentB`);
+    if (!(r.retention_min > t0))
+      throw new ChemInputError("invalid-input", `runs[${i}].retention_min must be later than the dead time.`, `runs[${i}].retention_min`);
     xs.push(r.percentB / 100);
     ys.push(Math.log10((r.retention_min - t0) / t0));
   });
@@ -48,7 +50,7 @@ export function fitLSS(input: FitLSSInput): LSSParameters & { r2: number } {
     sxy += dx * dy;
     syy += dy * dy;
   }
-  if (sxx === 0) throw new ChemInputError('invalid-input', 'fitLSS needs runs at two or more different %B.', 'runs');
+  if (sxx === 0) throw new ChemInputError("invalid-input", "fitLSS needs runs at two or more different %B.", "runs");
   const slope = sxy / sxx;
   return { logKw: my - slope * mx, S: -slope, r2: syy === 0 ? 1 : (sxy * sxy) / (sxx * syy) };
 }
@@ -59,10 +61,10 @@ export interface PredictRetentionInput extends LSSParameters {
 }
 
 export function predictRetention(input: PredictRetentionInput): { k: number; retention_min: number } {
-  requireFinite(input.deadTime_min, 'deadTime_min', { positive: true });
-  requireFinite(input.percentB, 'percentB', { min: 0 });
-  requireFinite(input.logKw, 'logKw');
-  requireFinite(input.S, 'S');
+  requireFinite(input.deadTime_min, "deadTime_min", { positive: true });
+  requireFinite(input.percentB, "percentB", { min: 0 });
+  requireFinite(input.logKw, "logKw");
+  requireFinite(input.S, "S");
   const k = 10 ** (input.logKw - (input.S * input.percentB) / 100);
   return { k, retention_min: input.deadTime_min * (1 + k) };
 }
@@ -75,17 +77,17 @@ export interface GradientRetentionInput extends LSSParameters {
 
 export function gradientRetention(input: GradientRetentionInput): { retention_min: number; kStar: number; b: number } {
   const { logKw, S, deadTime_min: t0, dwell_min: tD, gradient } = input;
-  requireFinite(t0, 'deadTime_min', { positive: true });
-  requireFinite(tD, 'dwell_min', { min: 0 });
-  requireFinite(logKw, 'logKw');
-  requireFinite(S, 'S', { positive: true });
-  requireFinite(gradient.from_percentB, 'gradient.from_percentB', { min: 0 });
-  requireFinite(gradient.to_percentB, 'gradient.to_percentB', { min: 0 });
-  requireFinite(gradient.time_min, 'gradient.time_min', { positive: true });
+  requireFinite(t0, "deadTime_min", { positive: true });
+  requireFinite(tD, "dwell_min", { min: 0 });
+  requireFinite(logKw, "logKw");
+  requireFinite(S, "S", { positive: true });
+  requireFinite(gradient.from_percentB, "gradient.from_percentB", { min: 0 });
+  requireFinite(gradient.to_percentB, "gradient.to_percentB", { min: 0 });
+  requireFinite(gradient.time_min, "gradient.time_min", { positive: true });
   const phi0 = gradient.from_percentB / 100;
   const phi1 = gradient.to_percentB / 100;
   const tG = gradient.time_min;
-  if (!(phi1 > phi0)) throw new ChemInputError('invalid-input', 'The gradient must increase %B.', 'gradient.to_percentB');
+  if (!(phi1 > phi0)) throw new ChemInputError("invalid-input", "The gradient must increase %B.", "gradient.to_percentB");
   const b = (t0 * (phi1 - phi0) * S) / tG;
   const kStar = 1 / (1.15 * b);
   const k0 = 10 ** (logKw - S * phi0);

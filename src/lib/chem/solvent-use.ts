@@ -4,7 +4,7 @@
  * F(t)·φ(t), is a quadratic in time and is integrated exactly:
  * ∫ F φ dt = Δt·[F1 φ1 + (F1 Δφ + φ1 ΔF)/2 + ΔF Δφ/3].
  */
-import { ChemInputError, requireFinite, isList } from './warnings';
+import { ChemInputError, requireFinite, isList } from "./warnings";
 
 export interface ProgramPoint {
   time_min: number;
@@ -27,9 +27,10 @@ export interface SolventUseResult {
 export function solventUse(input: SolventUseInput): SolventUseResult {
   const program = input.program;
   const injections = input.injections ?? 1;
-  requireFinite(injections, 'injections', { min: 0 });
-  if (!Number.isInteger(injections)) throw new ChemInputError('invalid-input', 'injections must be a whole number.', 'injections');
-  if (!isList(program) || program.length === 0) throw new ChemInputError('invalid-input', 'program must have at least one point.', 'program');
+  requireFinite(injections, "injections", { min: 0 });
+  if (!Number.isInteger(injections)) throw new ChemInputError("invalid-input", "injections must be a whole number.", "injections");
+  if (!isList(program) || program.length === 0)
+    throw new ChemInputError("invalid-input", "program must have at least one point.", "program");
   const channels = new Set<string>();
   program.forEach((p, i) => {
     requireFinite(p.time_min, `program[${i}].time_min`, { min: 0 });
@@ -40,9 +41,15 @@ export function solventUse(input: SolventUseInput): SolventUseResult {
       sum += pct;
       channels.add(ch);
     }
-    if (Math.abs(sum - 100) > 1e-6) throw new ChemInputError('composition-not-100', `Channels at program point ${i} add up to ${sum} %, not 100 %.`, `program[${i}].composition`);
+    if (Math.abs(sum - 100) > 1e-6)
+      throw new ChemInputError(
+        "composition-not-100",
+        `Channels at program point ${i} add up to ${sum} %, not 100 %.`,
+        `program[${i}].composition`,
+      );
     const prev = program[i - 1];
-    if (prev !== undefined && p.time_min < prev.time_min) throw new ChemInputError('invalid-input', `Program times must not decrease (point ${i}).`, `program[${i}].time_min`);
+    if (prev !== undefined && p.time_min < prev.time_min)
+      throw new ChemInputError("invalid-input", `Program times must not decrease (point ${i}).`, `program[${i}].time_min`);
   });
 
   const byChannel_mL: Record<string, number> = {};

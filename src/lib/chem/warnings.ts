@@ -6,29 +6,29 @@
 
 export const WARNING_CODES = [
   /** Target pH more than 1 unit from every pKa of the buffer system: little buffer capacity. */
-  'ph-far-from-pka',
+  "ph-far-from-pka",
   /** Phosphate, citrate, borate, Tris, alkali salts: not volatile, unsuitable for MS detection (common practice). */
-  'non-volatile-buffer',
+  "non-volatile-buffer",
   /** A buffer salt in a mix with more than about 50 % organic solvent: it may precipitate (common practice). */
-  'precipitation-risk',
+  "precipitation-risk",
   /** A component absorbs above the detection wavelength. */
-  'uv-cutoff',
+  "uv-cutoff",
   /** Ionic strength above the range where the Davies equation is good (about 0.1–0.2 mol/L). */
-  'ionic-strength-high',
+  "ionic-strength-high",
   /** A concentrated acid or base: add it to water, never water to it. */
-  'concentrated-reagent',
+  "concentrated-reagent",
   /** A flammable liquid. */
-  'flammable',
+  "flammable",
   /** No published volume-of-mixing data for these solvents: the final volume assumes ideal mixing. */
-  'no-contraction-data',
+  "no-contraction-data",
   /** Volume-of-mixing data exist for these solvents, but not at this composition: the contraction is an estimate. */
-  'contraction-estimated',
+  "contraction-estimated",
   /** No published viscosity table for this mix at this temperature. */
-  'no-viscosity-data',
+  "no-viscosity-data",
   /** Temperature outside the range of the activity and pKa data (0–50 °C). */
-  'temperature-out-of-range',
+  "temperature-out-of-range",
   /** No density for a liquid reagent: only its mass can be given. */
-  'no-density-data',
+  "no-density-data",
 ] as const;
 
 export type WarningCode = (typeof WARNING_CODES)[number];
@@ -42,13 +42,13 @@ export interface ChemWarning {
 }
 
 export const ERROR_CODES = [
-  'unknown-reagent',
-  'invalid-input',
-  'not-aqueous-solute',
-  'composition-not-100',
-  'target-unreachable',
-  'no-shared-acid-system',
-  'unsupported-unit',
+  "unknown-reagent",
+  "invalid-input",
+  "not-aqueous-solute",
+  "composition-not-100",
+  "target-unreachable",
+  "no-shared-acid-system",
+  "unsupported-unit",
 ] as const;
 
 export type ChemErrorCode = (typeof ERROR_CODES)[number];
@@ -59,7 +59,7 @@ export class ChemInputError extends Error {
   readonly field: string | undefined;
   constructor(code: ChemErrorCode, message: string, field?: string) {
     super(message);
-    this.name = 'ChemInputError';
+    this.name = "ChemInputError";
     this.code = code;
     this.field = field;
   }
@@ -74,14 +74,14 @@ export function pushWarning(list: ChemWarning[], warning: ChemWarning): void {
 }
 
 export function requireFinite(value: number, field: string, { min, positive }: { min?: number; positive?: boolean } = {}): void {
-  if (typeof value !== 'number' || !Number.isFinite(value)) {
-    throw new ChemInputError('invalid-input', `${field} must be a finite number.`, field);
+  if (typeof value !== "number" || !Number.isFinite(value)) {
+    throw new ChemInputError("invalid-input", `${field} must be a finite number.`, field);
   }
   if (positive === true && !(value > 0)) {
-    throw new ChemInputError('invalid-input', `${field} must be greater than zero.`, field);
+    throw new ChemInputError("invalid-input", `${field} must be greater than zero.`, field);
   }
   if (min !== undefined && value < min) {
-    throw new ChemInputError('invalid-input', `${field} must be at least ${min}.`, field);
+    throw new ChemInputError("invalid-input", `${field} must be at least ${min}.`, field);
   }
 }
 

@@ -1,7 +1,7 @@
 /**
  * Properties of water used by the equilibrium solver and the mixing model.
  */
-import { celsiusToKelvin } from './units';
+import { celsiusToKelvin } from "./units";
 
 /**
  * Density of air-free water, g/mL, from the formula of Tanaka et al.,

@@ -53,7 +53,7 @@ export function parseCsv(text: string): { line: number; fields: string[] }[] {
         const start = i;
         while (i < n && text[i] !== "," && text[i] !== "\n" && text[i] !== "\r") i++;
         value = text.slice(start, i);
-        if (value.includes('"')) throw new CsvError('A field holds a quote but does not start with one; quote the whole field.', line);
+        if (value.includes('"')) throw new CsvError("A field holds a quote but does not start with one; quote the whole field.", line);
       }
       fields.push(value);
       const sep = text[i];

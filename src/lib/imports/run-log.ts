@@ -16,19 +16,45 @@ export interface RunLogColumn {
 }
 
 export const RUN_LOG_COLUMNS: readonly RunLogColumn[] = [
-  { name: "run_reference", required: true, description: "The sequence's name on the instrument; unique per instrument. A row whose instrument and run reference are already recorded is recognised and skipped.", example: "SEQ-2611-014" },
+  {
+    name: "run_reference",
+    required: true,
+    description:
+      "The sequence's name on the instrument; unique per instrument. A row whose instrument and run reference are already recorded is recognised and skipped.",
+    example: "SEQ-2611-014",
+  },
   { name: "instrument", required: true, description: "The instrument's name as in Decant.", example: "Wren" },
   { name: "method", required: true, description: "The method's name as in Decant.", example: "Scout gradient 5–95 % B, 12 min" },
   { name: "project", required: true, description: "The project code.", example: "PMG-ROOT-26" },
-  { name: "started_at", required: true, description: "Start time, ISO 8601 (YYYY-MM-DDTHH:MM, UTC unless a zone such as +01:00 is given).", example: "2026-11-03T09:15" },
-  { name: "injections", required: true, description: "Sample injections (whole number, 1 or more); each runs the whole program.", example: "24" },
+  {
+    name: "started_at",
+    required: true,
+    description: "Start time, ISO 8601 (YYYY-MM-DDTHH:MM, UTC unless a zone such as +01:00 is given).",
+    example: "2026-11-03T09:15",
+  },
+  {
+    name: "injections",
+    required: true,
+    description: "Sample injections (whole number, 1 or more); each runs the whole program.",
+    example: "24",
+  },
   { name: "blanks", required: false, description: "Extra blank injections (whole number; empty means 0).", example: "2" },
   { name: "purge_mL", required: false, description: "Purge or prime volume per channel in use, mL (empty means 0).", example: "5" },
-  { name: "batch_A", required: false, description: "Code of the batch on channel A (empty when the channel is not used). Likewise batch_B, batch_C, batch_D.", example: "B26-1103" },
+  {
+    name: "batch_A",
+    required: false,
+    description: "Code of the batch on channel A (empty when the channel is not used). Likewise batch_B, batch_C, batch_D.",
+    example: "B26-1103",
+  },
   { name: "batch_B", required: false, description: "Batch on channel B.", example: "B26-1104" },
   { name: "batch_C", required: false, description: "Batch on channel C.", example: "" },
   { name: "batch_D", required: false, description: "Batch on channel D.", example: "" },
-  { name: "operator", required: false, description: "E-mail of the Decant user who ran it (empty: the person importing).", example: "tech@demo.test" },
+  {
+    name: "operator",
+    required: false,
+    description: "E-mail of the Decant user who ran it (empty: the person importing).",
+    example: "tech@demo.test",
+  },
 ];
 
 export const RUN_LOG_HEADER = RUN_LOG_COLUMNS.map((c) => c.name);
@@ -101,7 +127,10 @@ const MAX_ISSUES = 1_000;
  * Reads a run log and checks each row on its own (and duplicate references within the file).
  * `onProgress(done, total)` is called every `chunk` rows; the browser yields between chunks.
  */
-export async function readRunLog(content: string, options: { onProgress?: (done: number, total: number) => void | Promise<void>; chunk?: number } = {}): Promise<RunLogParse> {
+export async function readRunLog(
+  content: string,
+  options: { onProgress?: (done: number, total: number) => void | Promise<void>; chunk?: number } = {},
+): Promise<RunLogParse> {
   let records: { line: number; fields: string[] }[];
   try {
     records = parseCsv(content);
@@ -110,7 +139,12 @@ export async function readRunLog(content: string, options: { onProgress?: (done:
     throw error;
   }
   const header = records[0];
-  if (!header) return { rows: [], issues: [{ row: 1, column: null, message: "The file is empty: it needs a header row and at least one run." }], rowCount: 0 };
+  if (!header)
+    return {
+      rows: [],
+      issues: [{ row: 1, column: null, message: "The file is empty: it needs a header row and at least one run." }],
+      rowCount: 0,
+    };
   const names = header.fields.map((f) => f.trim().toLowerCase());
   const known = new Map(RUN_LOG_HEADER.map((n) => [n.toLowerCase(), n]));
   const issues: RowIssue[] = [];
@@ -127,10 +161,20 @@ export async function readRunLog(content: string, options: { onProgress?: (done:
     return { rows: [], issues: [{ row: 1, column: null, message: parts.filter(Boolean).join(" ") }], rowCount: records.length - 1 };
   }
   const duplicateHeader = names.find((n, i) => names.indexOf(n) !== i);
-  if (duplicateHeader) return { rows: [], issues: [{ row: 1, column: known.get(duplicateHeader) ?? duplicateHeader, message: "This column appears twice in the header." }], rowCount: records.length - 1 };
+  if (duplicateHeader)
+    return {
+      rows: [],
+      issues: [{ row: 1, column: known.get(duplicateHeader) ?? duplicateHeader, message: "This column appears twice in the header." }],
+      rowCount: records.length - 1,
+    };
   const dataRows = records.length - 1;
   if (dataRows === 0) return { rows: [], issues: [{ row: 1, column: null, message: "The file has a header but no runs." }], rowCount: 0 };
-  if (dataRows > RUN_LOG_MAX_ROWS) return { rows: [], issues: [{ row: 1, column: null, message: `The file has ${dataRows} runs; import at most ${RUN_LOG_MAX_ROWS} at a time.` }], rowCount: dataRows };
+  if (dataRows > RUN_LOG_MAX_ROWS)
+    return {
+      rows: [],
+      issues: [{ row: 1, column: null, message: `The file has ${dataRows} runs; import at most ${RUN_LOG_MAX_ROWS} at a time.` }],
+      rowCount: dataRows,
+    };
 
   const rows: RunLogRow[] = [];
   const seen = new Map<string, number>();
@@ -160,12 +204,26 @@ export async function readRunLog(content: string, options: { onProgress?: (done:
           const code = v[`batch_${ch}`];
           if (code) batches[ch] = code;
         }
-        if (Object.keys(batches).length === 0) issues.push({ row: rowNumber, column: "batch_A", message: "name the batch on at least one channel (batch_A … batch_D)" });
+        if (Object.keys(batches).length === 0)
+          issues.push({ row: rowNumber, column: "batch_A", message: "name the batch on at least one channel (batch_A … batch_D)" });
         const key = `${v.instrument.toLowerCase()}\u0000${v.run_reference}`;
         const earlier = seen.get(key);
-        if (earlier !== undefined) issues.push({ row: rowNumber, column: "run_reference", message: `the same instrument and run reference as row ${earlier}` });
+        if (earlier !== undefined)
+          issues.push({ row: rowNumber, column: "run_reference", message: `the same instrument and run reference as row ${earlier}` });
         else seen.set(key, rowNumber);
-        rows.push({ row: rowNumber, reference: v.run_reference, instrument: v.instrument, method: v.method, project: v.project, startedAt: v.started_at, injections: v.injections, blanks: v.blanks, purge_mL: v.purge_mL, batches, operator: v.operator });
+        rows.push({
+          row: rowNumber,
+          reference: v.run_reference,
+          instrument: v.instrument,
+          method: v.method,
+          project: v.project,
+          startedAt: v.started_at,
+          injections: v.injections,
+          blanks: v.blanks,
+          purge_mL: v.purge_mL,
+          batches,
+          operator: v.operator,
+        });
       }
     }
     if (issues.length >= MAX_ISSUES) {

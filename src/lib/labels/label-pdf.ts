@@ -5,9 +5,28 @@
  * placed wherever it is printed.
  */
 import {
-  PDFDocument, PDFName, beginText, concatTransformationMatrix, drawObject, drawSvgPath, endText, fill, popGraphicsState, pushGraphicsState,
-  rectangle, rgb, setFillingColor, setFontAndSize, setLineWidth, setStrokingColor, setTextMatrix, showText, stroke,
-  type PDFFont, type PDFPage, type PDFRef,
+  PDFDocument,
+  PDFName,
+  beginText,
+  concatTransformationMatrix,
+  drawObject,
+  drawSvgPath,
+  endText,
+  fill,
+  popGraphicsState,
+  pushGraphicsState,
+  rectangle,
+  rgb,
+  setFillingColor,
+  setFontAndSize,
+  setLineWidth,
+  setStrokingColor,
+  setTextMatrix,
+  showText,
+  stroke,
+  type PDFFont,
+  type PDFPage,
+  type PDFRef,
 } from "pdf-lib";
 import type { GhsPictogram } from "../chem";
 import type { LabelStock } from "../schemas/labels";
@@ -104,10 +123,22 @@ function pictogramForms(doc: PDFDocument) {
     if (!form) {
       const operators = [
         ...drawSvgPath(DIAMOND, { x: 0, y: 0, scale: 1, color: WHITE, borderColor: GHS_RED, borderWidth }),
-        ...PICTOGRAM_SHAPES[code].flatMap((shape) => drawSvgPath(shape.d, { x: 0, y: 0, scale: SYMBOL_SCALE, color: shape.fill === "black" ? BLACK : WHITE, borderColor: undefined, borderWidth: 0 })),
+        ...PICTOGRAM_SHAPES[code].flatMap((shape) =>
+          drawSvgPath(shape.d, {
+            x: 0,
+            y: 0,
+            scale: SYMBOL_SCALE,
+            color: shape.fill === "black" ? BLACK : WHITE,
+            borderColor: undefined,
+            borderWidth: 0,
+          }),
+        ),
       ];
       const reach = 50 + borderWidth;
-      form = { name: `${code}-${forms.size + 1}`, ref: doc.context.register(doc.context.formXObject(operators, { BBox: [-reach, -reach, reach, reach] })) };
+      form = {
+        name: `${code}-${forms.size + 1}`,
+        ref: doc.context.register(doc.context.formXObject(operators, { BBox: [-reach, -reach, reach, reach] })),
+      };
       forms.set(key, form);
     }
     return form;
@@ -129,16 +160,31 @@ function labelForms(doc: PDFDocument, fonts: LabelFonts, outline: boolean) {
     // Widths are in the pictogram's box, so they scale with it.
     const pictograms = layout.pictograms.map((p) => ({ p, form: pictogramForm(p.code, Math.max(0.8, p.half * 0.1)) }));
     const operators = [
-      ...(outline ? [pushGraphicsState(), setStrokingColor(OUTLINE), setLineWidth(0.5), rectangle(0.25, 0.25, layout.width - 0.5, layout.height - 0.5), stroke(), popGraphicsState()] : []),
+      ...(outline
+        ? [
+            pushGraphicsState(),
+            setStrokingColor(OUTLINE),
+            setLineWidth(0.5),
+            rectangle(0.25, 0.25, layout.width - 0.5, layout.height - 0.5),
+            stroke(),
+            popGraphicsState(),
+          ]
+        : []),
       // One fill per bar (a single rectangle is what viewers snap to whole pixels).
-      pushGraphicsState(), setFillingColor(BLACK), ...b.bars.flatMap((bar) => [rectangle(bar.x, b.y, bar.width, b.height), fill()]), popGraphicsState(),
-      pushGraphicsState(), beginText(), setFillingColor(INK),
+      pushGraphicsState(),
+      setFillingColor(BLACK),
+      ...b.bars.flatMap((bar) => [rectangle(bar.x, b.y, bar.width, b.height), fill()]),
+      popGraphicsState(),
+      pushGraphicsState(),
+      beginText(),
+      setFillingColor(INK),
       ...layout.texts.flatMap((t) => [
         setFontAndSize(t.bold ? fontNames.bold : fontNames.regular, t.size),
         setTextMatrix(1, 0, 0, 1, t.x, t.y),
         showText((t.bold ? fonts.bold : fonts.regular).encodeText(clean(t.text))),
       ]),
-      endText(), popGraphicsState(),
+      endText(),
+      popGraphicsState(),
       ...pictograms.flatMap(({ p, form }) => place(form, p.cx, p.cy, p.half / 50)),
     ];
     const resources = {

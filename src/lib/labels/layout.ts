@@ -91,8 +91,16 @@ function blocksFor(c: LabelContent, bottle: number, compact: boolean): Block[] {
   ];
   if (c.storage) blocks.push({ id: "storage", text: `Storage: ${c.storage}`, bold: false, scale: 1, required: true, maxLines: 2 });
   if (c.deviation) blocks.push({ id: "deviation", text: `DEVIATION: ${c.deviation}`, bold: true, scale: 1, required: true, maxLines: 3 });
-  if (c.hazardStatements.length) blocks.push({ id: "hazards", text: c.hazardStatements.join("; "), bold: false, scale: 0.9, required: false, maxLines: 4 });
-  blocks.push({ id: "sop", text: "Hazards of components at 1 % or more. Follow your laboratory's SOPs and local regulations.", bold: false, scale: 0.85, required: false, maxLines: 2 });
+  if (c.hazardStatements.length)
+    blocks.push({ id: "hazards", text: c.hazardStatements.join("; "), bold: false, scale: 0.9, required: false, maxLines: 4 });
+  blocks.push({
+    id: "sop",
+    text: "Hazards of components at 1 % or more. Follow your laboratory's SOPs and local regulations.",
+    bold: false,
+    scale: 0.85,
+    required: false,
+    maxLines: 2,
+  });
   return blocks;
 }
 
@@ -133,7 +141,7 @@ export function layoutLabel(content: LabelContent, bottle: number, size: { width
   // Pictograms: a column on the right, each diamond sized to the label.
   const count = content.pictograms.length;
   const maxHalf = Math.min(innerH * 0.2, 26);
-  const half = count ? Math.max(6, Math.min(maxHalf, (innerH / count) / 2 - 1)) : 0;
+  const half = count ? Math.max(6, Math.min(maxHalf, innerH / count / 2 - 1)) : 0;
   const perColumn = count ? Math.max(1, Math.floor(innerH / (2 * half + 2))) : 0;
   const columns = count ? Math.ceil(count / perColumn) : 0;
   const pictoColumnW = columns * (2 * half + 2);
@@ -154,14 +162,27 @@ export function layoutLabel(content: LabelContent, bottle: number, size: { width
   const barX = padding + QUIET_ZONE_MODULES * moduleWidth;
   const barY = height - padding - barHeight;
   const barcode = {
-    x: barX, y: barY, height: barHeight, moduleWidth, modules: symbol.modules,
+    x: barX,
+    y: barY,
+    height: barHeight,
+    moduleWidth,
+    modules: symbol.modules,
     bars: symbol.bars.map((b) => ({ x: barX + b.start * moduleWidth, width: b.width * moduleWidth })),
   };
 
   const codeSize = Math.max(6, Math.min(13, barHeight * 0.42));
   const texts: TextItem[] = [];
   let cursor = barY - codeSize * 1.05;
-  texts.push({ kind: "text", block: "code", text: content.code, x: padding, y: cursor, size: codeSize, bold: true, width: m.width(content.code, codeSize, true) });
+  texts.push({
+    kind: "text",
+    block: "code",
+    text: content.code,
+    x: padding,
+    y: cursor,
+    size: codeSize,
+    bold: true,
+    width: m.width(content.code, codeSize, true),
+  });
   // The signal word shares the code's line, at the right of the text column.
   if (content.signalWord) {
     const word = content.signalWord.toUpperCase();
@@ -232,7 +253,16 @@ export function layoutLabel(content: LabelContent, bottle: number, size: { width
   for (const { block, lines, size: s } of chosen) {
     for (const line of lines) {
       cursor -= s * LINE_GAP;
-      texts.push({ kind: "text", block: block.id, text: line, x: padding, y: cursor + s * 0.22, size: s, bold: block.bold, width: m.width(line, s, block.bold) });
+      texts.push({
+        kind: "text",
+        block: block.id,
+        text: line,
+        x: padding,
+        y: cursor + s * 0.22,
+        size: s,
+        bold: block.bold,
+        width: m.width(line, s, block.bold),
+      });
     }
   }
   return { width, height, padding, texts, barcode, pictograms, omitted, truncated, overflow };

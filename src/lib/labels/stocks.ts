@@ -7,12 +7,29 @@ export const DEFAULT_LABEL_STOCKS: readonly LabelStock[] = [
   { id: "roll-100x50", name: "Roll, 100 × 50 mm", kind: "roll", width_mm: 100, height_mm: 50 },
   { id: "bottle-2x1in", name: "Small bottle label, 2 × 1 in", kind: "roll", width_mm: 50.8, height_mm: 25.4 },
   {
-    id: "a4-2x6", name: "A4 sheet, 2 × 6 labels of 95 × 45 mm", kind: "sheet", width_mm: 95, height_mm: 45,
+    id: "a4-2x6",
+    name: "A4 sheet, 2 × 6 labels of 95 × 45 mm",
+    kind: "sheet",
+    width_mm: 95,
+    height_mm: 45,
     sheet: { pageWidth_mm: 210, pageHeight_mm: 297, columns: 2, rows: 6, marginLeft_mm: 7.5, marginTop_mm: 6, gapX_mm: 5, gapY_mm: 3 },
   },
   {
-    id: "letter-2x5", name: "US Letter sheet, 2 × 5 labels of 4 × 2 in", kind: "sheet", width_mm: 101.6, height_mm: 50.8,
-    sheet: { pageWidth_mm: 215.9, pageHeight_mm: 279.4, columns: 2, rows: 5, marginLeft_mm: 4.7625, marginTop_mm: 12.7, gapX_mm: 3.175, gapY_mm: 0 },
+    id: "letter-2x5",
+    name: "US Letter sheet, 2 × 5 labels of 4 × 2 in",
+    kind: "sheet",
+    width_mm: 101.6,
+    height_mm: 50.8,
+    sheet: {
+      pageWidth_mm: 215.9,
+      pageHeight_mm: 279.4,
+      columns: 2,
+      rows: 5,
+      marginLeft_mm: 4.7625,
+      marginTop_mm: 12.7,
+      gapX_mm: 3.175,
+      gapY_mm: 0,
+    },
   },
 ];
 

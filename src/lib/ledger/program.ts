@@ -14,7 +14,13 @@ export function rowsToProgram(rows: readonly ProgramRow[]): ProgramPoint[] {
 }
 
 export function programToRows(program: readonly ProgramPoint[]): ProgramRow[] {
-  return program.map((p) => ({ time_min: p.time_min, flow_mL_min: p.flow_mL_min, B: p.composition.B ?? 0, C: p.composition.C ?? 0, D: p.composition.D ?? 0 }));
+  return program.map((p) => ({
+    time_min: p.time_min,
+    flow_mL_min: p.flow_mL_min,
+    B: p.composition.B ?? 0,
+    C: p.composition.C ?? 0,
+    D: p.composition.D ?? 0,
+  }));
 }
 
 /** Channels the program draws from (a channel at 0 % throughout draws nothing). */

@@ -57,7 +57,10 @@ export interface GradientSegment {
 
 /** Multiplies every volume of a solventUse result (per 100 injections from one). */
 export function scaleUse(use: SolventUseResult, factor: number): SolventUseResult {
-  return { total_mL: use.total_mL * factor, byChannel_mL: Object.fromEntries(Object.entries(use.byChannel_mL).map(([ch, v]) => [ch, v * factor])) };
+  return {
+    total_mL: use.total_mL * factor,
+    byChannel_mL: Object.fromEntries(Object.entries(use.byChannel_mL).map(([ch, v]) => [ch, v * factor])),
+  };
 }
 
 const lastTime = (program: readonly ProgramPoint[]) => program[program.length - 1]?.time_min ?? 0;
@@ -95,7 +98,12 @@ export function pointAt(program: readonly ProgramPoint[], t: number): ProgramPoi
  * the rows after the gradient (wash, return to start, re-equilibration) are stretched or shrunk
  * in time to fill the margin. Without such rows, the last composition is held for the margin.
  */
-export function adjustGradientProgram(program: readonly ProgramPoint[], segment: GradientSegment, lastPeak_min: number, margin_min: number): ProgramPoint[] {
+export function adjustGradientProgram(
+  program: readonly ProgramPoint[],
+  segment: GradientSegment,
+  lastPeak_min: number,
+  margin_min: number,
+): ProgramPoint[] {
   const cut = Math.max(lastPeak_min, segment.start_min);
   const head = program.filter((p) => p.time_min < Math.min(cut, segment.end_min)).map((p) => ({ ...p, composition: { ...p.composition } }));
   if (cut <= segment.end_min) head.push(pointAt(program, cut));
@@ -105,7 +113,10 @@ export function adjustGradientProgram(program: readonly ProgramPoint[], segment:
   const last = head[head.length - 1]!;
   if (margin_min <= 0) return head;
   if (span <= 0) return [...head, { ...last, composition: { ...last.composition }, time_min: cut + margin_min }];
-  return [...head, ...tail.map((p) => ({ ...p, composition: { ...p.composition }, time_min: cut + ((p.time_min - segment.end_min) / span) * margin_min }))];
+  return [
+    ...head,
+    ...tail.map((p) => ({ ...p, composition: { ...p.composition }, time_min: cut + ((p.time_min - segment.end_min) / span) * margin_min })),
+  ];
 }
 
 /** An isocratic program on A and B: the target %B for the whole run at one flow. */
@@ -137,13 +148,23 @@ export function whatIf(input: WhatIfInput): WhatIfResult {
   const isoRun = iso.retention_min + margin;
   const isocratic = { ...scenario(iso.retention_min, isoRun, isocraticProgram(input.targetPercentB, flow, isoRun)), k: iso.k };
 
-  if (!(fit.S > 0)) warnings.push("Retention does not fall as %B rises in these runs (S ≤ 0): check the runs; the LSS model does not apply.");
-  else if (fit.S < 2 || fit.S > 10) warnings.push(`S = ${fit.S.toFixed(2)} is unusual (about 4 for small molecules; larger for peptides and proteins): check the runs and the dead time.`);
+  if (!(fit.S > 0))
+    warnings.push("Retention does not fall as %B rises in these runs (S ≤ 0): check the runs; the LSS model does not apply.");
+  else if (fit.S < 2 || fit.S > 10)
+    warnings.push(
+      `S = ${fit.S.toFixed(2)} is unusual (about 4 for small molecules; larger for peptides and proteins): check the runs and the dead time.`,
+    );
   const bs = input.runs.map((r) => r.percentB);
-  if (input.targetPercentB < Math.min(...bs) - 1e-9 || input.targetPercentB > Math.max(...bs) + 1e-9) warnings.push("The target %B lies outside the scouting runs: the prediction is an extrapolation.");
-  if (input.runs.length > 2 && fit.r2 < 0.99) warnings.push(`The runs fit a straight line of log k against %B only loosely (r² = ${fit.r2.toFixed(3)}).`);
-  if (iso.k < 1) warnings.push(`k = ${iso.k.toFixed(2)} at ${input.targetPercentB} %B: the last peak leaves close to the dead time, where resolution suffers.`);
-  if (iso.k > 20) warnings.push(`k = ${iso.k.toFixed(1)} at ${input.targetPercentB} %B: long runs and broad peaks; a gradient may suit better.`);
+  if (input.targetPercentB < Math.min(...bs) - 1e-9 || input.targetPercentB > Math.max(...bs) + 1e-9)
+    warnings.push("The target %B lies outside the scouting runs: the prediction is an extrapolation.");
+  if (input.runs.length > 2 && fit.r2 < 0.99)
+    warnings.push(`The runs fit a straight line of log k against %B only loosely (r² = ${fit.r2.toFixed(3)}).`);
+  if (iso.k < 1)
+    warnings.push(
+      `k = ${iso.k.toFixed(2)} at ${input.targetPercentB} %B: the last peak leaves close to the dead time, where resolution suffers.`,
+    );
+  if (iso.k > 20)
+    warnings.push(`k = ${iso.k.toFixed(1)} at ${input.targetPercentB} %B: long runs and broad peaks; a gradient may suit better.`);
 
   const segment = gradientSegment(input.program);
   let gradient: WhatIfResult["gradient"] = null;
@@ -151,9 +172,18 @@ export function whatIf(input: WhatIfInput): WhatIfResult {
     const dwell_min = (input.dwell_mL ?? 0) / flow;
     // Rows before the gradient hold the initial composition: to the solute they are more dwell.
     const delay = dwell_min + segment.start_min;
-    const g = gradientRetention({ logKw: fit.logKw, S: fit.S, deadTime_min: t0, dwell_min: delay, gradient: { from_percentB: segment.from_percentB, to_percentB: segment.to_percentB, time_min: segment.end_min - segment.start_min } });
+    const g = gradientRetention({
+      logKw: fit.logKw,
+      S: fit.S,
+      deadTime_min: t0,
+      dwell_min: delay,
+      gradient: { from_percentB: segment.from_percentB, to_percentB: segment.to_percentB, time_min: segment.end_min - segment.start_min },
+    });
     const elutesAfterGradient = g.retention_min > segment.end_min + dwell_min + t0;
-    if (elutesAfterGradient) warnings.push("Under the gradient, the last peak leaves after the gradient has ended: it is taken to finish at the final composition.");
+    if (elutesAfterGradient)
+      warnings.push(
+        "Under the gradient, the last peak leaves after the gradient has ended: it is taken to finish at the final composition.",
+      );
     const runTime = g.retention_min + margin;
     const program = adjustGradientProgram(input.program, segment, g.retention_min, margin);
     gradient = { ...scenario(g.retention_min, runTime, program), kStar: g.kStar, b: g.b, dwell_min, segment, elutesAfterGradient };

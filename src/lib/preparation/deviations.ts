@@ -26,13 +26,20 @@ export function findDeviations(input: {
   const { tolerances: tol } = input;
   if (input.targetPH != null && input.measuredPH != null) {
     const d = input.measuredPH - input.targetPH;
-    if (Math.abs(d) > tol.pH + 1e-9) out.push({ field: "measuredPH", message: `pH ${input.measuredPH.toFixed(2)} is ${d > 0 ? "+" : ""}${d.toFixed(2)} from the target ${input.targetPH.toFixed(2)} (tolerance ±${tol.pH})` });
+    if (Math.abs(d) > tol.pH + 1e-9)
+      out.push({
+        field: "measuredPH",
+        message: `pH ${input.measuredPH.toFixed(2)} is ${d > 0 ? "+" : ""}${d.toFixed(2)} from the target ${input.targetPH.toFixed(2)} (tolerance ±${tol.pH})`,
+      });
   }
   input.components.forEach((c, i) => {
     if (c.actual == null || !(c.target > 0)) return;
     const pct = ((c.actual - c.target) / c.target) * 100;
     if (Math.abs(pct) > tol.amount_percent + 1e-9) {
-      out.push({ field: `components.${i}.actualAmount`, message: `${c.name}: ${fmt(c.actual)} ${c.unit} is ${pct > 0 ? "+" : ""}${pct.toFixed(1)} % from the target ${fmt(c.target)} ${c.unit} (tolerance ±${tol.amount_percent} %)` });
+      out.push({
+        field: `components.${i}.actualAmount`,
+        message: `${c.name}: ${fmt(c.actual)} ${c.unit} is ${pct > 0 ? "+" : ""}${pct.toFixed(1)} % from the target ${fmt(c.target)} ${c.unit} (tolerance ±${tol.amount_percent} %)`,
+      });
     }
   });
   return out;

@@ -18,11 +18,37 @@ export interface ExpiryRule {
 
 /** Common practice, not a regulation: each facility sets its own in the preparation settings. */
 export const DEFAULT_EXPIRY_RULES: readonly ExpiryRule[] = [
-  { kind: "labile-additive", label: "With a labile additive", shelfLife_h: 24, reason: "Volatile or unstable additives (ammonium bicarbonate, ammonia) change the pH within a day; common practice is to make them daily." },
-  { kind: "aqueous-buffer", label: "Aqueous buffer without organic", shelfLife_h: 48, reason: "Aqueous buffers without organic solvent support microbial growth; common practice is to make them every one to two days." },
-  { kind: "aqueous-acidified", label: "Water with acid or additive, no salt", shelfLife_h: 7 * 24, reason: "Acidified water resists growth better than a salt buffer but still takes up contaminants; common practice is about a week." },
-  { kind: "aqueous-organic", label: "Aqueous with organic", shelfLife_h: 7 * 24, reason: "Organic solvent slows microbial growth, but evaporation shifts the composition; common practice is about a week." },
-  { kind: "neat-organic", label: "Neat organic (with or without additive)", shelfLife_h: 30 * 24, reason: "Organic solvents with volatile additives keep about a month capped; common practice." },
+  {
+    kind: "labile-additive",
+    label: "With a labile additive",
+    shelfLife_h: 24,
+    reason:
+      "Volatile or unstable additives (ammonium bicarbonate, ammonia) change the pH within a day; common practice is to make them daily.",
+  },
+  {
+    kind: "aqueous-buffer",
+    label: "Aqueous buffer without organic",
+    shelfLife_h: 48,
+    reason: "Aqueous buffers without organic solvent support microbial growth; common practice is to make them every one to two days.",
+  },
+  {
+    kind: "aqueous-acidified",
+    label: "Water with acid or additive, no salt",
+    shelfLife_h: 7 * 24,
+    reason: "Acidified water resists growth better than a salt buffer but still takes up contaminants; common practice is about a week.",
+  },
+  {
+    kind: "aqueous-organic",
+    label: "Aqueous with organic",
+    shelfLife_h: 7 * 24,
+    reason: "Organic solvent slows microbial growth, but evaporation shifts the composition; common practice is about a week.",
+  },
+  {
+    kind: "neat-organic",
+    label: "Neat organic (with or without additive)",
+    shelfLife_h: 30 * 24,
+    reason: "Organic solvents with volatile additives keep about a month capped; common practice.",
+  },
 ];
 
 export interface LotExpiry {
@@ -49,7 +75,12 @@ export function lotExpired(expiresOn: string, now = new Date()): boolean {
   return lotEndOfLife(expiresOn).getTime() <= now.getTime();
 }
 
-export function batchExpiry(input: { kind: MixtureKind; preparedAt: Date; rules: readonly ExpiryRule[]; lots: readonly LotExpiry[] }): BatchExpiry {
+export function batchExpiry(input: {
+  kind: MixtureKind;
+  preparedAt: Date;
+  rules: readonly ExpiryRule[];
+  lots: readonly LotExpiry[];
+}): BatchExpiry {
   const rule = input.rules.find((r) => r.kind === input.kind) ?? DEFAULT_EXPIRY_RULES.find((r) => r.kind === input.kind)!;
   let expiresAt = new Date(input.preparedAt.getTime() + rule.shelfLife_h * 3_600_000);
   let limitedBy: LotExpiry | null = null;

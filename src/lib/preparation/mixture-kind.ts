@@ -16,9 +16,11 @@ export function mixtureKind(spec: Pick<RecipeSpec, "solvents" | "buffer" | "addi
   const organic = 100 - water;
   if (water <= 0) return "neat-organic";
   if (organic > 0) return "aqueous-organic";
-  const salt = Boolean(spec.buffer) || (spec.additives ?? []).some((a) => {
-    const r = getReagent(a.reagent);
-    return r !== undefined && r.form === "solid";
-  });
+  const salt =
+    Boolean(spec.buffer) ||
+    (spec.additives ?? []).some((a) => {
+      const r = getReagent(a.reagent);
+      return r !== undefined && r.form === "solid";
+    });
   return salt ? "aqueous-buffer" : "aqueous-acidified";
 }

@@ -13,7 +13,10 @@ export const signInSchema = z.object({
   /** The account's e-mail address. */
   email,
   /** The password; checked, never stored or logged. */
-  password: z.string({ required_error: "Enter your password", invalid_type_error: "must be text" }).min(1, "Enter your password").max(200, "is too long"),
+  password: z
+    .string({ required_error: "Enter your password", invalid_type_error: "must be text" })
+    .min(1, "Enter your password")
+    .max(200, "is too long"),
 });
 export type SignInInput = z.infer<typeof signInSchema>;
 
@@ -67,7 +70,10 @@ export const inviteUserSchema = z
     /** Required for client contacts (and ignored for other roles): the organisation they belong to. */
     clientId: optionalId,
   })
-  .refine((v) => v.role !== "client" || v.clientId !== undefined, { path: ["clientId"], message: "A client contact needs a client organisation" });
+  .refine((v) => v.role !== "client" || v.clientId !== undefined, {
+    path: ["clientId"],
+    message: "A client contact needs a client organisation",
+  });
 export type InviteUserInput = z.infer<typeof inviteUserSchema>;
 
 /** `PATCH /api/users/{id}`: change role (and organisation), or deactivate / reactivate. */
@@ -80,11 +86,17 @@ export const updateUserSchema = z
     active: z.boolean({ invalid_type_error: "must be true or false" }).optional(),
   })
   .strict()
-  .refine((v) => v.role !== undefined || v.clientId !== undefined || v.active !== undefined, { path: ["body"], message: "Say what to change: role, clientId or active" });
+  .refine((v) => v.role !== undefined || v.clientId !== undefined || v.active !== undefined, {
+    path: ["body"],
+    message: "Say what to change: role, clientId or active",
+  });
 export type UpdateUserInput = z.infer<typeof updateUserSchema>;
 
 /** A numeric id in a route such as `/api/users/{id}`. */
-export const idParam = z.coerce.number({ invalid_type_error: "must be a number" }).int("must be a whole number").positive("must be a positive id");
+export const idParam = z.coerce
+  .number({ invalid_type_error: "must be a number" })
+  .int("must be a whole number")
+  .positive("must be a positive id");
 
 /** Route parameters of `/api/users/{id}` and the like. */
 export const idParams = z.object({ id: idParam });

@@ -2,9 +2,13 @@ import { z } from "zod";
 
 /** A database id from a form or a query string; "" and null mean "none". */
 export const id = (label = "Choose one") =>
-  z.preprocess((v) => (v === "" || v === null ? undefined : v), z.coerce.number({ required_error: label, invalid_type_error: label }).int(label).positive(label));
+  z.preprocess(
+    (v) => (v === "" || v === null ? undefined : v),
+    z.coerce.number({ required_error: label, invalid_type_error: label }).int(label).positive(label),
+  );
 
-export const optionalId = () => z.preprocess((v) => (v === "" || v === null ? undefined : v), z.coerce.number().int().positive().optional());
+export const optionalId = () =>
+  z.preprocess((v) => (v === "" || v === null ? undefined : v), z.coerce.number().int().positive().optional());
 
 /** A number typed into a field (forms send text). */
 export const amount = (options: { min?: number; max?: number; label?: string } = {}) =>
@@ -53,11 +57,18 @@ export const day = (label: string) =>
   z
     .string({ required_error: `${label}: give a day as YYYY-MM-DD` })
     .regex(/^\d{4}-\d{2}-\d{2}$/, "give a day as YYYY-MM-DD")
-    .refine((v) => !Number.isNaN(Date.parse(`${v}T00:00:00Z`)) && new Date(`${v}T00:00:00Z`).toISOString().startsWith(v), "is not a calendar day")
+    .refine(
+      (v) => !Number.isNaN(Date.parse(`${v}T00:00:00Z`)) && new Date(`${v}T00:00:00Z`).toISOString().startsWith(v),
+      "is not a calendar day",
+    )
     .refine((v) => Number(v.slice(0, 4)) >= FIRST_YEAR && Number(v.slice(0, 4)) <= LAST_YEAR, `must be in ${FIRST_YEAR}–${LAST_YEAR}`);
 
 export const CHANNELS = ["A", "B", "C", "D"] as const;
 export type Channel = (typeof CHANNELS)[number];
 
 /** A client-chosen key that makes a repeated submit record once. */
-export const idempotencyKey = z.string({ required_error: "is missing (reload the form)" }).min(8, "is too short").max(80, "is too long").regex(/^[A-Za-z0-9_:-]+$/, "may hold letters, digits, _ : - only");
+export const idempotencyKey = z
+  .string({ required_error: "is missing (reload the form)" })
+  .min(8, "is too short")
+  .max(80, "is too long")
+  .regex(/^[A-Za-z0-9_:-]+$/, "may hold letters, digits, _ : - only");

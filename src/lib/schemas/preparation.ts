@@ -6,13 +6,20 @@ import { labelStockListSchema } from "./labels";
 export const expiryRuleSchema = z.object({
   kind: z.enum(MIXTURE_KINDS),
   label: z.string().trim().min(3, "Give the rule a name").max(80),
-  shelfLife_h: z.coerce.number({ invalid_type_error: "Shelf life must be a number of hours" }).int("Whole hours").min(1, "At least 1 h").max(24 * 366, "At most a year"),
+  shelfLife_h: z.coerce
+    .number({ invalid_type_error: "Shelf life must be a number of hours" })
+    .int("Whole hours")
+    .min(1, "At least 1 h")
+    .max(24 * 366, "At most a year"),
   reason: z.string().trim().min(5, "Say why (shown to the technician)").max(300),
 });
 
 export const tolerancesSchema = z.object({
   pH: z.coerce.number({ invalid_type_error: "pH tolerance must be a number" }).min(0.001, "At least 0.001").max(1, "At most 1 pH unit"),
-  amount_percent: z.coerce.number({ invalid_type_error: "Amount tolerance must be a number" }).min(0.1, "At least 0.1 %").max(20, "At most 20 %"),
+  amount_percent: z.coerce
+    .number({ invalid_type_error: "Amount tolerance must be a number" })
+    .min(0.1, "At least 0.1 %")
+    .max(20, "At most 20 %"),
 });
 
 export const preparationSettingsSchema = z
@@ -24,12 +31,21 @@ export const preparationSettingsSchema = z
   })
   .superRefine((s, ctx) => {
     const kinds = new Set(s.expiryRules.map((r) => r.kind));
-    if (kinds.size !== MIXTURE_KINDS.length) ctx.addIssue({ code: "custom", path: ["expiryRules"], message: "Each kind of mobile phase needs exactly one rule" });
-    if (!s.labelStocks.some((st) => st.id === s.defaultLabelStockId)) ctx.addIssue({ code: "custom", path: ["defaultLabelStockId"], message: "The default stock must be one of the stocks" });
+    if (kinds.size !== MIXTURE_KINDS.length)
+      ctx.addIssue({ code: "custom", path: ["expiryRules"], message: "Each kind of mobile phase needs exactly one rule" });
+    if (!s.labelStocks.some((st) => st.id === s.defaultLabelStockId))
+      ctx.addIssue({ code: "custom", path: ["defaultLabelStockId"], message: "The default stock must be one of the stocks" });
   });
 export type PreparationSettings = z.infer<typeof preparationSettingsSchema>;
 
-const amount = z.preprocess((v) => (v === "" || v === null || v === undefined || (typeof v === "number" && Number.isNaN(v)) ? null : v), z.coerce.number({ invalid_type_error: "Give a number" }).min(0, "Cannot be negative").max(1_000_000, "At most 1,000,000 (1,000 L or kg)").nullable());
+const amount = z.preprocess(
+  (v) => (v === "" || v === null || v === undefined || (typeof v === "number" && Number.isNaN(v)) ? null : v),
+  z.coerce
+    .number({ invalid_type_error: "Give a number" })
+    .min(0, "Cannot be negative")
+    .max(1_000_000, "At most 1,000,000 (1,000 L or kg)")
+    .nullable(),
+);
 
 /** `POST /api/batches`: what the preparation form sends. Targets are recomputed on the server. */
 export const batchCreateSchema = z
@@ -37,13 +53,34 @@ export const batchCreateSchema = z
     /** Made once per form; a second submit with the same key answers the batch already recorded. */
     idempotencyKey: z.string().regex(/^[A-Za-z0-9_-]{8,80}$/, "idempotencyKey: 8–80 letters, digits, - or _"),
     recipeVersionId: z.coerce.number({ invalid_type_error: "Pick a recipe" }).int().positive("Pick a recipe"),
-    volume_mL: z.coerce.number({ invalid_type_error: "Give the batch volume" }).positive("The batch volume must be more than 0").max(100_000, "At most 100 L in one batch"),
-    bottles: z.coerce.number({ invalid_type_error: "Give the number of bottles" }).int("Whole bottles").min(1, "At least one bottle").max(50, "At most 50 bottles"),
-    bottleSize_mL: z.coerce.number({ invalid_type_error: "Give the bottle size" }).int("Whole millilitres").min(10, "At least 10 mL").max(25_000, "At most 25 L"),
+    volume_mL: z.coerce
+      .number({ invalid_type_error: "Give the batch volume" })
+      .positive("The batch volume must be more than 0")
+      .max(100_000, "At most 100 L in one batch"),
+    bottles: z.coerce
+      .number({ invalid_type_error: "Give the number of bottles" })
+      .int("Whole bottles")
+      .min(1, "At least one bottle")
+      .max(50, "At most 50 bottles"),
+    bottleSize_mL: z.coerce
+      .number({ invalid_type_error: "Give the bottle size" })
+      .int("Whole millilitres")
+      .min(10, "At least 10 mL")
+      .max(25_000, "At most 25 L"),
     /** Temperature at which the batch is made. */
     temperature_C: z.coerce.number({ invalid_type_error: "Give the temperature" }).min(5, "5–40 °C").max(40, "5–40 °C").default(22),
-    measuredPH: z.preprocess((v) => (v === "" || (typeof v === "number" && Number.isNaN(v)) ? null : v), z.coerce.number({ invalid_type_error: "pH must be a number" }).min(0, "pH 0–14").max(14, "pH 0–14").nullable()).optional(),
-    phMeterTemperature_C: z.preprocess((v) => (v === "" || (typeof v === "number" && Number.isNaN(v)) ? null : v), z.coerce.number().min(0, "0–50 °C").max(50, "0–50 °C").nullable()).optional(),
+    measuredPH: z
+      .preprocess(
+        (v) => (v === "" || (typeof v === "number" && Number.isNaN(v)) ? null : v),
+        z.coerce.number({ invalid_type_error: "pH must be a number" }).min(0, "pH 0–14").max(14, "pH 0–14").nullable(),
+      )
+      .optional(),
+    phMeterTemperature_C: z
+      .preprocess(
+        (v) => (v === "" || (typeof v === "number" && Number.isNaN(v)) ? null : v),
+        z.coerce.number().min(0, "0–50 °C").max(50, "0–50 °C").nullable(),
+      )
+      .optional(),
     components: z
       .array(
         z.object({
@@ -58,11 +95,19 @@ export const batchCreateSchema = z
       .max(30, "At most 30 components"),
     deviationReason: z.string().trim().max(500, "At most 500 characters").optional(),
     /** The room the batch is kept in (counted in its flammables on hand); the first known room when left out. */
-    room: z.preprocess((v) => (v === "" || v === null ? undefined : v), z.string().trim().min(1).max(40, "At most 40 characters").optional()),
+    room: z.preprocess(
+      (v) => (v === "" || v === null ? undefined : v),
+      z.string().trim().min(1).max(40, "At most 40 characters").optional(),
+    ),
   })
   .strict()
   .superRefine((b, ctx) => {
-    if (b.bottles * b.bottleSize_mL < b.volume_mL) ctx.addIssue({ code: "custom", path: ["bottleSize_mL"], message: `${b.bottles} × ${b.bottleSize_mL} mL bottles cannot hold ${b.volume_mL} mL` });
+    if (b.bottles * b.bottleSize_mL < b.volume_mL)
+      ctx.addIssue({
+        code: "custom",
+        path: ["bottleSize_mL"],
+        message: `${b.bottles} × ${b.bottleSize_mL} mL bottles cannot hold ${b.volume_mL} mL`,
+      });
   });
 export type BatchCreateInput = z.infer<typeof batchCreateSchema>;
 
@@ -79,5 +124,8 @@ export const bottleUpdateSchema = z
 export const batchLookupQuery = z.object({ code: z.string().trim().min(2, "Type or scan a batch code").max(40) }).strict();
 
 /** A numeric id in a route, e.g. `/api/batches/{id}`. */
-export const idParam = z.coerce.number({ invalid_type_error: "id must be a number" }).int("id must be a whole number").positive("id must be positive");
+export const idParam = z.coerce
+  .number({ invalid_type_error: "id must be a number" })
+  .int("id must be a whole number")
+  .positive("id must be positive");
 export const approveSchema = z.object({ version: z.coerce.number().int().positive("version: give the version you reviewed") }).strict();

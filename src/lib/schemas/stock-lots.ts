@@ -1,13 +1,21 @@
 import { z } from "zod";
 import { getReagent } from "../chem";
 
-const isoDate = (what: string) => z.string({ required_error: `Give the ${what} date` }).regex(/^\d{4}-\d{2}-\d{2}$/, `${what}: a date as YYYY-MM-DD`).refine((d) => !Number.isNaN(Date.parse(`${d}T00:00:00Z`)), `${what}: not a real date`);
+const isoDate = (what: string) =>
+  z
+    .string({ required_error: `Give the ${what} date` })
+    .regex(/^\d{4}-\d{2}-\d{2}$/, `${what}: a date as YYYY-MM-DD`)
+    .refine((d) => !Number.isNaN(Date.parse(`${d}T00:00:00Z`)), `${what}: not a real date`);
 const blankToUndefined = (v: unknown) => (v === "" || v === null ? undefined : v);
 
 /** A stock lot as received (multipart form fields of `POST /api/stock-lots`). */
 export const stockLotInputSchema = z
   .object({
-    reagent: z.string({ required_error: "Pick the reagent" }).min(1, "Pick the reagent").max(64, "Unknown reagent").refine((id) => getReagent(id) !== undefined, "Unknown reagent"),
+    reagent: z
+      .string({ required_error: "Pick the reagent" })
+      .min(1, "Pick the reagent")
+      .max(64, "Unknown reagent")
+      .refine((id) => getReagent(id) !== undefined, "Unknown reagent"),
     lotNumber: z.string({ required_error: "Give the lot number" }).trim().min(1, "Give the lot number").max(64, "At most 64 characters"),
     supplier: z.string({ required_error: "Name the supplier" }).trim().min(1, "Name the supplier").max(120),
     grade: z.string({ required_error: "Give the grade" }).trim().min(1, "Give the grade, e.g. HPLC or LC-MS").max(40),
@@ -16,14 +24,20 @@ export const stockLotInputSchema = z
     expiresOn: isoDate("expiry"),
     /** In mL for liquids, g for solids. */
     quantity: z.coerce.number({ invalid_type_error: "Quantity must be a number" }).positive("Quantity must be more than 0").max(10_000_000),
-    remaining: z.preprocess(blankToUndefined, z.coerce.number({ invalid_type_error: "Remaining must be a number" }).min(0, "Cannot be negative").optional()),
+    remaining: z.preprocess(
+      blankToUndefined,
+      z.coerce.number({ invalid_type_error: "Remaining must be a number" }).min(0, "Cannot be negative").optional(),
+    ),
     room: z.preprocess(blankToUndefined, z.string().trim().max(40).optional()),
   })
   .strict()
   .superRefine((lot, ctx) => {
-    if (lot.expiresOn < lot.receivedOn) ctx.addIssue({ code: "custom", path: ["expiresOn"], message: "The expiry date is before the date received" });
-    if (lot.openedOn && lot.openedOn < lot.receivedOn) ctx.addIssue({ code: "custom", path: ["openedOn"], message: "Opened before it was received?" });
-    if (lot.remaining !== undefined && lot.remaining > lot.quantity) ctx.addIssue({ code: "custom", path: ["remaining"], message: "More remaining than was received" });
+    if (lot.expiresOn < lot.receivedOn)
+      ctx.addIssue({ code: "custom", path: ["expiresOn"], message: "The expiry date is before the date received" });
+    if (lot.openedOn && lot.openedOn < lot.receivedOn)
+      ctx.addIssue({ code: "custom", path: ["openedOn"], message: "Opened before it was received?" });
+    if (lot.remaining !== undefined && lot.remaining > lot.quantity)
+      ctx.addIssue({ code: "custom", path: ["remaining"], message: "More remaining than was received" });
   });
 export type StockLotInput = z.infer<typeof stockLotInputSchema>;
 

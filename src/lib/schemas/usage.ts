@@ -17,5 +17,8 @@ export const usageQuery = z
   })
   .strict()
   .refine((v) => v.from <= v.to, { path: ["to"], message: "must not be before from" })
-  .refine((v) => (Date.parse(v.to) - Date.parse(v.from)) / 86_400_000 <= MAX_DAYS, { path: ["to"], message: `the period may span at most ${MAX_DAYS} days` });
+  .refine((v) => (Date.parse(v.to) - Date.parse(v.from)) / 86_400_000 <= MAX_DAYS, {
+    path: ["to"],
+    message: `the period may span at most ${MAX_DAYS} days`,
+  });
 export type UsageQuery = z.infer<typeof usageQuery>;

@@ -4,7 +4,10 @@ const isoDay = (field: string) =>
   z
     .string({ required_error: `give ${field} as YYYY-MM-DD` })
     .regex(/^\d{4}-\d{2}-\d{2}$/, `use YYYY-MM-DD`)
-    .refine((s) => !Number.isNaN(Date.parse(`${s}T00:00:00Z`)) && new Date(`${s}T00:00:00Z`).toISOString().startsWith(s), "not a calendar date");
+    .refine(
+      (s) => !Number.isNaN(Date.parse(`${s}T00:00:00Z`)) && new Date(`${s}T00:00:00Z`).toISOString().startsWith(s),
+      "not a calendar date",
+    );
 
 /** `GET /api/waste/summary` and the waste page's period. Both ends inclusive, UTC days. */
 export const wastePeriodQuery = z
@@ -16,7 +19,10 @@ export const wastePeriodQuery = z
   })
   .strict()
   .refine((p) => p.from <= p.to, { path: ["to"], message: "must be on or after from" })
-  .refine((p) => Date.parse(p.to) - Date.parse(p.from) <= 5 * 366 * 86_400_000, { path: ["to"], message: "a period may span at most five years" });
+  .refine((p) => Date.parse(p.to) - Date.parse(p.from) <= 5 * 366 * 86_400_000, {
+    path: ["to"],
+    message: "a period may span at most five years",
+  });
 export type WastePeriodQuery = z.infer<typeof wastePeriodQuery>;
 
 /** `GET /api/waste/report` (CSV or PDF of a period). */
@@ -37,7 +43,12 @@ export const streamSchema = z
     /** Higher is more restrictive. */
     restrictiveness: z.coerce.number({ invalid_type_error: "must be a number" }).int("must be a whole number").min(0).max(100),
     /** Null: the common-practice default. */
-    minShare_percent: z.coerce.number({ invalid_type_error: "must be a number" }).min(0, "must be 0 % or more").max(100, "must be 100 % or less").nullable().default(null),
+    minShare_percent: z.coerce
+      .number({ invalid_type_error: "must be a number" })
+      .min(0, "must be 0 % or more")
+      .max(100, "must be 100 % or less")
+      .nullable()
+      .default(null),
     /** Null: the common-practice default. */
     alsoAccepts: z.array(streamId).max(20).nullable().default(null),
   })
@@ -53,9 +64,17 @@ export const LOCATION_KINDS = ["room", "satellite_area", "instrument"] as const;
 export const containerSchema = z
   .object({
     /** Decant's own code, printed on the container label. */
-    code: z.string().trim().toUpperCase().regex(/^[A-Z0-9][A-Z0-9-]{1,31}$/, "use 2–32 letters, digits or dashes, e.g. WC-0110"),
+    code: z
+      .string()
+      .trim()
+      .toUpperCase()
+      .regex(/^[A-Z0-9][A-Z0-9-]{1,31}$/, "use 2–32 letters, digits or dashes, e.g. WC-0110"),
     streamId,
-    capacity_mL: z.coerce.number({ invalid_type_error: "must be a number" }).int("must be whole millilitres").min(100, "must be at least 100 mL").max(1_000_000, "must be at most 1,000 L"),
+    capacity_mL: z.coerce
+      .number({ invalid_type_error: "must be a number" })
+      .int("must be whole millilitres")
+      .min(100, "must be at least 100 mL")
+      .max(1_000_000, "must be at most 1,000 L"),
     room: z.string().trim().min(1, "say which room").max(40),
     locationKind: z.enum(LOCATION_KINDS, { errorMap: () => ({ message: "choose room, satellite_area or instrument" }) }),
     locationNote: z.string().trim().max(120).nullable().default(null),
@@ -105,7 +124,11 @@ export type CollectionInput = z.infer<typeof collectionSchema>;
 /** The waste limits; example values, the institution's rules decide. */
 export const wasteSettingsSchema = z
   .object({
-    fullThreshold_percent: z.coerce.number({ invalid_type_error: "must be a number" }).int("must be a whole number").min(10, "must be 10 % or more").max(100, "must be 100 % or less"),
+    fullThreshold_percent: z.coerce
+      .number({ invalid_type_error: "must be a number" })
+      .int("must be a whole number")
+      .min(10, "must be 10 % or more")
+      .max(100, "must be 100 % or less"),
     accumulationLimit_days: z.coerce.number({ invalid_type_error: "must be a number" }).int("must be whole days").min(1).max(3650),
     accumulationWarning_days: z.coerce.number({ invalid_type_error: "must be a number" }).int("must be whole days").min(0).max(365),
     /** Room → litres of flammable liquids allowed. */
@@ -114,14 +137,26 @@ export const wasteSettingsSchema = z
     reagentStreams: z.record(z.string().min(1).max(64), streamId).default({}),
   })
   .strict()
-  .refine((s) => s.accumulationWarning_days < s.accumulationLimit_days, { path: ["accumulationWarning_days"], message: "must be shorter than the accumulation limit" });
+  .refine((s) => s.accumulationWarning_days < s.accumulationLimit_days, {
+    path: ["accumulationWarning_days"],
+    message: "must be shorter than the accumulation limit",
+  });
 export type WasteSettingsInput = z.infer<typeof wasteSettingsSchema>;
 
-export const idParam = z.object({ id: z.coerce.number({ invalid_type_error: "id must be a number" }).int().positive("id must be positive") });
+export const idParam = z.object({
+  id: z.coerce.number({ invalid_type_error: "id must be a number" }).int().positive("id must be positive"),
+});
 export const streamIdParam = z.object({ id: streamId });
 
 /** `GET /api/waste/containers`. */
-export const containerListQuery = z.object({ includeCollected: z.enum(["true", "false"]).default("false").transform((v) => v === "true") }).strict();
+export const containerListQuery = z
+  .object({
+    includeCollected: z
+      .enum(["true", "false"])
+      .default("false")
+      .transform((v) => v === "true"),
+  })
+  .strict();
 
 /** `POST /api/waste/route`: where would this mix go, and does the container take it? */
 export const routeCheckSchema = z
@@ -130,11 +165,28 @@ export const routeCheckSchema = z
     containerId: z.coerce.number().int().positive(),
     /** The mix: liquids in mL, solids in g. */
     parts: z
-      .array(z.object({ reagentId: z.string().min(1).max(64), volume_mL: z.number().min(0).max(1_000_000, "at most 1,000 L").optional(), mass_g: z.number().min(0).max(1_000_000, "at most 1,000 kg").optional() }).strict())
+      .array(
+        z
+          .object({
+            reagentId: z.string().min(1).max(64),
+            volume_mL: z.number().min(0).max(1_000_000, "at most 1,000 L").optional(),
+            mass_g: z.number().min(0).max(1_000_000, "at most 1,000 kg").optional(),
+          })
+          .strict(),
+      )
       .min(1, "give at least one part of the mix")
       .max(50),
   })
   .strict();
 
 /** `GET /api/waste/containers/{id}/label.pdf`. */
-export const labelQuery = z.object({ copies: z.coerce.number({ invalid_type_error: "copies must be a number" }).int("copies must be a whole number").min(1).max(20).default(1) }).strict();
+export const labelQuery = z
+  .object({
+    copies: z.coerce
+      .number({ invalid_type_error: "copies must be a number" })
+      .int("copies must be a whole number")
+      .min(1)
+      .max(20)
+      .default(1),
+  })
+  .strict();

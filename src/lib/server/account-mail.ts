@@ -32,7 +32,10 @@ export function invitationMail(input: { to: string; name: string; role: Role; in
       FOOTER_TEXT,
     ].join("\n"),
     html: html(
-      [`Hello ${escapeHtml(input.name)},`, `${escapeHtml(input.invitedBy)} has invited you to Decant, the facility's mobile-phase and solvent ledger, as <strong>${escapeHtml(role)}</strong>.`],
+      [
+        `Hello ${escapeHtml(input.name)},`,
+        `${escapeHtml(input.invitedBy)} has invited you to Decant, the facility's mobile-phase and solvent ledger, as <strong>${escapeHtml(role)}</strong>.`,
+      ],
       input.link,
       "Choose your password",
     ),
@@ -43,7 +46,19 @@ export function resetMail(input: { to: string; name: string; link: string }): Ou
   return {
     to: input.to,
     subject: "Set a new Decant password",
-    text: [`Hello ${input.name},`, "", "Someone (probably you) asked to set a new password for your Decant account. Choose it here:", "", input.link, "", FOOTER_TEXT].join("\n"),
-    html: html([`Hello ${escapeHtml(input.name)},`, "Someone (probably you) asked to set a new password for your Decant account."], input.link, "Choose a new password"),
+    text: [
+      `Hello ${input.name},`,
+      "",
+      "Someone (probably you) asked to set a new password for your Decant account. Choose it here:",
+      "",
+      input.link,
+      "",
+      FOOTER_TEXT,
+    ].join("\n"),
+    html: html(
+      [`Hello ${escapeHtml(input.name)},`, "Someone (probably you) asked to set a new password for your Decant account."],
+      input.link,
+      "Choose a new password",
+    ),
   };
 }

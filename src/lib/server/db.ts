@@ -4,7 +4,9 @@ import { getEnv, type Env } from "./env";
 import { initModels } from "./models";
 
 /** One Sequelize instance per process; models are bound to it. */
-export function createSequelize(env: Pick<Env, "DATABASE_HOST" | "DATABASE_PORT" | "DATABASE_NAME" | "DATABASE_USER" | "DATABASE_PASSWORD">) {
+export function createSequelize(
+  env: Pick<Env, "DATABASE_HOST" | "DATABASE_PORT" | "DATABASE_NAME" | "DATABASE_USER" | "DATABASE_PASSWORD">,
+) {
   const sequelize = new Sequelize(env.DATABASE_NAME, env.DATABASE_USER, env.DATABASE_PASSWORD, {
     host: env.DATABASE_HOST,
     port: env.DATABASE_PORT,

@@ -36,7 +36,12 @@ export async function listMessages(dir: string): Promise<StoredMessage[]> {
   } catch {
     return [];
   }
-  const messages = await Promise.all(files.sort().reverse().map((f) => readOne(dir, f)));
+  const messages = await Promise.all(
+    files
+      .sort()
+      .reverse()
+      .map((f) => readOne(dir, f)),
+  );
   return messages.filter((m): m is StoredMessage => m !== null);
 }
 

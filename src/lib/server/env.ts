@@ -23,7 +23,10 @@ export const envSchema = z.object({
   /** SMTP relay (the local fake in development and tests). */
   SMTP_HOST: z.string().min(1).default("127.0.0.1"),
   SMTP_PORT: port("SMTP_PORT").default(2525),
-  SMTP_SECURE: z.enum(["true", "false"]).default("false").transform((v) => v === "true"),
+  SMTP_SECURE: z
+    .enum(["true", "false"])
+    .default("false")
+    .transform((v) => v === "true"),
   SMTP_USER: z.string().optional(),
   SMTP_PASSWORD: z.string().optional(),
   MAIL_FROM: z.string().min(3).default("Decant <decant@facility.test>"),
@@ -34,9 +37,15 @@ export const envSchema = z.object({
   PAYMENTS_PORT: port("PAYMENTS_PORT").default(12111),
   PAYMENTS_PROTOCOL: z.enum(["http", "https"]).default("http"),
   /** Secret API key (a test key for the fake); invoicing is unavailable without it. */
-  PAYMENTS_SECRET_KEY: z.string().regex(/^(sk|rk)_\w+$/, "PAYMENTS_SECRET_KEY must look like sk_test_… or sk_live_…").optional(),
+  PAYMENTS_SECRET_KEY: z
+    .string()
+    .regex(/^(sk|rk)_\w+$/, "PAYMENTS_SECRET_KEY must look like sk_test_… or sk_live_…")
+    .optional(),
   /** Signing secret of the webhook endpoint (whsec_…); webhooks are refused without it. */
-  PAYMENTS_WEBHOOK_SECRET: z.string().regex(/^whsec_\w+$/, "PAYMENTS_WEBHOOK_SECRET must look like whsec_…").optional(),
+  PAYMENTS_WEBHOOK_SECRET: z
+    .string()
+    .regex(/^whsec_\w+$/, "PAYMENTS_WEBHOOK_SECRET must look like whsec_…")
+    .optional(),
   /** Where the payments fake delivers events (the app's /api/webhooks/payments); read by the fake only. */
   PAYMENTS_WEBHOOK_URL: z.string().url("PAYMENTS_WEBHOOK_URL must be a URL").optional(),
   /** Where uploaded files (certificates of analysis, imports) are stored. */
@@ -53,7 +62,12 @@ export function parseEnv(source: Record<string, string | undefined>): Env {
   if (result.success) return result.data;
   const lines = result.error.issues.map((issue) => {
     const name = issue.path.join(".");
-    const message = issue.message === "Required" ? "is missing" : issue.message.startsWith(name) ? issue.message.slice(name.length).trim() : issue.message;
+    const message =
+      issue.message === "Required"
+        ? "is missing"
+        : issue.message.startsWith(name)
+          ? issue.message.slice(name.length).trim()
+          : issue.message;
     return `${name} ${message}`;
   });
   throw new EnvError(`Invalid environment: ${lines.join("; ")}`);

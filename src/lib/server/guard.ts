@@ -38,7 +38,11 @@ export function endpoint(handler: (context: APIContext) => Promise<Response> | R
  * For pages: returns the user, or a Response to send instead (a redirect to sign-in, or the 403 page).
  * Usage: `const user = await guardPage(Astro, "read:batch"); if (user instanceof Response) return user;`
  */
-export async function guardPage(astro: AstroGlobal, permission: Permission, options: { own?: boolean } = {}): Promise<SignedInUser | Response> {
+export async function guardPage(
+  astro: AstroGlobal,
+  permission: Permission,
+  options: { own?: boolean } = {},
+): Promise<SignedInUser | Response> {
   try {
     return requirePermission(astro.locals, permission, options);
   } catch (error) {

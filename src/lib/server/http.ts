@@ -73,7 +73,10 @@ export async function readJson<T>(request: Request, schema: ZodType<T, ZodTypeDe
     throw new HttpError(400, "body: not valid JSON");
   }
   const broken = brokenTextAt(raw);
-  if (broken !== null) throw new HttpError(400, `${broken || "body"}: holds a character that is not valid text (a lone UTF-16 surrogate)`, { fields: { [broken || "body"]: "not valid text" } });
+  if (broken !== null)
+    throw new HttpError(400, `${broken || "body"}: holds a character that is not valid text (a lone UTF-16 surrogate)`, {
+      fields: { [broken || "body"]: "not valid text" },
+    });
   return validate(raw, schema);
 }
 
@@ -125,8 +128,20 @@ const DATABASE_DOWN = /SequelizeConnection|ECONNREFUSED|ER_GET_CONNECTION_TIMEOU
  * the network did. Checked on database errors only, so a payments or mail outage is not "the
  * database". SQLSTATE class 08 is "connection exception"; the driver also marks these `fatal`.
  */
-const LINK_BROKEN = /socket has unexpectedly been closed|connection closed|Connection was killed|server shutdown in progress|ECONNRESET|EPIPE/i;
-const LINK_CODES = new Set(["ER_SOCKET_UNEXPECTED_CLOSE", "ER_CONNECTION_ALREADY_CLOSED", "ER_CMD_CONNECTION_CLOSED", "ER_CONNECTION_KILLED", "ER_SERVER_SHUTDOWN", "ER_CONNECTION_TIMEOUT", "ER_SOCKET_TIMEOUT", "ECONNRESET", "EPIPE", "ETIMEDOUT"]);
+const LINK_BROKEN =
+  /socket has unexpectedly been closed|connection closed|Connection was killed|server shutdown in progress|ECONNRESET|EPIPE/i;
+const LINK_CODES = new Set([
+  "ER_SOCKET_UNEXPECTED_CLOSE",
+  "ER_CONNECTION_ALREADY_CLOSED",
+  "ER_CMD_CONNECTION_CLOSED",
+  "ER_CONNECTION_KILLED",
+  "ER_SERVER_SHUTDOWN",
+  "ER_CONNECTION_TIMEOUT",
+  "ER_SOCKET_TIMEOUT",
+  "ECONNRESET",
+  "EPIPE",
+  "ETIMEDOUT",
+]);
 
 /** True for errors that mean "the database is unreachable", which answer 503 rather than 500. */
 export function isDatabaseDown(error: unknown): boolean {

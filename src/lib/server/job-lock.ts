@@ -25,16 +25,26 @@ export async function acquireJobLock(name: string, ttl_ms: number, sequelize: Se
        expires_at = IF(holder = VALUES(holder), VALUES(expires_at), expires_at)`,
     { replacements: { name, holder, expiresAt } },
   );
-  const [row] = await sequelize.query<{ holder: string }>("SELECT holder FROM job_locks WHERE name = :name", { type: QueryTypes.SELECT, replacements: { name } });
+  const [row] = await sequelize.query<{ holder: string }>("SELECT holder FROM job_locks WHERE name = :name", {
+    type: QueryTypes.SELECT,
+    replacements: { name },
+  });
   return row?.holder === holder ? { name, holder } : null;
 }
 
 export async function releaseJobLock(lease: JobLease, sequelize: Sequelize = getSequelize()): Promise<void> {
-  await sequelize.query("DELETE FROM job_locks WHERE name = :name AND holder = :holder", { replacements: { name: lease.name, holder: lease.holder } });
+  await sequelize.query("DELETE FROM job_locks WHERE name = :name AND holder = :holder", {
+    replacements: { name: lease.name, holder: lease.holder },
+  });
 }
 
 /** Runs `work` under the lease; answers `{ ran: false }` without running it when another instance holds it. */
-export async function withJobLock<T>(name: string, ttl_ms: number, work: () => Promise<T>, sequelize: Sequelize = getSequelize()): Promise<{ ran: true; result: T } | { ran: false }> {
+export async function withJobLock<T>(
+  name: string,
+  ttl_ms: number,
+  work: () => Promise<T>,
+  sequelize: Sequelize = getSequelize(),
+): Promise<{ ran: true; result: T } | { ran: false }> {
   const lease = await acquireJobLock(name, ttl_ms, sequelize);
   if (!lease) return { ran: false };
   try {

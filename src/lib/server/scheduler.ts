@@ -10,7 +10,8 @@ export function startSchedules() {
   if (started || process.env.DECANT_NO_SCHEDULE === "1") return;
   started = true;
   ensureWasteAlertSchedule();
-  const digest = () => void runExpiryDigest().catch((error) => console.warn(`expiry digest failed: ${error instanceof Error ? error.message : error}`));
+  const digest = () =>
+    void runExpiryDigest().catch((error) => console.warn(`expiry digest failed: ${error instanceof Error ? error.message : error}`));
   setTimeout(digest, 90_000).unref();
   setInterval(digest, 30 * 60_000).unref();
 }

@@ -21,7 +21,8 @@ export function detectType(bytes: Uint8Array): DetectedType | null {
   if (starts(0x25, 0x50, 0x44, 0x46, 0x2d)) return { mime: "application/pdf", extension: "pdf" }; // %PDF-
   if (starts(0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a)) return { mime: "image/png", extension: "png" };
   if (starts(0xff, 0xd8, 0xff)) return { mime: "image/jpeg", extension: "jpg" };
-  if (starts(0x52, 0x49, 0x46, 0x46) && bytes[8] === 0x57 && bytes[9] === 0x45 && bytes[10] === 0x42 && bytes[11] === 0x50) return { mime: "image/webp", extension: "webp" };
+  if (starts(0x52, 0x49, 0x46, 0x46) && bytes[8] === 0x57 && bytes[9] === 0x45 && bytes[10] === 0x42 && bytes[11] === 0x50)
+    return { mime: "image/webp", extension: "webp" };
   return null;
 }
 
@@ -55,9 +56,17 @@ function pathOf(key: string): string {
  */
 export async function storeCertificate(bytes: Uint8Array, field = "certificate"): Promise<StoredFile> {
   if (bytes.byteLength === 0) throw new HttpError(400, `${field}: the file is empty`);
-  if (bytes.byteLength > CERTIFICATE_MAX_BYTES) throw new HttpError(400, `${field}: the file is ${(bytes.byteLength / 1048576).toFixed(1)} MB; the limit is ${CERTIFICATE_MAX_BYTES / 1048576} MB`);
+  if (bytes.byteLength > CERTIFICATE_MAX_BYTES)
+    throw new HttpError(
+      400,
+      `${field}: the file is ${(bytes.byteLength / 1048576).toFixed(1)} MB; the limit is ${CERTIFICATE_MAX_BYTES / 1048576} MB`,
+    );
   const type = detectType(bytes);
-  if (!type) throw new HttpError(400, `${field}: only a PDF or an image (PNG, JPEG, WebP) is accepted; this file's content is neither, whatever its name says`);
+  if (!type)
+    throw new HttpError(
+      400,
+      `${field}: only a PDF or an image (PNG, JPEG, WebP) is accepted; this file's content is neither, whatever its name says`,
+    );
   const key = `certificates/${new Date().getUTCFullYear()}/${randomBytes(16).toString("hex")}.${type.extension}`;
   const full = pathOf(key);
   await mkdir(dirname(full), { recursive: true });

@@ -46,7 +46,11 @@ export interface AccumulationInfo {
 
 const DAY = 86_400_000;
 
-export function accumulationState(startedAt: Date, now: Date, limits: Pick<WasteLimits, "accumulationLimit_days" | "accumulationWarning_days">): AccumulationInfo {
+export function accumulationState(
+  startedAt: Date,
+  now: Date,
+  limits: Pick<WasteLimits, "accumulationLimit_days" | "accumulationWarning_days">,
+): AccumulationInfo {
   const limitAt = new Date(startedAt.getTime() + limits.accumulationLimit_days * DAY);
   const days = Math.floor((now.getTime() - startedAt.getTime()) / DAY);
   const daysLeft = Math.ceil((limitAt.getTime() - now.getTime()) / DAY);

@@ -56,7 +56,8 @@ function wrap(text: string, font: PDFFont, size: number, maxWidth: number): stri
 function drawPictogram(page: PDFPage, code: GhsPictogram, cx: number, cy: number, half: number) {
   const scale = half / 50;
   page.drawSvgPath(DIAMOND, { x: cx, y: cy, scale, color: WHITE, borderColor: GHS_RED, borderWidth: Math.max(0.8, half * 0.1) });
-  for (const shape of PICTOGRAM_SHAPES[code]) page.drawSvgPath(shape.d, { x: cx, y: cy, scale: scale * SYMBOL_SCALE, color: shape.fill === "black" ? BLACK : WHITE });
+  for (const shape of PICTOGRAM_SHAPES[code])
+    page.drawSvgPath(shape.d, { x: cx, y: cy, scale: scale * SYMBOL_SCALE, color: shape.fill === "black" ? BLACK : WHITE });
 }
 
 export async function renderContainerLabel(content: ContainerLabelContent, copies = 1): Promise<Uint8Array> {
@@ -84,7 +85,12 @@ export async function renderContainerLabel(content: ContainerLabelContent, copie
     y -= 30;
     text(content.streamName, m, y, 15, true);
     y -= 14;
-    text(`Container ${content.code} · ${Math.round(content.capacity_mL / 100) / 10} L · ${content.room}${content.where ? ` · ${content.where}` : ""}`, m, y, 8);
+    text(
+      `Container ${content.code} · ${Math.round(content.capacity_mL / 100) / 10} L · ${content.room}${content.where ? ` · ${content.where}` : ""}`,
+      m,
+      y,
+      8,
+    );
     y -= 12;
     text(`Accumulation started: ${content.accumulationStartedOn ?? "not yet — write the date of the first addition"}`, m, y, 9, true);
 
@@ -92,11 +98,24 @@ export async function renderContainerLabel(content: ContainerLabelContent, copie
     const half = 8.5 * MM_TO_PT;
     const picsY = y - 6 - half;
     content.pictograms.slice(0, 5).forEach((p, i) => drawPictogram(page, p, m + half + i * (2 * half + 3), picsY, half));
-    if (content.signalWord) text(content.signalWord.toUpperCase(), m + Math.min(5, content.pictograms.length) * (2 * half + 3) + 2, picsY - 4, 12, true, inner / 2);
+    if (content.signalWord)
+      text(
+        content.signalWord.toUpperCase(),
+        m + Math.min(5, content.pictograms.length) * (2 * half + 3) + 2,
+        picsY - 4,
+        12,
+        true,
+        inner / 2,
+      );
     y = picsY - half - 11;
     if (content.contents.length) text(`Contains: ${content.contents.join(", ")}`, m, y, 7.5, false);
     y -= 11;
-    for (const line of wrap("Keep closed except when adding waste. Do not mix incompatible wastes. Follow your institution's hazardous-waste procedures and local regulations.", fonts.regular, 7, inner)) {
+    for (const line of wrap(
+      "Keep closed except when adding waste. Do not mix incompatible wastes. Follow your institution's hazardous-waste procedures and local regulations.",
+      fonts.regular,
+      7,
+      inner,
+    )) {
       text(line, m, y, 7);
       y -= 9;
     }
@@ -109,7 +128,8 @@ export async function renderContainerLabel(content: ContainerLabelContent, copie
     const bx = (W - barWidth) / 2;
     const bh = 11 * MM_TO_PT;
     const by = m + 11;
-    for (const bar of symbol.bars) page.drawRectangle({ x: bx + bar.start * module, y: by, width: bar.width * module, height: bh, color: BLACK });
+    for (const bar of symbol.bars)
+      page.drawRectangle({ x: bx + bar.start * module, y: by, width: bar.width * module, height: bh, color: BLACK });
     const codeWidth = fonts.bold.widthOfTextAtSize(content.code, 10);
     page.drawText(content.code, { x: (W - codeWidth) / 2, y: m, size: 10, font: fonts.bold, color: INK });
   }

@@ -26,7 +26,12 @@ export function periodFor(preset: PeriodPreset, day: Date): Period {
 export function previousPeriod(preset: PeriodPreset, day: Date): Period {
   const y = day.getUTCFullYear();
   const m = day.getUTCMonth();
-  const back = preset === "month" ? new Date(Date.UTC(y, m - 1, 1)) : preset === "quarter" ? new Date(Date.UTC(y, m - (m % 3) - 3, 1)) : new Date(Date.UTC(y - 1, 0, 1));
+  const back =
+    preset === "month"
+      ? new Date(Date.UTC(y, m - 1, 1))
+      : preset === "quarter"
+        ? new Date(Date.UTC(y, m - (m % 3) - 3, 1))
+        : new Date(Date.UTC(y - 1, 0, 1));
   return periodFor(preset, back);
 }
 

@@ -14,11 +14,21 @@ export interface ReportData {
   byRoom: { room: string; streams: Record<string, number>; volume_mL: number }[];
   byProject: { projectCode: string; projectName: string; volume_mL: number; streams: Record<string, number> }[];
   byMonth: { month: string; streams: Record<string, number>; volume_mL: number }[];
-  containers: { code: string; stream: string; room: string; status: string; estimated_mL: number; capacity_mL: number; fill_percent: number; since: string | null }[];
+  containers: {
+    code: string;
+    stream: string;
+    room: string;
+    status: string;
+    estimated_mL: number;
+    capacity_mL: number;
+    fill_percent: number;
+    since: string | null;
+  }[];
   flammables: { room: string; onHand_L: number; limit_L: number | null; state: string }[];
 }
 
-const CAUTION = "Follow your institution's hazardous-waste procedures and local regulations. Limits shown are the site's settings (example values unless changed); fire codes and the institution decide the real limits.";
+const CAUTION =
+  "Follow your institution's hazardous-waste procedures and local regulations. Limits shown are the site's settings (example values unless changed); fire codes and the institution decide the real limits.";
 
 function csvCell(value: string | number): string {
   const s = typeof value === "number" ? String(Math.round(value * 10_000) / 10_000) : value;
@@ -61,7 +71,8 @@ export async function reportPdf(data: ReportData): Promise<Uint8Array> {
       y = A4.height - MARGIN;
     }
   };
-  const write = (text: string, x: number, size: number, font: PDFFont = fonts.regular, color = INK) => page.drawText(clean(text), { x, y, size, font, color });
+  const write = (text: string, x: number, size: number, font: PDFFont = fonts.regular, color = INK) =>
+    page.drawText(clean(text), { x, y, size, font, color });
   const right = (text: string, xRight: number, size: number, font: PDFFont = fonts.regular) => {
     const t = clean(text);
     page.drawText(t, { x: xRight - font.widthOfTextAtSize(t, size), y, size, font, color: INK });
@@ -76,7 +87,7 @@ export async function reportPdf(data: ReportData): Promise<Uint8Array> {
   };
   const table = (columns: { title: string; x: number; align?: "right" }[], rows: string[][]) => {
     newPageIfNeeded(30);
-    for (const c of columns) (c.align === "right" ? right(c.title, c.x, 8, fonts.bold) : write(c.title, c.x, 8, fonts.bold, MUTED));
+    for (const c of columns) c.align === "right" ? right(c.title, c.x, 8, fonts.bold) : write(c.title, c.x, 8, fonts.bold, MUTED);
     y -= 13;
     for (const row of rows) {
       newPageIfNeeded(14);
@@ -95,34 +106,96 @@ export async function reportPdf(data: ReportData): Promise<Uint8Array> {
 
   write("Solvent waste report", MARGIN, 18, fonts.bold);
   y -= 18;
-  write(`${data.facility} · period ${data.period.from} to ${data.period.to} · generated ${data.generatedAt.slice(0, 16).replace("T", " ")} UTC`, MARGIN, 9, fonts.regular, MUTED);
+  write(
+    `${data.facility} · period ${data.period.from} to ${data.period.to} · generated ${data.generatedAt.slice(0, 16).replace("T", " ")} UTC`,
+    MARGIN,
+    9,
+    fonts.regular,
+    MUTED,
+  );
   y -= 16;
   write(`Total routed to waste: ${litres(data.total_mL)} (runs, draws and discards in Decant's ledger)`, MARGIN, 10);
 
   const R = A4.width - MARGIN;
   heading("By stream");
-  table([{ title: "Stream", x: MARGIN }, { title: "Volume", x: R - 90, align: "right" }, { title: "Share", x: R, align: "right" }],
-    data.streams.map((s) => [s.name, litres(s.volume_mL), data.total_mL > 0 ? `${((s.volume_mL / data.total_mL) * 100).toFixed(1)} %` : "—"]));
+  table(
+    [
+      { title: "Stream", x: MARGIN },
+      { title: "Volume", x: R - 90, align: "right" },
+      { title: "Share", x: R, align: "right" },
+    ],
+    data.streams.map((s) => [
+      s.name,
+      litres(s.volume_mL),
+      data.total_mL > 0 ? `${((s.volume_mL / data.total_mL) * 100).toFixed(1)} %` : "—",
+    ]),
+  );
 
   heading("By room (of the container)");
-  table([{ title: "Room", x: MARGIN }, { title: "Streams", x: MARGIN + 90 }, { title: "Volume", x: R, align: "right" }],
-    data.byRoom.map((r) => [r.room, Object.entries(r.streams).map(([k, v]) => `${data.streams.find((s) => s.stream === k)?.name ?? k} ${litres(v)}`).join("; "), litres(r.volume_mL)]));
+  table(
+    [
+      { title: "Room", x: MARGIN },
+      { title: "Streams", x: MARGIN + 90 },
+      { title: "Volume", x: R, align: "right" },
+    ],
+    data.byRoom.map((r) => [
+      r.room,
+      Object.entries(r.streams)
+        .map(([k, v]) => `${data.streams.find((s) => s.stream === k)?.name ?? k} ${litres(v)}`)
+        .join("; "),
+      litres(r.volume_mL),
+    ]),
+  );
 
   heading("By month");
-  table([{ title: "Month", x: MARGIN }, { title: "Volume", x: R, align: "right" }], data.byMonth.map((m) => [m.month, litres(m.volume_mL)]));
+  table(
+    [
+      { title: "Month", x: MARGIN },
+      { title: "Volume", x: R, align: "right" },
+    ],
+    data.byMonth.map((m) => [m.month, litres(m.volume_mL)]),
+  );
 
   heading("By project");
-  table([{ title: "Project", x: MARGIN }, { title: "Name", x: MARGIN + 90 }, { title: "Volume", x: R, align: "right" }], data.byProject.map((p) => [p.projectCode, p.projectName, litres(p.volume_mL)]));
+  table(
+    [
+      { title: "Project", x: MARGIN },
+      { title: "Name", x: MARGIN + 90 },
+      { title: "Volume", x: R, align: "right" },
+    ],
+    data.byProject.map((p) => [p.projectCode, p.projectName, litres(p.volume_mL)]),
+  );
 
   heading("Containers on site now");
   table(
-    [{ title: "Code", x: MARGIN }, { title: "Stream", x: MARGIN + 60 }, { title: "Room", x: MARGIN + 200 }, { title: "State", x: MARGIN + 250 }, { title: "Since", x: MARGIN + 340 }, { title: "Fill", x: R, align: "right" }],
-    data.containers.map((c) => [c.code, c.stream, c.room, c.status.replace("_", " "), c.since ?? "—", `${litres(c.estimated_mL)} / ${litres(c.capacity_mL)} (${c.fill_percent} %)`]),
+    [
+      { title: "Code", x: MARGIN },
+      { title: "Stream", x: MARGIN + 60 },
+      { title: "Room", x: MARGIN + 200 },
+      { title: "State", x: MARGIN + 250 },
+      { title: "Since", x: MARGIN + 340 },
+      { title: "Fill", x: R, align: "right" },
+    ],
+    data.containers.map((c) => [
+      c.code,
+      c.stream,
+      c.room,
+      c.status.replace("_", " "),
+      c.since ?? "—",
+      `${litres(c.estimated_mL)} / ${litres(c.capacity_mL)} (${c.fill_percent} %)`,
+    ]),
   );
 
   heading("Flammable liquids on hand");
-  table([{ title: "Room", x: MARGIN }, { title: "On hand", x: MARGIN + 200, align: "right" }, { title: "Room limit", x: MARGIN + 300, align: "right" }, { title: "State", x: MARGIN + 330 }],
-    data.flammables.map((f) => [f.room, `${f.onHand_L.toFixed(1)} L`, f.limit_L === null ? "not set" : `${f.limit_L} L`, f.state]));
+  table(
+    [
+      { title: "Room", x: MARGIN },
+      { title: "On hand", x: MARGIN + 200, align: "right" },
+      { title: "Room limit", x: MARGIN + 300, align: "right" },
+      { title: "State", x: MARGIN + 330 },
+    ],
+    data.flammables.map((f) => [f.room, `${f.onHand_L.toFixed(1)} L`, f.limit_L === null ? "not set" : `${f.limit_L} L`, f.state]),
+  );
 
   newPageIfNeeded(40);
   y -= 16;

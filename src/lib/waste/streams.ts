@@ -34,29 +34,51 @@ export interface DefaultStream extends StreamRule {
 /** Common-practice defaults (CPwaste). Every value is editable by the safety officer. */
 export const DEFAULT_STREAMS: readonly DefaultStream[] = [
   {
-    id: "aqueous", name: "Aqueous", restrictiveness: 1, minShare_percent: 0, alsoAccepts: [],
+    id: "aqueous",
+    name: "Aqueous",
+    restrictiveness: 1,
+    minShare_percent: 0,
+    alsoAccepts: [],
     description: "Organic-free buffers and salt solutions; local discharge limits apply.",
     basis: "Common practice: only mixes with no organic solvent and no corrosive or halogenated part.",
   },
   {
-    id: "non-halogenated-organic", name: "Non-halogenated organic", restrictiveness: 2, minShare_percent: 0, alsoAccepts: ["aqueous"],
+    id: "non-halogenated-organic",
+    name: "Non-halogenated organic",
+    restrictiveness: 2,
+    minShare_percent: 0,
+    alsoAccepts: ["aqueous"],
     description: "Acetonitrile, methanol, ethanol, 2-propanol, THF and their aqueous mixes.",
     basis: "Common practice: any organic solvent makes the whole mix solvent waste; aqueous rinses may join it.",
   },
   {
-    id: "acidic-corrosive", name: "Acidic / corrosive", restrictiveness: 3, minShare_percent: 10, alsoAccepts: [],
+    id: "acidic-corrosive",
+    name: "Acidic / corrosive",
+    restrictiveness: 3,
+    minShare_percent: 10,
+    alsoAccepts: [],
     description: "Concentrated acids and acid-rich mixes.",
-    basis: "Common practice: dilute acid modifiers (0.1 % formic acid) follow the main solvent; from 10 % v/v an acid makes the mix corrosive. Some sites decide by pH instead.",
+    basis:
+      "Common practice: dilute acid modifiers (0.1 % formic acid) follow the main solvent; from 10 % v/v an acid makes the mix corrosive. Some sites decide by pH instead.",
   },
   {
-    id: "basic-corrosive", name: "Basic / corrosive", restrictiveness: 3, minShare_percent: 10, alsoAccepts: [],
+    id: "basic-corrosive",
+    name: "Basic / corrosive",
+    restrictiveness: 3,
+    minShare_percent: 10,
+    alsoAccepts: [],
     description: "Concentrated bases (ammonia solution, hydroxides) and base-rich mixes.",
     basis: "Common practice, as for acids: a base at 10 % or more makes the mix corrosive.",
   },
   {
-    id: "halogenated-organic", name: "Halogenated organic", restrictiveness: 4, minShare_percent: 0, alsoAccepts: ["non-halogenated-organic", "aqueous"],
+    id: "halogenated-organic",
+    name: "Halogenated organic",
+    restrictiveness: 4,
+    minShare_percent: 0,
+    alsoAccepts: ["non-halogenated-organic", "aqueous"],
     description: "Chlorinated solvents; TFA-containing waste at sites that treat it so.",
-    basis: "Common practice: any halogenated component makes the mix halogenated waste; a non-halogenated mix may go here (at a higher disposal cost), never the reverse.",
+    basis:
+      "Common practice: any halogenated component makes the mix halogenated waste; a non-halogenated mix may go here (at a higher disposal cost), never the reverse.",
   },
 ];
 
@@ -97,7 +119,11 @@ const round = (x: number, digits = 4) => Math.round(x * 10 ** digits) / 10 ** di
  * Routes a mix to a stream. Shares: liquids as % v/v of the total liquid volume, solids as % w/v
  * (g per 100 mL of liquid). Streams missing from `rules` fall back to the common-practice default.
  */
-export function assignWasteStream(parts: readonly MixPart[], rules: readonly StreamRule[] = DEFAULT_STREAMS, overrides: Readonly<Record<string, string>> = {}): StreamAssignment {
+export function assignWasteStream(
+  parts: readonly MixPart[],
+  rules: readonly StreamRule[] = DEFAULT_STREAMS,
+  overrides: Readonly<Record<string, string>> = {},
+): StreamAssignment {
   const liquid = parts.reduce((sum, p) => sum + Math.max(0, p.volume_mL ?? 0), 0);
   if (!(liquid > 0)) throw new WasteRuleError("the mix has no liquid volume to route");
   const shares: Record<string, number> = {};
@@ -109,7 +135,8 @@ export function assignWasteStream(parts: readonly MixPart[], rules: readonly Str
     shares[stream] = (shares[stream] ?? 0) + (amount / liquid) * 100;
   }
   const byId = new Map(rules.map((r) => [r.id, r]));
-  const ruleOf = (id: string): StreamRule => byId.get(id) ?? DEFAULT_STREAM_BY_ID[id] ?? { id, name: id, restrictiveness: 0, minShare_percent: 0, alsoAccepts: [] };
+  const ruleOf = (id: string): StreamRule =>
+    byId.get(id) ?? DEFAULT_STREAM_BY_ID[id] ?? { id, name: id, restrictiveness: 0, minShare_percent: 0, alsoAccepts: [] };
   const present = Object.keys(shares);
   const reached = present.filter((id) => shares[id]! > 0 && shares[id]! >= ruleOf(id).minShare_percent);
   // When nothing reaches its threshold (a mix of trace parts only), stay on the safe side.
@@ -118,7 +145,9 @@ export function assignWasteStream(parts: readonly MixPart[], rules: readonly Str
   const streamId = [...candidates].sort(most)[0]!;
   const rule = ruleOf(streamId);
   const share = round(shares[streamId]!, 3);
-  const below = present.filter((id) => !reached.includes(id)).map((id) => `${ruleOf(id).name} ${round(shares[id]!, 3)} % (below ${ruleOf(id).minShare_percent} %)`);
+  const below = present
+    .filter((id) => !reached.includes(id))
+    .map((id) => `${ruleOf(id).name} ${round(shares[id]!, 3)} % (below ${ruleOf(id).minShare_percent} %)`);
   const reason =
     `${rule.name}: its components make up ${share} % of the mix` +
     (rule.minShare_percent > 0 ? ` (threshold ${rule.minShare_percent} %)` : "") +

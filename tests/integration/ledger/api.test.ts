@@ -15,7 +15,11 @@ afterAll(async () => {
   await sequelize.close();
 });
 
-interface UsageRow { projectCode: string; volumes_mL: Record<string, number>; cost: { amount: number; currency: string } }
+interface UsageRow {
+  projectCode: string;
+  volumes_mL: Record<string, number>;
+  cost: { amount: number; currency: string };
+}
 
 describe("GET /api/usage", () => {
   // A closed period in the seeded past; nothing in the test suite writes there.
@@ -44,33 +48,50 @@ describe("GET /api/usage", () => {
 
   it("shows a client contact their own organisation's projects only", async () => {
     const contact = await client("client@demo.test");
-    const response = await contact.fetch(`/api/usage?from=${isoDay(new Date(Date.now() - 95 * DAY))}&to=${isoDay(new Date())}&groupBy=project`);
+    const response = await contact.fetch(
+      `/api/usage?from=${isoDay(new Date(Date.now() - 95 * DAY))}&to=${isoDay(new Date())}&groupBy=project`,
+    );
     expect(response.status).toBe(200);
     const { rows } = (await response.json()) as { rows: UsageRow[] };
-    const own = (await sequelize.query<{ code: string }>("SELECT p.code FROM projects p JOIN users u ON u.client_id = p.client_id WHERE u.email = 'client@demo.test'", { type: QueryTypes.SELECT })).map((p) => p.code);
+    const own = (
+      await sequelize.query<{ code: string }>(
+        "SELECT p.code FROM projects p JOIN users u ON u.client_id = p.client_id WHERE u.email = 'client@demo.test'",
+        { type: QueryTypes.SELECT },
+      )
+    ).map((p) => p.code);
     expect(rows.length).toBeGreaterThan(0);
     for (const r of rows) expect(own).toContain(r.projectCode);
-    const all = (await (await (await client("manager@demo.test")).fetch(`/api/usage?from=${isoDay(new Date(Date.now() - 95 * DAY))}&to=${isoDay(new Date())}`)).json()) as { rows: UsageRow[] };
+    const all = (await (
+      await (await client("manager@demo.test")).fetch(`/api/usage?from=${isoDay(new Date(Date.now() - 95 * DAY))}&to=${isoDay(new Date())}`)
+    ).json()) as { rows: UsageRow[] };
     expect(all.rows.length).toBeGreaterThan(rows.length);
   });
 
-  it.each(["client", "instrument", "reagent", "month"])("groupBy=%s: a client contact's totals are their own organisation's, the manager's everyone's", async (groupBy) => {
-    const period = `from=${isoDay(new Date(Date.now() - 95 * DAY))}&to=${isoDay(new Date())}`;
-    const sumOf = (rows: { volumes_mL: Record<string, number> }[]) => rows.reduce((a, r) => a + Object.values(r.volumes_mL).reduce((x, y) => x + y, 0), 0);
-    const [own, all] = await sequelize.query<{ own: string; all: string }>(
-      `SELECT SUM(IF(p.client_id = u.client_id, l.volume_ml, 0)) AS own, SUM(l.volume_ml) AS \`all\` FROM ledger_entries l JOIN projects p ON p.id = l.project_id
+  it.each(["client", "instrument", "reagent", "month"])(
+    "groupBy=%s: a client contact's totals are their own organisation's, the manager's everyone's",
+    async (groupBy) => {
+      const period = `from=${isoDay(new Date(Date.now() - 95 * DAY))}&to=${isoDay(new Date())}`;
+      const sumOf = (rows: { volumes_mL: Record<string, number> }[]) =>
+        rows.reduce((a, r) => a + Object.values(r.volumes_mL).reduce((x, y) => x + y, 0), 0);
+      const [own, all] = await sequelize
+        .query<{ own: string; all: string }>(
+          `SELECT SUM(IF(p.client_id = u.client_id, l.volume_ml, 0)) AS own, SUM(l.volume_ml) AS \`all\` FROM ledger_entries l JOIN projects p ON p.id = l.project_id
          JOIN users u ON u.email = 'client@demo.test' WHERE l.occurred_at >= ? AND l.occurred_at < ? + INTERVAL 1 DAY`,
-      { type: QueryTypes.SELECT, replacements: [isoDay(new Date(Date.now() - 95 * DAY)), isoDay(new Date())] },
-    ).then((r) => [Number(r[0]!.own), Number(r[0]!.all)]);
-    const contact = await (await client("client@demo.test")).fetch(`/api/usage?${period}&groupBy=${groupBy}`);
-    expect(contact.status).toBe(200);
-    const mine = (await contact.json()) as { groupBy: string; rows: { key: string; volumes_mL: Record<string, number> }[] };
-    expect(mine.groupBy).toBe(groupBy);
-    expect(sumOf(mine.rows)).toBeCloseTo(own!, 2);
-    const manager = (await (await (await client("manager@demo.test")).fetch(`/api/usage?${period}&groupBy=${groupBy}`)).json()) as { rows: { volumes_mL: Record<string, number> }[] };
-    expect(sumOf(manager.rows)).toBeCloseTo(all!, 2);
-    expect(all!).toBeGreaterThan(own!);
-  });
+          { type: QueryTypes.SELECT, replacements: [isoDay(new Date(Date.now() - 95 * DAY)), isoDay(new Date())] },
+        )
+        .then((r) => [Number(r[0]!.own), Number(r[0]!.all)]);
+      const contact = await (await client("client@demo.test")).fetch(`/api/usage?${period}&groupBy=${groupBy}`);
+      expect(contact.status).toBe(200);
+      const mine = (await contact.json()) as { groupBy: string; rows: { key: string; volumes_mL: Record<string, number> }[] };
+      expect(mine.groupBy).toBe(groupBy);
+      expect(sumOf(mine.rows)).toBeCloseTo(own!, 2);
+      const manager = (await (await (await client("manager@demo.test")).fetch(`/api/usage?${period}&groupBy=${groupBy}`)).json()) as {
+        rows: { volumes_mL: Record<string, number> }[];
+      };
+      expect(sumOf(manager.rows)).toBeCloseTo(all!, 2);
+      expect(all!).toBeGreaterThan(own!);
+    },
+  );
 
   it.each([
     ["from=2026-13-01&to=2026-12-31", /from: /],
@@ -96,8 +117,17 @@ describe("GET /api/usage", () => {
 describe("the run, draw, correction and import routes", () => {
   it("answer bad input with 400 naming the field, never 500", async () => {
     const tech = await client("tech@demo.test");
-    const post = (path: string, body: unknown) => tech.fetch(path, { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify(body) });
-    const run = await post("/api/runs", { instrumentId: 1, methodId: 1, projectId: 1, injections: "many", channelBatches: { A: 4, B: 5 }, startedAt: "yesterday", idempotencyKey: "api-test-000001" });
+    const post = (path: string, body: unknown) =>
+      tech.fetch(path, { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify(body) });
+    const run = await post("/api/runs", {
+      instrumentId: 1,
+      methodId: 1,
+      projectId: 1,
+      injections: "many",
+      channelBatches: { A: 4, B: 5 },
+      startedAt: "yesterday",
+      idempotencyKey: "api-test-000001",
+    });
     expect(run.status).toBe(400);
     const runBody = (await run.json()) as { error: string; fields: Record<string, string> };
     expect(Object.keys(runBody.fields)).toEqual(expect.arrayContaining(["injections", "startedAt"]));
@@ -109,7 +139,11 @@ describe("the run, draw, correction and import routes", () => {
     expect(((await correction.json()) as { error: string }).error).toMatch(/reason/);
     const missing = await post("/api/ledger/corrections", { entryIds: [999999999], reason: "no such entry" });
     expect(missing.status).toBe(404);
-    const notCsv = await tech.fetch("/api/imports?mode=check&fileName=a.json", { method: "POST", headers: { "content-type": "application/json" }, body: "{}" });
+    const notCsv = await tech.fetch("/api/imports?mode=check&fileName=a.json", {
+      method: "POST",
+      headers: { "content-type": "application/json" },
+      body: "{}",
+    });
     expect(notCsv.status).toBe(415);
     const badMode = await tech.fetch("/api/imports?mode=maybe", { method: "POST", headers: { "content-type": "text/csv" }, body: "a,b" });
     expect(badMode.status).toBe(400);
@@ -123,7 +157,13 @@ describe("the run, draw, correction and import routes", () => {
       const draw = await tech.fetch("/api/draws", {
         method: "POST",
         headers: { "content-type": "application/json" },
-        body: JSON.stringify({ batchId: 4, volume_mL: 1, purpose: "spill", occurredAt, idempotencyKey: `api-test-date-${occurredAt.replace(/[^0-9]/g, "")}` }),
+        body: JSON.stringify({
+          batchId: 4,
+          volume_mL: 1,
+          purpose: "spill",
+          occurredAt,
+          idempotencyKey: `api-test-date-${occurredAt.replace(/[^0-9]/g, "")}`,
+        }),
       });
       expect(draw.status).toBe(400);
       expect(((await draw.json()) as { error: string }).error).toMatch(/occurredAt: must be in (1970 or later|2199 or earlier)/);
@@ -133,7 +173,11 @@ describe("the run, draw, correction and import routes", () => {
   it("a check of a file that is not a run log answers one clear message and writes nothing", async () => {
     const tech = await client("tech@demo.test");
     const [before] = await sequelize.query<{ n: number }>("SELECT COUNT(*) AS n FROM imports", { type: QueryTypes.SELECT });
-    const response = await tech.fetch("/api/imports?mode=commit&fileName=notes.txt", { method: "POST", headers: { "content-type": "text/plain" }, body: "meeting notes\nnothing tabular here\n" });
+    const response = await tech.fetch("/api/imports?mode=commit&fileName=notes.txt", {
+      method: "POST",
+      headers: { "content-type": "text/plain" },
+      body: "meeting notes\nnothing tabular here\n",
+    });
     expect(response.status).toBe(400);
     const body = (await response.json()) as { issues: { row: number; column: string | null; message: string }[] };
     expect(body.issues).toEqual([{ row: 1, column: null, message: expect.stringMatching(/does not look like a CSV file/) }]);
@@ -146,6 +190,8 @@ describe("the run, draw, correction and import routes", () => {
     const response = await tech.fetch("/api/imports/template.csv");
     expect(response.status).toBe(200);
     expect(response.headers.get("content-type")).toMatch(/text\/csv/);
-    expect((await response.text()).split("\r\n")[0]).toBe("run_reference,instrument,method,project,started_at,injections,blanks,purge_mL,batch_A,batch_B,batch_C,batch_D,operator");
+    expect((await response.text()).split("\r\n")[0]).toBe(
+      "run_reference,instrument,method,project,started_at,injections,blanks,purge_mL,batch_A,batch_B,batch_C,batch_D,operator",
+    );
   });
 });

@@ -9,7 +9,8 @@ import { useServiceDatabase } from "../../support/service-database";
 const db = useServiceDatabase();
 const DAY = 86_400_000;
 const isoDay = (d: Date) => d.toISOString().slice(0, 10);
-const q = <T extends object>(sql: string, replacements: unknown[] = []) => db.sequelize.query<T>(sql, { type: QueryTypes.SELECT, replacements });
+const q = <T extends object>(sql: string, replacements: unknown[] = []) =>
+  db.sequelize.query<T>(sql, { type: QueryTypes.SELECT, replacements });
 const from = isoDay(new Date(Date.now() - 95 * DAY));
 const to = isoDay(new Date());
 const PERIOD = "l.occurred_at >= ? AND l.occurred_at < ? + INTERVAL 1 DAY";
@@ -26,7 +27,11 @@ const PHASES = `SELECT %KEY% AS g, COALESCE(rc.code, 'none') AS x, SUM(l.volume_
   LEFT JOIN batches b ON b.id = l.batch_id LEFT JOIN recipe_versions rv ON rv.id = b.recipe_version_id LEFT JOIN recipes rc ON rc.id = rv.recipe_id
   LEFT JOIN runs r ON l.source_id = CONCAT('run:', r.id) WHERE ${PERIOD} AND (? IS NULL OR p.client_id = ?) GROUP BY g, x`;
 const PHASE_KEY: Record<GroupedBy | "project", string> = {
-  client: "CAST(p.client_id AS CHAR)", instrument: "COALESCE(CAST(r.instrument_id AS CHAR), 'none')", reagent: "l.reagent_id", month: "DATE_FORMAT(l.occurred_at, '%Y-%m')", project: "p.code",
+  client: "CAST(p.client_id AS CHAR)",
+  instrument: "COALESCE(CAST(r.instrument_id AS CHAR), 'none')",
+  reagent: "l.reagent_id",
+  month: "DATE_FORMAT(l.occurred_at, '%Y-%m')",
+  project: "p.code",
 };
 
 async function direct(sql: string, clientId: number | null) {
@@ -40,14 +45,17 @@ describe.each([
   ["every client", null],
   ["one client's scope (Quillfeather, id 4)", 4],
 ] as const)("usage grouped, %s", (_name, clientId) => {
-  it.each(["client", "instrument", "reagent", "month"] as const)("groupBy=%s: reagent and mobile-phase totals equal a direct SQL sum", async (groupBy) => {
-    const answer = await usageGrouped({ from, to, groupBy }, { clientId });
-    const expected = await direct(DIRECT[groupBy], clientId);
-    expect(Object.keys(expected).length).toBeGreaterThan(0);
-    expect(Object.fromEntries(answer.rows.map((r) => [r.key, r.volumes_mL]))).toEqual(expected);
-    const phases = await direct(PHASES.replace("%KEY%", PHASE_KEY[groupBy]), clientId);
-    expect(Object.fromEntries(answer.rows.map((r) => [r.key, r.mobilePhases_mL]))).toEqual(phases);
-  });
+  it.each(["client", "instrument", "reagent", "month"] as const)(
+    "groupBy=%s: reagent and mobile-phase totals equal a direct SQL sum",
+    async (groupBy) => {
+      const answer = await usageGrouped({ from, to, groupBy }, { clientId });
+      const expected = await direct(DIRECT[groupBy], clientId);
+      expect(Object.keys(expected).length).toBeGreaterThan(0);
+      expect(Object.fromEntries(answer.rows.map((r) => [r.key, r.volumes_mL]))).toEqual(expected);
+      const phases = await direct(PHASES.replace("%KEY%", PHASE_KEY[groupBy]), clientId);
+      expect(Object.fromEntries(answer.rows.map((r) => [r.key, r.mobilePhases_mL]))).toEqual(phases);
+    },
+  );
 });
 
 describe("usage grouped: scope, costs and counts", () => {
@@ -57,7 +65,10 @@ describe("usage grouped: scope, costs and counts", () => {
     const byClient = await usageGrouped({ from, to, groupBy: "client" }, { clientId: 4 });
     expect(byClient.rows.map((r) => r.key)).toEqual(["4"]);
     // Nothing of another organisation's projects counts in any grouping's total.
-    const [own] = await q<{ v: string }>(`SELECT SUM(l.volume_ml) AS v FROM ledger_entries l JOIN projects p ON p.id = l.project_id WHERE ${PERIOD} AND p.client_id = 4`, [from, to]);
+    const [own] = await q<{ v: string }>(
+      `SELECT SUM(l.volume_ml) AS v FROM ledger_entries l JOIN projects p ON p.id = l.project_id WHERE ${PERIOD} AND p.client_id = 4`,
+      [from, to],
+    );
     for (const groupBy of ["client", "instrument", "reagent", "month"] as const) {
       const answer = await usageGrouped({ from, to, groupBy }, { clientId: 4 });
       const sum = answer.rows.reduce((a, r) => a + Object.values(r.volumes_mL).reduce((x, y) => x + y, 0), 0);
@@ -68,18 +79,25 @@ describe("usage grouped: scope, costs and counts", () => {
   it("the client grouping costs each client what its projects cost in the project grouping", async () => {
     const projects = await usageByProject({ from, to, groupBy: "project" }, { clientId: null });
     const clients = await usageGrouped({ from, to, groupBy: "client" }, { clientId: null });
-    const clientOf = new Map((await q<{ code: string; client_id: number }>("SELECT code, client_id FROM projects")).map((p) => [p.code, String(p.client_id)]));
+    const clientOf = new Map(
+      (await q<{ code: string; client_id: number }>("SELECT code, client_id FROM projects")).map((p) => [p.code, String(p.client_id)]),
+    );
     const expected = new Map<string, number>();
-    for (const p of projects.rows) expected.set(clientOf.get(p.projectCode)!, (expected.get(clientOf.get(p.projectCode)!) ?? 0) + p.cost.amount);
+    for (const p of projects.rows)
+      expected.set(clientOf.get(p.projectCode)!, (expected.get(clientOf.get(p.projectCode)!) ?? 0) + p.cost.amount);
     for (const c of clients.rows) expect(c.cost?.amount).toBe(expected.get(c.key));
     expect(clients.rows.some((c) => (c.cost?.amount ?? 0) > 0)).toBe(true);
   });
 
   it("counts runs and injections per instrument and per month", async () => {
     const byInstrument = await usageGrouped({ from, to, groupBy: "instrument" }, { clientId: null });
-    const runs = await q<{ g: string; n: number; inj: string }>("SELECT CAST(instrument_id AS CHAR) AS g, COUNT(*) AS n, SUM(injections) AS inj FROM runs WHERE started_at >= ? AND started_at < ? + INTERVAL 1 DAY GROUP BY g", [from, to]);
+    const runs = await q<{ g: string; n: number; inj: string }>(
+      "SELECT CAST(instrument_id AS CHAR) AS g, COUNT(*) AS n, SUM(injections) AS inj FROM runs WHERE started_at >= ? AND started_at < ? + INTERVAL 1 DAY GROUP BY g",
+      [from, to],
+    );
     expect(runs.length).toBeGreaterThan(0);
-    for (const r of runs) expect(byInstrument.rows.find((x) => x.key === r.g)).toMatchObject({ runs: Number(r.n), injections: Number(r.inj) });
+    for (const r of runs)
+      expect(byInstrument.rows.find((x) => x.key === r.g)).toMatchObject({ runs: Number(r.n), injections: Number(r.inj) });
     const byReagent = await usageGrouped({ from, to, groupBy: "reagent" }, { clientId: null });
     for (const r of byReagent.rows) expect(r.runs).toBeNull();
   });

@@ -14,8 +14,12 @@ describe("form decoding in the payments fake", () => {
   });
 
   it("names the parameter in its errors, as the real API does", () => {
-    expect(() => reader({ amount: "12.5" }, ["amount"]).int("amount")).toThrow(expect.objectContaining({ param: "amount", code: "parameter_invalid_integer" }));
-    expect(() => reader({}, ["customer"]).str("customer", true)).toThrow(expect.objectContaining({ param: "customer", code: "parameter_missing" }));
+    expect(() => reader({ amount: "12.5" }, ["amount"]).int("amount")).toThrow(
+      expect.objectContaining({ param: "amount", code: "parameter_invalid_integer" }),
+    );
+    expect(() => reader({}, ["customer"]).str("customer", true)).toThrow(
+      expect.objectContaining({ param: "customer", code: "parameter_missing" }),
+    );
     expect(() => reader({ bogus: "1" }, ["customer"])).toThrow(expect.objectContaining({ param: "bogus", code: "parameter_unknown" }));
   });
 

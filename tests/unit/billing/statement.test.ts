@@ -14,9 +14,28 @@ import {
 } from "../../../src/lib/billing/statement";
 
 let nextId = 1;
-const rate = (over: Partial<Rate>): Rate => ({ id: nextId++, kind: "reagent", reagentId: "acetonitrile", grade: null, priceList: "external", unit: "L", amount_minor: 7900, currency: "EUR", effectiveFrom: "2025-01-01", ...over });
+const rate = (over: Partial<Rate>): Rate => ({
+  id: nextId++,
+  kind: "reagent",
+  reagentId: "acetonitrile",
+  grade: null,
+  priceList: "external",
+  unit: "L",
+  amount_minor: 7900,
+  currency: "EUR",
+  effectiveFrom: "2025-01-01",
+  ...over,
+});
 const use = (day: string, volume_mL: string | number, over: Partial<UsageRow> = {}): UsageRow => ({
-  projectCode: "QFT-IMP-014", projectName: "Impurity profiling", reagentId: "acetonitrile", reagentName: "Acetonitrile", grade: null, day, volume_mL, mass_g: null, ...over,
+  projectCode: "QFT-IMP-014",
+  projectName: "Impurity profiling",
+  reagentId: "acetonitrile",
+  reagentName: "Acetonitrile",
+  grade: null,
+  day,
+  volume_mL,
+  mass_g: null,
+  ...over,
 });
 
 describe("statement lines at the rates in force", () => {
@@ -34,12 +53,22 @@ describe("statement lines at the rates in force", () => {
   });
 
   it("a rate that starts after the period changes nothing", () => {
-    const later = buildStatement({ usage, rates: [...rates, rate({ amount_minor: 99_900, effectiveFrom: "2026-12-01" })], priceList: "external", currency: "EUR" });
+    const later = buildStatement({
+      usage,
+      rates: [...rates, rate({ amount_minor: 99_900, effectiveFrom: "2026-12-01" })],
+      priceList: "external",
+      currency: "EUR",
+    });
     expect(later).toEqual(computed);
   });
 
   it("uses the client's price list only", () => {
-    const internal = buildStatement({ usage, rates: [...rates, rate({ priceList: "internal", amount_minor: 4200 })], priceList: "internal", currency: "EUR" });
+    const internal = buildStatement({
+      usage,
+      rates: [...rates, rate({ priceList: "internal", amount_minor: 4200 })],
+      priceList: "internal",
+      currency: "EUR",
+    });
     expect(internal.lines.map((l) => l.amount_minor)).toEqual([8400]); // 2 L at €42.00
   });
 
@@ -57,7 +86,12 @@ describe("statement lines at the rates in force", () => {
   });
 
   it("flags reagents without a rate instead of charging them", () => {
-    const result = buildStatement({ usage: [use("2026-11-03", "10", { reagentId: "methanol", reagentName: "Methanol" })], rates, priceList: "external", currency: "EUR" });
+    const result = buildStatement({
+      usage: [use("2026-11-03", "10", { reagentId: "methanol", reagentName: "Methanol" })],
+      rates,
+      priceList: "external",
+      currency: "EUR",
+    });
     expect(result.uncosted).toEqual(["methanol"]);
     expect(result.lines[0]).toMatchObject({ rateId: null, amount_minor: 0 });
   });
@@ -65,7 +99,10 @@ describe("statement lines at the rates in force", () => {
   it("charges injection and preparation fees at the fee in force, and leaves out zero fees", () => {
     const result = buildStatement({
       usage: [],
-      injections: [{ projectCode: "P1", projectName: "One", day: "2026-11-02", count: 40 }, { projectCode: "P1", projectName: "One", day: "2026-11-20", count: 10 }],
+      injections: [
+        { projectCode: "P1", projectName: "One", day: "2026-11-02", count: 40 },
+        { projectCode: "P1", projectName: "One", day: "2026-11-20", count: 10 },
+      ],
       preparations: [{ projectCode: "P1", projectName: "One", day: "2026-11-02", count: 2 }],
       rates: [
         rate({ kind: "injection_fee", reagentId: null, unit: "injection", amount_minor: 150 }),
@@ -82,7 +119,12 @@ describe("statement lines at the rates in force", () => {
   });
 
   it("nets a correction against the entry it reverses", () => {
-    const result = buildStatement({ usage: [use("2026-11-03", "120.5"), use("2026-11-09", "-120.5")], rates, priceList: "external", currency: "EUR" });
+    const result = buildStatement({
+      usage: [use("2026-11-03", "120.5"), use("2026-11-09", "-120.5")],
+      rates,
+      priceList: "external",
+      currency: "EUR",
+    });
     expect(result.lines).toEqual([]);
     expect(result.total_minor).toBe(0);
   });
@@ -98,7 +140,9 @@ describe("money rounding", () => {
     ["0.063292", 1], // 0.5000068 cents: just past the half
     ["0.0632911", 0], // quantities are kept to 10⁻⁶ mL first: 0.063291 mL → 0.4999989 cents
   ])("%s mL of acetonitrile at €79.00/L is %i cents", (volume, expected) => {
-    expect(buildStatement({ usage: [use("2026-11-03", volume)], rates: price, priceList: "external", currency: "EUR" }).total_minor).toBe(expected);
+    expect(buildStatement({ usage: [use("2026-11-03", volume)], rates: price, priceList: "external", currency: "EUR" }).total_minor).toBe(
+      expected,
+    );
   });
 
   it("sums many tiny entries exactly before rounding once (no float drift)", () => {
@@ -110,11 +154,23 @@ describe("money rounding", () => {
   it("total = sum of lines, each line = exact micro-volume × price rounded half up (property)", () => {
     fc.assert(
       fc.property(
-        fc.array(fc.record({ day: fc.integer({ min: 1, max: 30 }), micro: fc.integer({ min: -2_000_000_000, max: 2_000_000_000 }), reagent: fc.constantFrom("acetonitrile", "water") }), { maxLength: 60 }),
+        fc.array(
+          fc.record({
+            day: fc.integer({ min: 1, max: 30 }),
+            micro: fc.integer({ min: -2_000_000_000, max: 2_000_000_000 }),
+            reagent: fc.constantFrom("acetonitrile", "water"),
+          }),
+          { maxLength: 60 },
+        ),
         fc.integer({ min: 0, max: 50_000 }),
         (entries, waterPrice) => {
           const rates = [rate({ amount_minor: 7900 }), rate({ reagentId: "water", amount_minor: waterPrice })];
-          const usage = entries.map((e) => use(`2026-11-${String(e.day).padStart(2, "0")}`, (BigInt(e.micro) < 0n ? "-" : "") + (Math.abs(e.micro) / 1e6).toFixed(6), { reagentId: e.reagent, reagentName: e.reagent }));
+          const usage = entries.map((e) =>
+            use(`2026-11-${String(e.day).padStart(2, "0")}`, (BigInt(e.micro) < 0n ? "-" : "") + (Math.abs(e.micro) / 1e6).toFixed(6), {
+              reagentId: e.reagent,
+              reagentName: e.reagent,
+            }),
+          );
           const result = buildStatement({ usage, rates, priceList: "external", currency: "EUR" });
           expect(result.total_minor).toBe(result.lines.reduce((s, l) => s + l.amount_minor, 0));
           for (const line of result.lines) {
@@ -154,14 +210,31 @@ describe("money rounding", () => {
 
 describe("CSV exports", () => {
   const lines = buildStatement({
-    usage: [use("2026-11-03", "1500"), use("2026-11-03", "2000", { projectCode: "QFT-STB-015", projectName: 'Forced degradation, "QF-15"', reagentId: "water", reagentName: "Water" })],
+    usage: [
+      use("2026-11-03", "1500"),
+      use("2026-11-03", "2000", {
+        projectCode: "QFT-STB-015",
+        projectName: 'Forced degradation, "QF-15"',
+        reagentId: "water",
+        reagentName: "Water",
+      }),
+    ],
     rates: [rate({ amount_minor: 7900 }), rate({ reagentId: "water", amount_minor: 400 })],
     priceList: "external",
     currency: "EUR",
   }).lines;
 
   it("writes a header and one CRLF-terminated row per line, amounts as plain decimals", () => {
-    const csv = statementCsv({ reference: "ST-000007", clientName: "Quillfeather Therapeutics", periodStart: "2026-11-01", periodEnd: "2026-11-30", currency: "EUR" }, lines);
+    const csv = statementCsv(
+      {
+        reference: "ST-000007",
+        clientName: "Quillfeather Therapeutics",
+        periodStart: "2026-11-01",
+        periodEnd: "2026-11-30",
+        currency: "EUR",
+      },
+      lines,
+    );
     expect(csv.split("\r\n")).toEqual([
       "statement,client,period_start,period_end,project_code,project_name,item,quantity,quantity_unit,unit_price,price_per,amount,currency",
       "ST-000007,Quillfeather Therapeutics,2026-11-01,2026-11-30,QFT-IMP-014,Impurity profiling,Acetonitrile,1500,mL,79.00,L,118.50,EUR",
@@ -177,12 +250,31 @@ describe("CSV exports", () => {
 
   it("journals one row per cost centre and project, leaving out projects with nothing to charge", () => {
     const csv = journalCsv([
-      { reference: "ST-000001", clientName: "Plant Metabolomics Group", costCentre: "CC-4102", periodStart: "2026-11-01", periodEnd: "2026-11-30", currency: "EUR", lines },
-      { reference: "ST-000002", clientName: "Empty Group", costCentre: "CC-9999", periodStart: "2026-11-01", periodEnd: "2026-11-30", currency: "EUR", lines: [] },
+      {
+        reference: "ST-000001",
+        clientName: "Plant Metabolomics Group",
+        costCentre: "CC-4102",
+        periodStart: "2026-11-01",
+        periodEnd: "2026-11-30",
+        currency: "EUR",
+        lines,
+      },
+      {
+        reference: "ST-000002",
+        clientName: "Empty Group",
+        costCentre: "CC-9999",
+        periodStart: "2026-11-01",
+        periodEnd: "2026-11-30",
+        currency: "EUR",
+        lines: [],
+      },
     ]);
     const rows = csv.trimEnd().split("\r\n");
     expect(rows[0]).toBe("cost_centre,project_code,amount,currency,period_start,period_end,reference,description");
-    expect(rows.slice(1).map((r) => r.split(",").slice(0, 4).join(","))).toEqual(["CC-4102,QFT-IMP-014,118.50,EUR", "CC-4102,QFT-STB-015,8.00,EUR"]);
+    expect(rows.slice(1).map((r) => r.split(",").slice(0, 4).join(","))).toEqual([
+      "CC-4102,QFT-IMP-014,118.50,EUR",
+      "CC-4102,QFT-STB-015,8.00,EUR",
+    ]);
   });
 
   it.each([

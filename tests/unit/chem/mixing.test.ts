@@ -1,13 +1,13 @@
-import fc from 'fast-check';
-import { unit } from 'mathjs';
-import { describe, expect, it } from 'vitest';
-import { ChemInputError, getReagent, mixMobilePhase } from '../../../src/lib/chem';
-import { CONTRACTION_TABLES, excessMolarVolume_cm3_mol, volumeRatio } from '../../../src/lib/chem/excess-volume';
+import fc from "fast-check";
+import { unit } from "mathjs";
+import { describe, expect, it } from "vitest";
+import { ChemInputError, getReagent, mixMobilePhase } from "../../../src/lib/chem";
+import { CONTRACTION_TABLES, excessMolarVolume_cm3_mol, volumeRatio } from "../../../src/lib/chem/excess-volume";
 
-const SOLVENTS = ['water', 'acetonitrile', 'methanol', 'ethanol', 'isopropanol', 'tetrahydrofuran'];
+const SOLVENTS = ["water", "acetonitrile", "methanol", "ethanol", "isopropanol", "tetrahydrofuran"];
 
-describe('solvent volumes', () => {
-  it('sum to the total for any split (fast-check)', () => {
+describe("solvent volumes", () => {
+  it("sum to the total for any split (fast-check)", () => {
     fc.assert(
       fc.property(
         fc.double({ min: 1, max: 20000, noNaN: true }),
@@ -30,36 +30,50 @@ describe('solvent volumes', () => {
     );
   });
 
-  it('rejects percentages that do not add up to 100', () => {
-    expect(() => mixMobilePhase({ total_mL: 1000, solvents: [{ reagent: 'water', percent: 60 }, { reagent: 'methanol', percent: 30 }] })).toThrow(ChemInputError);
+  it("rejects percentages that do not add up to 100", () => {
+    expect(() =>
+      mixMobilePhase({
+        total_mL: 1000,
+        solvents: [
+          { reagent: "water", percent: 60 },
+          { reagent: "methanol", percent: 30 },
+        ],
+      }),
+    ).toThrow(ChemInputError);
   });
 });
 
-describe('volume contraction', () => {
-  it('50 mL methanol + 50 mL water at 25 °C gives about 96.3–96.6 mL (check-values §6, D from Merck Index densities)', () => {
-    const r = mixMobilePhase({ total_mL: 100, solvents: [{ reagent: 'water', percent: 50 }, { reagent: 'methanol', percent: 50 }] });
+describe("volume contraction", () => {
+  it("50 mL methanol + 50 mL water at 25 °C gives about 96.3–96.6 mL (check-values §6, D from Merck Index densities)", () => {
+    const r = mixMobilePhase({
+      total_mL: 100,
+      solvents: [
+        { reagent: "water", percent: 50 },
+        { reagent: "methanol", percent: 50 },
+      ],
+    });
     expect(r.finalVolume_mL).toBeGreaterThan(96.2);
     expect(r.finalVolume_mL).toBeLessThan(96.7);
-    expect(r.warnings.map((w) => w.code)).not.toContain('no-contraction-data');
+    expect(r.warnings.map((w) => w.code)).not.toContain("no-contraction-data");
   });
 
-  it('the 50/50 methanol mix weighs 89.18 g, 44.1 % w/w methanol (check-values §6, D)', () => {
+  it("the 50/50 methanol mix weighs 89.18 g, 44.1 % w/w methanol (check-values §6, D)", () => {
     const m = 50 * 0.7866 + 50 * 0.997047;
     expect(m).toBeCloseTo(89.18, 2);
     expect((50 * 0.7866) / m).toBeCloseTo(0.441, 3);
   });
 
-  it('reproduces the CRC table density it was built from at a table row (consistency)', () => {
+  it("reproduces the CRC table density it was built from at a table row (consistency)", () => {
     // CRC concentrative properties, methanol 40 % w/w at 20 °C: 0.9347 g/mL.
     const t = CONTRACTION_TABLES.methanol;
-    if (t === undefined) throw new Error('no table');
+    if (t === undefined) throw new Error("no table");
     const w = 0.4;
     const ideal = w / 0.7917 + (1 - w) / 0.998207;
     expect(1 / (volumeRatio(t, w) * ideal)).toBeCloseTo(0.9347, 4);
   });
 
-  it('is largest near the middle and vanishes at the ends (every table)', () => {
-    for (const id of ['methanol', 'ethanol', 'isopropanol', 'acetonitrile']) {
+  it("is largest near the middle and vanishes at the ends (every table)", () => {
+    for (const id of ["methanol", "ethanol", "isopropanol", "acetonitrile"]) {
       const t = CONTRACTION_TABLES[id];
       if (t === undefined) throw new Error(id);
       expect(volumeRatio(t, 0)).toBeCloseTo(1, 10);
@@ -68,23 +82,30 @@ describe('volume contraction', () => {
     }
   });
 
-  it('says when no data exist (THF–water, ternary mixes) and assumes ideal mixing', () => {
+  it("says when no data exist (THF–water, ternary mixes) and assumes ideal mixing", () => {
     for (const solvents of [
-      [{ reagent: 'water', percent: 50 }, { reagent: 'tetrahydrofuran', percent: 50 }],
-      [{ reagent: 'water', percent: 40 }, { reagent: 'acetonitrile', percent: 30 }, { reagent: 'methanol', percent: 30 }],
+      [
+        { reagent: "water", percent: 50 },
+        { reagent: "tetrahydrofuran", percent: 50 },
+      ],
+      [
+        { reagent: "water", percent: 40 },
+        { reagent: "acetonitrile", percent: 30 },
+        { reagent: "methanol", percent: 30 },
+      ],
     ]) {
       const r = mixMobilePhase({ total_mL: 1000, solvents });
       expect(r.finalVolume_mL).toBeCloseTo(1000, 9);
-      expect(r.warnings.find((w) => w.code === 'no-contraction-data')?.message).toMatch(/ideal mixing/);
+      expect(r.warnings.find((w) => w.code === "no-contraction-data")?.message).toMatch(/ideal mixing/);
     }
   });
 });
 
-describe('acetonitrile–water contraction (V^E data)', () => {
+describe("acetonitrile–water contraction (V^E data)", () => {
   const table = CONTRACTION_TABLES.acetonitrile;
-  if (table?.kind !== 'excess-molar-volume') throw new Error('acetonitrile V^E table missing');
-  const M_ACN = getReagent('acetonitrile')?.molarMass_g_mol ?? Number.NaN;
-  const M_W = getReagent('water')?.molarMass_g_mol ?? Number.NaN;
+  if (table?.kind !== "excess-molar-volume") throw new Error("acetonitrile V^E table missing");
+  const M_ACN = getReagent("acetonitrile")?.molarMass_g_mol ?? Number.NaN;
+  const M_W = getReagent("water")?.molarMass_g_mol ?? Number.NaN;
 
   it.each([
     // [x(water), V^E cm³/mol]: Fluid Phase Equilib., doi:10.1016/j.fluid.2011.09.016, 298.15 K, as recorded in NIST ThermoML
@@ -94,11 +115,11 @@ describe('acetonitrile–water contraction (V^E data)', () => {
     [0.757, -0.558],
     [0.854, -0.489],
     [0.899, -0.413],
-  ])('reproduces the published point x(water) = %s, V^E = %s cm³/mol', (x, ve) => {
+  ])("reproduces the published point x(water) = %s, V^E = %s cm³/mol", (x, ve) => {
     expect(excessMolarVolume_cm3_mol(table, x)).toBeCloseTo(ve, 12);
   });
 
-  it('V^E is negative over the whole range and zero at the pure liquids (Zarei et al. 2008, J. Chem. Eng. Data 53, 578, abstract)', () => {
+  it("V^E is negative over the whole range and zero at the pure liquids (Zarei et al. 2008, J. Chem. Eng. Data 53, 578, abstract)", () => {
     fc.assert(
       fc.property(fc.double({ min: 0.001, max: 0.999, noNaN: true }), (x) => {
         expect(excessMolarVolume_cm3_mol(table, x)).toBeLessThan(0);
@@ -117,7 +138,7 @@ describe('acetonitrile–water contraction (V^E data)', () => {
     [30, 0.854, -0.489, 0.899, -0.413],
     [50, 0.708, -0.566, 0.757, -0.558],
     [60, 0.651, -0.581, 0.708, -0.566],
-  ])('%s %% acetonitrile in 100 mL contracts as the interpolated V^E says', (pct, xa, va, xb, vb) => {
+  ])("%s %% acetonitrile in 100 mL contracts as the interpolated V^E says", (pct, xa, va, xb, vb) => {
     const nA = (pct * 0.7768) / M_ACN;
     const nW = ((100 - pct) * 0.997047) / M_W;
     const x = nW / (nW + nA);
@@ -125,51 +146,81 @@ describe('acetonitrile–water contraction (V^E data)', () => {
     expect(x).toBeLessThanOrEqual(xb);
     const ve = va + ((vb - va) * (x - xa)) / (xb - xa);
     const expected = 100 + (nA + nW) * ve;
-    const r = mixMobilePhase({ total_mL: 100, solvents: [{ reagent: 'water', percent: 100 - pct }, { reagent: 'acetonitrile', percent: pct }] });
+    const r = mixMobilePhase({
+      total_mL: 100,
+      solvents: [
+        { reagent: "water", percent: 100 - pct },
+        { reagent: "acetonitrile", percent: pct },
+      ],
+    });
     expect(r.finalVolume_mL).toBeCloseTo(expected, 2);
-    expect(r.warnings.map((w) => w.code)).not.toContain('no-contraction-data');
-    expect(r.warnings.map((w) => w.code)).not.toContain('contraction-estimated');
+    expect(r.warnings.map((w) => w.code)).not.toContain("no-contraction-data");
+    expect(r.warnings.map((w) => w.code)).not.toContain("contraction-estimated");
   });
 
-  it('50 mL acetonitrile + 50 mL water at 25 °C gives about 97.9 mL (derived above)', () => {
-    const r = mixMobilePhase({ total_mL: 100, solvents: [{ reagent: 'water', percent: 50 }, { reagent: 'acetonitrile', percent: 50 }] });
+  it("50 mL acetonitrile + 50 mL water at 25 °C gives about 97.9 mL (derived above)", () => {
+    const r = mixMobilePhase({
+      total_mL: 100,
+      solvents: [
+        { reagent: "water", percent: 50 },
+        { reagent: "acetonitrile", percent: 50 },
+      ],
+    });
     expect(r.finalVolume_mL).toBeGreaterThan(97.8);
     expect(r.finalVolume_mL).toBeLessThan(98.0);
   });
 
-  it('flags acetonitrile-rich mixes beyond the measured points as an estimate, still below the ideal volume', () => {
+  it("flags acetonitrile-rich mixes beyond the measured points as an estimate, still below the ideal volume", () => {
     // The lowest published x(water) is 0.597, about 66 % acetonitrile by volume.
-    const r = mixMobilePhase({ total_mL: 100, solvents: [{ reagent: 'water', percent: 20 }, { reagent: 'acetonitrile', percent: 80 }] });
-    expect(r.warnings.find((w) => w.code === 'contraction-estimated')?.reagent).toBe('acetonitrile');
+    const r = mixMobilePhase({
+      total_mL: 100,
+      solvents: [
+        { reagent: "water", percent: 20 },
+        { reagent: "acetonitrile", percent: 80 },
+      ],
+    });
+    expect(r.warnings.find((w) => w.code === "contraction-estimated")?.reagent).toBe("acetonitrile");
     expect(r.finalVolume_mL).toBeLessThan(100);
     expect(r.finalVolume_mL).toBeGreaterThan(98);
   });
 });
 
-describe('2-propanol–water contraction (CRC density table)', () => {
-  it('reproduces the CRC table density at its 40 % row (consistency)', () => {
+describe("2-propanol–water contraction (CRC density table)", () => {
+  it("reproduces the CRC table density at its 40 % row (consistency)", () => {
     // CRC concentrative properties, 2-propanol 40 % w/w at 20 °C: 0.9302 g/mL; pure 2-propanol 0.7848 g/mL.
     const t = CONTRACTION_TABLES.isopropanol;
-    if (t === undefined) throw new Error('no table');
+    if (t === undefined) throw new Error("no table");
     const w = 0.4;
     const ideal = w / 0.7848 + (1 - w) / 0.998207;
     expect(1 / (volumeRatio(t, w) * ideal)).toBeCloseTo(0.9302, 4);
   });
 
-  it('50 mL 2-propanol + 50 mL water at 20 °C gives 96.84 mL (D: 89.15 g at 44.0 % w/w, CRC density 0.9206 by interpolation)', () => {
+  it("50 mL 2-propanol + 50 mL water at 20 °C gives 96.84 mL (D: 89.15 g at 44.0 % w/w, CRC density 0.9206 by interpolation)", () => {
     const m = 50 * 0.7848 + 50 * 0.998207;
     const w = (50 * 0.7848) / m;
     const rho = 0.9302 + ((0.8824 - 0.9302) * (w * 100 - 40)) / 20; // CRC rows 40 % and 60 %
-    const r = mixMobilePhase({ total_mL: 100, temperature_C: 20, solvents: [{ reagent: 'water', percent: 50 }, { reagent: 'isopropanol', percent: 50 }] });
+    const r = mixMobilePhase({
+      total_mL: 100,
+      temperature_C: 20,
+      solvents: [
+        { reagent: "water", percent: 50 },
+        { reagent: "isopropanol", percent: 50 },
+      ],
+    });
     expect(r.finalVolume_mL).toBeCloseTo(m / rho, 3);
     expect(r.finalVolume_mL).toBeCloseTo(96.84, 1);
   });
 });
 
-describe('additives (per litre of the final mix)', () => {
-  it('0.1 % v/v formic acid is 1.22 g/L = 26.5 mmol/L at 20 °C (check-values §4 additive check, D, density 1.220)', () => {
-    const r = mixMobilePhase({ total_mL: 1000, temperature_C: 20, solvents: [{ reagent: 'water', percent: 100 }], additives: [{ reagent: 'formic-acid', amount: 0.1, unit: '%v/v' }] });
-    const fa = r.components.find((c) => c.reagent === 'formic-acid');
+describe("additives (per litre of the final mix)", () => {
+  it("0.1 % v/v formic acid is 1.22 g/L = 26.5 mmol/L at 20 °C (check-values §4 additive check, D, density 1.220)", () => {
+    const r = mixMobilePhase({
+      total_mL: 1000,
+      temperature_C: 20,
+      solvents: [{ reagent: "water", percent: 100 }],
+      additives: [{ reagent: "formic-acid", amount: 0.1, unit: "%v/v" }],
+    });
+    const fa = r.components.find((c) => c.reagent === "formic-acid");
     expect(fa?.volume_mL).toBeCloseTo(1, 9);
     expect((fa?.amount_mol ?? 0) * 1000).toBeCloseTo(26.5, 1);
     expect(r.finalVolume_mL).toBeCloseTo(1001, 6);
@@ -177,56 +228,101 @@ describe('additives (per litre of the final mix)', () => {
 
   it.each([
     // [unit, amount, expected mass g for 1 L of water]; mathjs converts the unit as a second opinion.
-    ['g/L', 2.5, unit(2.5, 'g').toNumber('g')],
-    ['mg/L', 250, unit(250, 'mg').toNumber('g')],
-    ['%w/v', 0.25, unit(0.25, 'g').toNumber('g') * unit(1, 'L').toNumber('mL') / 100],
-  ] as const)('%s of ammonium acetate', (u, amount, expectedMass) => {
-    const r = mixMobilePhase({ total_mL: 1000, solvents: [{ reagent: 'water', percent: 100 }], additives: [{ reagent: 'ammonium-acetate', amount, unit: u }] });
-    const c = r.components.find((x) => x.reagent === 'ammonium-acetate');
+    ["g/L", 2.5, unit(2.5, "g").toNumber("g")],
+    ["mg/L", 250, unit(250, "mg").toNumber("g")],
+    ["%w/v", 0.25, (unit(0.25, "g").toNumber("g") * unit(1, "L").toNumber("mL")) / 100],
+  ] as const)("%s of ammonium acetate", (u, amount, expectedMass) => {
+    const r = mixMobilePhase({
+      total_mL: 1000,
+      solvents: [{ reagent: "water", percent: 100 }],
+      additives: [{ reagent: "ammonium-acetate", amount, unit: u }],
+    });
+    const c = r.components.find((x) => x.reagent === "ammonium-acetate");
     expect(c?.mass_g).toBeCloseTo(expectedMass, 9);
-    expect(c?.amount_mol).toBeCloseTo(expectedMass / (getReagent('ammonium-acetate')?.molarMass_g_mol ?? 1), 9);
+    expect(c?.amount_mol).toBeCloseTo(expectedMass / (getReagent("ammonium-acetate")?.molarMass_g_mol ?? 1), 9);
   });
 
-  it('10 mM ammonium formate in 500 mL of water is 5 mmol, 0.315 g (hand calculation, M = 63.056)', () => {
-    const r = mixMobilePhase({ total_mL: 500, solvents: [{ reagent: 'water', percent: 100 }], additives: [{ reagent: 'ammonium-formate', amount: 10, unit: 'mM' }] });
-    const c = r.components.find((x) => x.reagent === 'ammonium-formate');
+  it("10 mM ammonium formate in 500 mL of water is 5 mmol, 0.315 g (hand calculation, M = 63.056)", () => {
+    const r = mixMobilePhase({
+      total_mL: 500,
+      solvents: [{ reagent: "water", percent: 100 }],
+      additives: [{ reagent: "ammonium-formate", amount: 10, unit: "mM" }],
+    });
+    const c = r.components.find((x) => x.reagent === "ammonium-formate");
     expect(c?.amount_mol).toBeCloseTo(0.005, 12);
     expect(c?.mass_g).toBeCloseTo(0.31528, 4);
   });
 
-  it('1 mL/L phosphoric acid 85 %: substance amount through density and purity', () => {
-    const r = mixMobilePhase({ total_mL: 1000, solvents: [{ reagent: 'water', percent: 100 }], additives: [{ reagent: 'phosphoric-acid', amount: 1, unit: 'mL/L' }] });
-    const c = r.components.find((x) => x.reagent === 'phosphoric-acid');
+  it("1 mL/L phosphoric acid 85 %: substance amount through density and purity", () => {
+    const r = mixMobilePhase({
+      total_mL: 1000,
+      solvents: [{ reagent: "water", percent: 100 }],
+      additives: [{ reagent: "phosphoric-acid", amount: 1, unit: "mL/L" }],
+    });
+    const c = r.components.find((x) => x.reagent === "phosphoric-acid");
     // 1 mL × 1.685 g/mL × 0.85 / 97.994 g/mol = 14.6 mmol (hand calculation)
     expect((c?.amount_mol ?? 0) * 1000).toBeCloseTo((1.685 * 0.85 * 1000) / 97.994, 2);
   });
 
-  it('rejects a volume unit for a solid', () => {
-    expect(() => mixMobilePhase({ total_mL: 1000, solvents: [{ reagent: 'water', percent: 100 }], additives: [{ reagent: 'ammonium-acetate', amount: 1, unit: 'mL/L' }] })).toThrow(/solid/);
+  it("rejects a volume unit for a solid", () => {
+    expect(() =>
+      mixMobilePhase({
+        total_mL: 1000,
+        solvents: [{ reagent: "water", percent: 100 }],
+        additives: [{ reagent: "ammonium-acetate", amount: 1, unit: "mL/L" }],
+      }),
+    ).toThrow(/solid/);
   });
 });
 
-describe('warnings', () => {
+describe("warnings", () => {
   const codes = (r: ReturnType<typeof mixMobilePhase>) => r.warnings.map((w) => w.code);
 
-  it('flags buffer salt with more than 50 % organic (precipitation risk, common practice)', () => {
-    const high = mixMobilePhase({ total_mL: 1000, solvents: [{ reagent: 'water', percent: 30 }, { reagent: 'acetonitrile', percent: 70 }], additives: [{ reagent: 'potassium-dihydrogen-phosphate', amount: 20, unit: 'mM' }] });
-    expect(codes(high)).toContain('precipitation-risk');
-    const low = mixMobilePhase({ total_mL: 1000, solvents: [{ reagent: 'water', percent: 70 }, { reagent: 'acetonitrile', percent: 30 }], additives: [{ reagent: 'potassium-dihydrogen-phosphate', amount: 20, unit: 'mM' }] });
-    expect(codes(low)).not.toContain('precipitation-risk');
-    expect(codes(low)).toContain('non-volatile-buffer');
+  it("flags buffer salt with more than 50 % organic (precipitation risk, common practice)", () => {
+    const high = mixMobilePhase({
+      total_mL: 1000,
+      solvents: [
+        { reagent: "water", percent: 30 },
+        { reagent: "acetonitrile", percent: 70 },
+      ],
+      additives: [{ reagent: "potassium-dihydrogen-phosphate", amount: 20, unit: "mM" }],
+    });
+    expect(codes(high)).toContain("precipitation-risk");
+    const low = mixMobilePhase({
+      total_mL: 1000,
+      solvents: [
+        { reagent: "water", percent: 70 },
+        { reagent: "acetonitrile", percent: 30 },
+      ],
+      additives: [{ reagent: "potassium-dihydrogen-phosphate", amount: 20, unit: "mM" }],
+    });
+    expect(codes(low)).not.toContain("precipitation-risk");
+    expect(codes(low)).toContain("non-volatile-buffer");
   });
 
-  it('names flammable solvents and defers to the SOP', () => {
-    const r = mixMobilePhase({ total_mL: 1000, solvents: [{ reagent: 'water', percent: 50 }, { reagent: 'methanol', percent: 50 }] });
-    const w = r.warnings.find((x) => x.code === 'flammable');
-    expect(w?.reagent).toBe('methanol');
+  it("names flammable solvents and defers to the SOP", () => {
+    const r = mixMobilePhase({
+      total_mL: 1000,
+      solvents: [
+        { reagent: "water", percent: 50 },
+        { reagent: "methanol", percent: 50 },
+      ],
+    });
+    const w = r.warnings.find((x) => x.code === "flammable");
+    expect(w?.reagent).toBe("methanol");
     expect(w?.message).toMatch(/SOP/);
-    expect(codes(mixMobilePhase({ total_mL: 1000, solvents: [{ reagent: 'water', percent: 100 }] }))).toEqual([]);
+    expect(codes(mixMobilePhase({ total_mL: 1000, solvents: [{ reagent: "water", percent: 100 }] }))).toEqual([]);
   });
 
-  it('flags UV cutoffs above the detection wavelength', () => {
-    const r = mixMobilePhase({ total_mL: 1000, solvents: [{ reagent: 'water', percent: 50 }, { reagent: 'methanol', percent: 50 }], detectionWavelength_nm: 200 });
-    expect(r.warnings.find((w) => w.code === 'uv-cutoff')?.reagent).toBe('methanol');
+  it("flags UV cutoffs above the detection wavelength", () => {
+    const r = mixMobilePhase({
+      total_mL: 1000,
+      solvents: [
+        { reagent: "water", percent: 50 },
+        { reagent: "methanol", percent: 50 },
+      ],
+      detectionWavelength_nm: 200,
+    });
+    expect(r.warnings.find((w) => w.code === "uv-cutoff")?.reagent).toBe("methanol");
   });
 });

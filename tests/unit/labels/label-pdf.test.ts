@@ -13,11 +13,16 @@ import { decodeCode128 } from "./code128-reference";
 import { scanLabels } from "./scan-labels";
 
 // A demanding label: long name and composition, four pictograms, a deviation.
-const hazards = hazardSummary([{ reagent: "methanol", share_percent: 40 }, { reagent: "phosphoric-acid", share_percent: 1.2 }, { reagent: "water", share_percent: 58.8 }]);
+const hazards = hazardSummary([
+  { reagent: "methanol", share_percent: 40 },
+  { reagent: "phosphoric-acid", share_percent: 1.2 },
+  { reagent: "water", share_percent: 58.8 },
+]);
 const CONTENT: LabelContent = {
   code: "B26-1203-12",
   name: "25 mM potassium phosphate pH 2.5 / methanol 60:40",
-  composition: "Water 60 % + methanol 40 % · 25 mM potassium dihydrogen phosphate with phosphoric acid 85 %, pH 2.50 at 25 °C (aqueous part) · measured pH 2.53",
+  composition:
+    "Water 60 % + methanol 40 % · 25 mM potassium dihydrogen phosphate with phosphoric acid 85 %, pH 2.50 at 25 °C (aqueous part) · measured pH 2.53",
   prepared: "2026-12-03 08:30 UTC",
   expires: "2026-12-10 08:30 UTC",
   preparer: "Rowan Ellery",
@@ -44,7 +49,12 @@ describe("hazard summary", () => {
     expect(hazards.statements).toContain("H225 Highly flammable liquid and vapour");
   });
   it("ignores 0.1 % formic acid in water (below the cut-off)", () => {
-    expect(hazardSummary([{ reagent: "water", share_percent: 99.9 }, { reagent: "formic-acid", share_percent: 0.1 }])).toMatchObject({ pictograms: [], signalWord: null });
+    expect(
+      hazardSummary([
+        { reagent: "water", share_percent: 99.9 },
+        { reagent: "formic-acid", share_percent: 0.1 },
+      ]),
+    ).toMatchObject({ pictograms: [], signalWord: null });
   });
 });
 
@@ -80,7 +90,8 @@ describe.each(DEFAULT_LABEL_STOCKS.map((s) => [s.id, s] as const))("label stock 
       expect(t.y + t.size).toBeLessThanOrEqual(layout.height);
     }
     const blocks = new Set(layout.texts.map((t) => t.block));
-    for (const required of ["code", "name", "composition", "dates", "preparer", "storage", "deviation", "signal"]) expect(blocks).toContain(required);
+    for (const required of ["code", "name", "composition", "dates", "preparer", "storage", "deviation", "signal"])
+      expect(blocks).toContain(required);
     // Only the optional blocks may be left off, and only on small stocks.
     for (const omitted of layout.omitted) expect(["hazards", "sop"]).toContain(omitted);
     // Stocks of 90 mm and wider never shorten anything; the smallest may cut descriptive text to one line.
@@ -92,8 +103,20 @@ describe.each(DEFAULT_LABEL_STOCKS.map((s) => [s.id, s] as const))("label stock 
   });
 
   it("keeps everything, hazard statements included, for a typical organic channel on stocks of 90 mm and wider", async () => {
-    const acn = hazardSummary([{ reagent: "acetonitrile", share_percent: 99.9 }, { reagent: "formic-acid", share_percent: 0.1 }]);
-    const typical = { ...CONTENT, name: "0.1 % formic acid in acetonitrile", composition: "Acetonitrile 100 % · formic acid 0.1 %v/v", deviation: null, storage: "Flammables cabinet", pictograms: acn.pictograms, signalWord: acn.signalWord, hazardStatements: acn.statements };
+    const acn = hazardSummary([
+      { reagent: "acetonitrile", share_percent: 99.9 },
+      { reagent: "formic-acid", share_percent: 0.1 },
+    ]);
+    const typical = {
+      ...CONTENT,
+      name: "0.1 % formic acid in acetonitrile",
+      composition: "Acetonitrile 100 % · formic acid 0.1 %v/v",
+      deviation: null,
+      storage: "Flammables cabinet",
+      pictograms: acn.pictograms,
+      signalWord: acn.signalWord,
+      hazardStatements: acn.statements,
+    };
     const layout = await measureLabel(typical, stock, 1);
     expect(layout.overflow).toBe(false);
     if (stock.width_mm >= 90) expect(layout.omitted).toEqual([]);

@@ -16,7 +16,7 @@ function runsOf(row: Uint8Array): number[] {
   for (let x = 0; x < row.length; ) {
     const dark = row[x]! < 128;
     let end = x;
-    while (end < row.length && (row[end]! < 128) === dark) end++;
+    while (end < row.length && row[end]! < 128 === dark) end++;
     runs.push(dark ? end - x : x - end);
     x = end;
   }
@@ -63,7 +63,9 @@ function scanPages(dir: string, pdf: Uint8Array, stock: LabelStock, dpi: number)
   const px = dpi / 72;
   const geometry = pageGeometry(stock);
   const found: (string | null)[] = [];
-  for (const file of readdirSync(dir).filter((f) => f.endsWith(".pgm")).sort()) {
+  for (const file of readdirSync(dir)
+    .filter((f) => f.endsWith(".pgm"))
+    .sort()) {
     // Binary PGM: "P5 width height 255" and one byte per pixel.
     const image = readFileSync(join(dir, file));
     const [, width = 0, height = 0] = image.subarray(0, 32).toString("latin1").split(/\s+/).map(Number);

@@ -27,7 +27,16 @@ describe("formatMoney", () => {
 });
 
 const rate = (id: number, effectiveFrom: string, amount_minor: number, extra: Partial<Rate> = {}): Rate => ({
-  id, kind: "reagent", reagentId: "acetonitrile", grade: null, priceList: "internal", unit: "L", amount_minor, currency: "EUR", effectiveFrom, ...extra,
+  id,
+  kind: "reagent",
+  reagentId: "acetonitrile",
+  grade: null,
+  priceList: "internal",
+  unit: "L",
+  amount_minor,
+  currency: "EUR",
+  effectiveFrom,
+  ...extra,
 });
 
 describe("rateInForce", () => {
@@ -80,7 +89,11 @@ describe("costing", () => {
       { reagentId: "formic-acid", volume_mL: "0.2", at: "2026-02-20" }, // no rate
     ];
     // 920.0368 → 920 cents; hand-worked
-    expect(costLines(lines, rates, { priceList: "internal", currency: "EUR" })).toEqual({ amount_minor: 920, currency: "EUR", uncosted: ["formic-acid"] });
+    expect(costLines(lines, rates, { priceList: "internal", currency: "EUR" })).toEqual({
+      amount_minor: 920,
+      currency: "EUR",
+      uncosted: ["formic-acid"],
+    });
   });
 
   it("a correction nets its entry's cost to zero", () => {
@@ -94,13 +107,20 @@ describe("costing", () => {
 
   it("has no float drift: the sum of many small entries equals the cost of their total (property)", () => {
     fc.assert(
-      fc.property(fc.array(fc.integer({ min: 1, max: 10_000_000 }), { minLength: 1, maxLength: 200 }), fc.integer({ min: 1, max: 100_000 }), (tenThousandths, price) => {
-        const r = [rate(1, "2026-01-01", price)];
-        const lines = tenThousandths.map((n) => ({ reagentId: "acetonitrile", volume_mL: (n / 10_000).toFixed(4), at: "2026-03-01" }));
-        const total = tenThousandths.reduce((a, b) => a + b, 0);
-        const whole = costLines([{ reagentId: "acetonitrile", volume_mL: (total / 10_000).toFixed(4), at: "2026-03-01" }], r, { priceList: "internal", currency: "EUR" });
-        expect(costLines(lines, r, { priceList: "internal", currency: "EUR" }).amount_minor).toBe(whole.amount_minor);
-      }),
+      fc.property(
+        fc.array(fc.integer({ min: 1, max: 10_000_000 }), { minLength: 1, maxLength: 200 }),
+        fc.integer({ min: 1, max: 100_000 }),
+        (tenThousandths, price) => {
+          const r = [rate(1, "2026-01-01", price)];
+          const lines = tenThousandths.map((n) => ({ reagentId: "acetonitrile", volume_mL: (n / 10_000).toFixed(4), at: "2026-03-01" }));
+          const total = tenThousandths.reduce((a, b) => a + b, 0);
+          const whole = costLines([{ reagentId: "acetonitrile", volume_mL: (total / 10_000).toFixed(4), at: "2026-03-01" }], r, {
+            priceList: "internal",
+            currency: "EUR",
+          });
+          expect(costLines(lines, r, { priceList: "internal", currency: "EUR" }).amount_minor).toBe(whole.amount_minor);
+        },
+      ),
     );
   });
 

@@ -13,7 +13,10 @@ const ISOCRATIC: ProgramPoint[] = [point(0, 40), point(15, 40)];
 // Scouting runs made from log kw = 2.6, S = 4, t0 = 1 min (worked by hand):
 // 40 % B: log k = 2.6 − 1.6 = 1.0, k = 10, tR = 1·(1 + 10) = 11 min;
 // 50 % B: log k = 0.6, k = 10^0.6 = 3.98107, tR = 4.98107 min.
-const SCOUTING = [{ percentB: 40, retention_min: 11 }, { percentB: 50, retention_min: 4.98107 }];
+const SCOUTING = [
+  { percentB: 40, retention_min: 11 },
+  { percentB: 50, retention_min: 4.98107 },
+];
 
 describe("whatIf, isocratic (worked by hand)", () => {
   it.each([
@@ -54,7 +57,9 @@ describe("whatIf, isocratic (worked by hand)", () => {
     [{ percentB: 30, retention_min: 0.5 }, "runs[1].retention_min"], // before the dead time
     [{ percentB: 40, retention_min: 6 }, "runs"], // both runs at the same %B
   ])("refuses scouting runs the model cannot take (%o → field %s)", (second, field) => {
-    expect(() => whatIf({ runs: [SCOUTING[0]!, second], deadTime_min: 1, targetPercentB: 30, margin_min: 2, program: ISOCRATIC })).toThrow(expect.objectContaining({ field }));
+    expect(() => whatIf({ runs: [SCOUTING[0]!, second], deadTime_min: 1, targetPercentB: 30, margin_min: 2, program: ISOCRATIC })).toThrow(
+      expect.objectContaining({ field }),
+    );
   });
 
   it("warns for an extrapolation outside the scouting runs and for k below 1", () => {
@@ -71,7 +76,10 @@ describe("whatIf, under the method's gradient", () => {
   // S 4, k0 1000, t_D 1 min → b 0.270, k* 3.22, t_R 18.02 min. k0 = 1000 at φ0 = 0.05 means
   // log kw = 3 + 4 × 0.05 = 3.2. Scouting runs from log kw 3.2, S 4, t0 1.5 (worked by hand):
   // 40 % B: k = 10^1.6 = 39.8107, tR = 1.5 × 40.8107 = 61.2161; 60 % B: k = 10^0.8 = 6.30957, tR = 10.9644.
-  const runs = [{ percentB: 40, retention_min: 61.2161 }, { percentB: 60, retention_min: 10.9644 }];
+  const runs = [
+    { percentB: 40, retention_min: 61.2161 },
+    { percentB: 60, retention_min: 10.9644 },
+  ];
   const r = whatIf({ runs, deadTime_min: 1.5, targetPercentB: 50, margin_min: 5, program: GRADIENT, dwell_mL: 1 });
 
   it("reproduces the check values: b 0.270, k* 3.22, t_R 18.02 min", () => {
@@ -115,7 +123,12 @@ describe("whatIf, under the method's gradient", () => {
 
 describe("program helpers", () => {
   it("finds the first rising stretch of %B, after an initial hold", () => {
-    expect(gradientSegment([point(0, 10), point(2, 10), point(12, 60), point(14, 90), point(15, 90)])).toEqual({ start_min: 2, end_min: 14, from_percentB: 10, to_percentB: 90 });
+    expect(gradientSegment([point(0, 10), point(2, 10), point(12, 60), point(14, 90), point(15, 90)])).toEqual({
+      start_min: 2,
+      end_min: 14,
+      from_percentB: 10,
+      to_percentB: 90,
+    });
     expect(gradientSegment(ISOCRATIC)).toBeNull();
   });
 

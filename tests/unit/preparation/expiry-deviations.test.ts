@@ -7,16 +7,48 @@ import { preparationPlan } from "../../../src/lib/preparation/plan";
 import { mixMobilePhase } from "../../../src/lib/chem";
 import type { RecipeSpec } from "../../../src/lib/schemas/recipes";
 
-const spec = (s: Partial<RecipeSpec>): RecipeSpec => ({ solvents: [{ reagent: "water", percent: 100 }], additives: [], labile: false, ...s });
-const phosphate = { reagents: ["potassium-dihydrogen-phosphate", "phosphoric-acid"] as [string, string], targetPH: 3, concentration_mM: 25, basis: "first" as const, temperature_C: 25 };
+const spec = (s: Partial<RecipeSpec>): RecipeSpec => ({
+  solvents: [{ reagent: "water", percent: 100 }],
+  additives: [],
+  labile: false,
+  ...s,
+});
+const phosphate = {
+  reagents: ["potassium-dihydrogen-phosphate", "phosphoric-acid"] as [string, string],
+  targetPH: 3,
+  concentration_mM: 25,
+  basis: "first" as const,
+  temperature_C: 25,
+};
 
 describe("mixtureKind (the row of the expiry table that applies)", () => {
   it.each<[string, RecipeSpec, MixtureKind]>([
     ["phosphate buffer in water", spec({ buffer: phosphate }), "aqueous-buffer"],
-    ["0.1 % formic acid in water (no salt)", spec({ additives: [{ reagent: "formic-acid", amount: 0.1, unit: "%v/v" }] }), "aqueous-acidified"],
-    ["ammonium formate as an additive (a salt)", spec({ additives: [{ reagent: "ammonium-formate", amount: 10, unit: "mM" }] }), "aqueous-buffer"],
-    ["water–acetonitrile 50:50", spec({ solvents: [{ reagent: "water", percent: 50 }, { reagent: "acetonitrile", percent: 50 }] }), "aqueous-organic"],
-    ["0.1 % formic acid in acetonitrile", spec({ solvents: [{ reagent: "acetonitrile", percent: 100 }], additives: [{ reagent: "formic-acid", amount: 0.1, unit: "%v/v" }] }), "neat-organic"],
+    [
+      "0.1 % formic acid in water (no salt)",
+      spec({ additives: [{ reagent: "formic-acid", amount: 0.1, unit: "%v/v" }] }),
+      "aqueous-acidified",
+    ],
+    [
+      "ammonium formate as an additive (a salt)",
+      spec({ additives: [{ reagent: "ammonium-formate", amount: 10, unit: "mM" }] }),
+      "aqueous-buffer",
+    ],
+    [
+      "water–acetonitrile 50:50",
+      spec({
+        solvents: [
+          { reagent: "water", percent: 50 },
+          { reagent: "acetonitrile", percent: 50 },
+        ],
+      }),
+      "aqueous-organic",
+    ],
+    [
+      "0.1 % formic acid in acetonitrile",
+      spec({ solvents: [{ reagent: "acetonitrile", percent: 100 }], additives: [{ reagent: "formic-acid", amount: 0.1, unit: "%v/v" }] }),
+      "neat-organic",
+    ],
     // Ammonium bicarbonate loses CO2 and ammonia: shortest rule, whatever else is in the bottle.
     ["ammonium bicarbonate", spec({ additives: [{ reagent: "ammonium-bicarbonate", amount: 10, unit: "mM" }] }), "labile-additive"],
     ["flagged labile by the recipe", spec({ solvents: [{ reagent: "methanol", percent: 100 }], labile: true }), "labile-additive"],
@@ -36,7 +68,15 @@ describe("batchExpiry", () => {
     expect(batchExpiry({ kind, preparedAt, rules: DEFAULT_EXPIRY_RULES, lots: [] }).expiresAt.toISOString()).toBe(expected);
   });
   it("is cut short by a lot expiring earlier: the end of the lot's expiry day", () => {
-    const e = batchExpiry({ kind: "neat-organic", preparedAt, rules: DEFAULT_EXPIRY_RULES, lots: [{ lotNumber: "AN-1", expiresOn: "2027-03-01" }, { lotNumber: "FA-9", expiresOn: "2026-12-20" }] });
+    const e = batchExpiry({
+      kind: "neat-organic",
+      preparedAt,
+      rules: DEFAULT_EXPIRY_RULES,
+      lots: [
+        { lotNumber: "AN-1", expiresOn: "2027-03-01" },
+        { lotNumber: "FA-9", expiresOn: "2026-12-20" },
+      ],
+    });
     expect(e.expiresAt.toISOString()).toBe("2026-12-21T00:00:00.000Z");
     expect(e.limitedBy?.lotNumber).toBe("FA-9");
     expect(e.reason).toContain("FA-9");
@@ -54,9 +94,9 @@ describe("batchExpiry", () => {
 describe("findDeviations (defaults pH ±0.05, amounts ±2 %)", () => {
   const base = { tolerances: DEFAULT_TOLERANCES, targetPH: 3.0 };
   it.each<[string, number | null, number | null, string[]]>([
-    ["on target", 3.02, 3.40, []],
-    ["pH at the edge passes", 3.05, 3.40, []],
-    ["pH beyond the edge", 3.06, 3.40, ["measuredPH"]],
+    ["on target", 3.02, 3.4, []],
+    ["pH at the edge passes", 3.05, 3.4, []],
+    ["pH beyond the edge", 3.06, 3.4, ["measuredPH"]],
     ["amount at +2 % passes", 3.0, 3.468, []],
     ["amount at +2.1 %", 3.0, 3.4714, ["components.0.actualAmount"]],
     ["amount short by 3 % and pH low", 2.9, 3.298, ["measuredPH", "components.0.actualAmount"]],
@@ -79,11 +119,20 @@ describe("batch codes", () => {
 
 describe("preparationPlan", () => {
   it("gives the same solvent and additive amounts as mixMobilePhase", () => {
-    const s = spec({ solvents: [{ reagent: "water", percent: 70 }, { reagent: "acetonitrile", percent: 30 }], additives: [{ reagent: "formic-acid", amount: 0.1, unit: "%v/v" }] });
+    const s = spec({
+      solvents: [
+        { reagent: "water", percent: 70 },
+        { reagent: "acetonitrile", percent: 30 },
+      ],
+      additives: [{ reagent: "formic-acid", amount: 0.1, unit: "%v/v" }],
+    });
     const plan = preparationPlan({ spec: s, volume_mL: 2000, temperature_C: 22 });
     const mix = mixMobilePhase({ total_mL: 2000, solvents: s.solvents, additives: s.additives, temperature_C: 22 });
     expect(plan.components.find((c) => c.reagent === "acetonitrile")!.target).toBeCloseTo(600, 9);
-    expect(plan.components.find((c) => c.reagent === "formic-acid")!.target).toBeCloseTo(mix.components.find((c) => c.reagent === "formic-acid")!.volume_mL!, 9);
+    expect(plan.components.find((c) => c.reagent === "formic-acid")!.target).toBeCloseTo(
+      mix.components.find((c) => c.reagent === "formic-acid")!.volume_mL!,
+      9,
+    );
     expect(plan.kind).toBe("aqueous-organic");
     expect(plan.steps.some((step) => /separately/.test(step))).toBe(true);
     expect(plan.cautions.some((c) => /SOPs/.test(c))).toBe(true);

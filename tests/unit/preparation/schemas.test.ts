@@ -9,13 +9,52 @@ import { detectType } from "../../../src/lib/server/storage";
 const message = (r: { success: boolean; error?: import("zod").ZodError }) => (r.success ? "" : formatZodError(r.error!));
 
 describe("recipe schema", () => {
-  const ok = { name: "Test phase", channel: "A", spec: { solvents: [{ reagent: "water", percent: 60 }, { reagent: "methanol", percent: 40 }] } };
+  const ok = {
+    name: "Test phase",
+    channel: "A",
+    spec: {
+      solvents: [
+        { reagent: "water", percent: 60 },
+        { reagent: "methanol", percent: 40 },
+      ],
+    },
+  };
   it("accepts a sound recipe", () => expect(recipeInputSchema.safeParse(ok).success).toBe(true));
   it.each([
-    ["solvents that do not add up", { ...ok, spec: { solvents: [{ reagent: "water", percent: 60 }, { reagent: "methanol", percent: 30 }] } }, /spec.solvents: .*90 %, not 100 %/],
-    ["an unknown reagent", { ...ok, spec: { solvents: [{ reagent: "unobtainium", percent: 100 }] } }, /spec.solvents.0.reagent: Unknown solvent/],
-    ["a solid as a solvent", { ...ok, spec: { solvents: [{ reagent: "tris", percent: 100 }] } }, /spec.solvents.0.reagent: A solvent must be a liquid/],
-    ["a buffer without water", { ...ok, spec: { solvents: [{ reagent: "methanol", percent: 100 }], buffer: { reagents: ["ammonium-formate", "formic-acid"], targetPH: 3.5, concentration_mM: 10, basis: "first" } } }, /spec.buffer: A buffer needs water/],
+    [
+      "solvents that do not add up",
+      {
+        ...ok,
+        spec: {
+          solvents: [
+            { reagent: "water", percent: 60 },
+            { reagent: "methanol", percent: 30 },
+          ],
+        },
+      },
+      /spec.solvents: .*90 %, not 100 %/,
+    ],
+    [
+      "an unknown reagent",
+      { ...ok, spec: { solvents: [{ reagent: "unobtainium", percent: 100 }] } },
+      /spec.solvents.0.reagent: Unknown solvent/,
+    ],
+    [
+      "a solid as a solvent",
+      { ...ok, spec: { solvents: [{ reagent: "tris", percent: 100 }] } },
+      /spec.solvents.0.reagent: A solvent must be a liquid/,
+    ],
+    [
+      "a buffer without water",
+      {
+        ...ok,
+        spec: {
+          solvents: [{ reagent: "methanol", percent: 100 }],
+          buffer: { reagents: ["ammonium-formate", "formic-acid"], targetPH: 3.5, concentration_mM: 10, basis: "first" },
+        },
+      },
+      /spec.buffer: A buffer needs water/,
+    ],
     ["a channel E", { ...ok, channel: "E" }, /channel: Channel A, B, C or D/],
   ])("refuses %s, naming the field", (_n, input, pattern) => {
     expect(message(recipeInputSchema.safeParse(input))).toMatch(pattern);
@@ -23,7 +62,14 @@ describe("recipe schema", () => {
 });
 
 describe("batch schema", () => {
-  const ok = { idempotencyKey: "key-12345678", recipeVersionId: 1, volume_mL: 2000, bottles: 2, bottleSize_mL: 1000, components: [{ reagent: "water", stockLotId: 6, actualAmount: 2000 }] };
+  const ok = {
+    idempotencyKey: "key-12345678",
+    recipeVersionId: 1,
+    volume_mL: 2000,
+    bottles: 2,
+    bottleSize_mL: 1000,
+    components: [{ reagent: "water", stockLotId: 6, actualAmount: 2000 }],
+  };
   it("accepts a sound batch and reads blank amounts as not recorded", () => {
     const parsed = batchCreateSchema.parse({ ...ok, components: [{ reagent: "water", stockLotId: 6, actualAmount: "" }], measuredPH: "" });
     expect(parsed.components[0]!.actualAmount).toBeNull();
@@ -39,7 +85,15 @@ describe("batch schema", () => {
 });
 
 describe("stock lot schema", () => {
-  const ok = { reagent: "acetonitrile", lotNumber: "AN-1", supplier: "Example Supplies", grade: "HPLC", receivedOn: "2026-11-01", expiresOn: "2028-11-01", quantity: "4000" };
+  const ok = {
+    reagent: "acetonitrile",
+    lotNumber: "AN-1",
+    supplier: "Example Supplies",
+    grade: "HPLC",
+    receivedOn: "2026-11-01",
+    expiresOn: "2028-11-01",
+    quantity: "4000",
+  };
   it("accepts form fields as strings", () => expect(stockLotInputSchema.parse(ok).quantity).toBe(4000));
   it.each([
     ["an expiry before receipt", { ...ok, expiresOn: "2026-10-01" }, /expiresOn: The expiry date is before/],
@@ -50,13 +104,22 @@ describe("stock lot schema", () => {
 
 describe("label stock and label query schemas", () => {
   it("refuses a label too small to be legible", () => {
-    expect(message(labelStockSchema.safeParse({ id: "tiny", name: "Tiny", kind: "roll", width_mm: 30, height_mm: 15 }))).toMatch(/width_mm: Labels smaller than 40 × 20 mm/);
+    expect(message(labelStockSchema.safeParse({ id: "tiny", name: "Tiny", kind: "roll", width_mm: 30, height_mm: 15 }))).toMatch(
+      /width_mm: Labels smaller than 40 × 20 mm/,
+    );
   });
   it("refuses a sheet whose grid runs off the page", () => {
     const sheet = { pageWidth_mm: 210, pageHeight_mm: 297, columns: 3, rows: 6, marginLeft_mm: 5, marginTop_mm: 5 };
-    expect(message(labelStockSchema.safeParse({ id: "wide", name: "Too wide", kind: "sheet", width_mm: 95, height_mm: 45, sheet }))).toMatch(/sheet.columns: The grid is 290.0 mm wide/);
+    expect(
+      message(labelStockSchema.safeParse({ id: "wide", name: "Too wide", kind: "sheet", width_mm: 95, height_mm: 45, sheet })),
+    ).toMatch(/sheet.columns: The grid is 290.0 mm wide/);
   });
-  it.each([["0", /copies must be at least 1/], ["2.5", /copies must be a whole number/], ["many", /copies must be a whole number/], ["501", /copies must be at most 500/]])("copies=%s is refused", (copies, pattern) => {
+  it.each([
+    ["0", /copies must be at least 1/],
+    ["2.5", /copies must be a whole number/],
+    ["many", /copies must be a whole number/],
+    ["501", /copies must be at most 500/],
+  ])("copies=%s is refused", (copies, pattern) => {
     expect(message(labelQuery.safeParse({ copies }))).toMatch(pattern);
   });
 });

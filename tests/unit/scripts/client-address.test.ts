@@ -27,7 +27,13 @@ describe("clientAddress", () => {
 });
 
 describe("trustedProxyHops", () => {
-  it.each([[undefined, 0], ["", 0], ["0", 0], ["1", 1], ["10", 10]])("reads %j as %d", (value, hops) => {
+  it.each([
+    [undefined, 0],
+    ["", 0],
+    ["0", 0],
+    ["1", 1],
+    ["10", 10],
+  ])("reads %j as %d", (value, hops) => {
     expect(trustedProxyHops(value)).toBe(hops);
   });
   it.each(["-1", "1.5", "two", "11", " 1"])("refuses %j with a message naming the variable", (value) => {

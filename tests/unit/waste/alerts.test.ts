@@ -37,18 +37,37 @@ describe("accumulationState against a 180-day limit with 14 days' warning", () =
 
 describe("containerAlerts", () => {
   const now = new Date("2026-12-01T12:00:00Z");
-  const base = { status: "in_use" as const, capacity_mL: 10_000, estimated_mL: 1_000, accumulationStartedAt: new Date("2026-11-01T00:00:00Z") };
+  const base = {
+    status: "in_use" as const,
+    capacity_mL: 10_000,
+    estimated_mL: 1_000,
+    accumulationStartedAt: new Date("2026-11-01T00:00:00Z"),
+  };
   it("raises nothing for a young, part-filled container", () => expect(containerAlerts(base, EXAMPLE_LIMITS, now)).toEqual([]));
-  it("raises near-full at the threshold", () => expect(containerAlerts({ ...base, estimated_mL: 8_000 }, EXAMPLE_LIMITS, now)).toEqual(["near-full"]));
-  it("raises over-capacity instead of near-full", () => expect(containerAlerts({ ...base, estimated_mL: 10_500 }, EXAMPLE_LIMITS, now)).toEqual(["over-capacity"]));
+  it("raises near-full at the threshold", () =>
+    expect(containerAlerts({ ...base, estimated_mL: 8_000 }, EXAMPLE_LIMITS, now)).toEqual(["near-full"]));
+  it("raises over-capacity instead of near-full", () =>
+    expect(containerAlerts({ ...base, estimated_mL: 10_500 }, EXAMPLE_LIMITS, now)).toEqual(["over-capacity"]));
   it("raises the accumulation warning with the fill alert", () => {
-    expect(containerAlerts({ ...base, estimated_mL: 9_000, accumulationStartedAt: new Date("2026-06-10T00:00:00Z") }, EXAMPLE_LIMITS, now)).toEqual(["near-full", "accumulation-approaching"]);
+    expect(
+      containerAlerts({ ...base, estimated_mL: 9_000, accumulationStartedAt: new Date("2026-06-10T00:00:00Z") }, EXAMPLE_LIMITS, now),
+    ).toEqual(["near-full", "accumulation-approaching"]);
   });
   it("keeps the accumulation clock on a container waiting for pickup, but not the fill alert", () => {
-    expect(containerAlerts({ ...base, status: "awaiting_pickup", estimated_mL: 9_900, accumulationStartedAt: new Date("2026-05-01T00:00:00Z") }, EXAMPLE_LIMITS, now)).toEqual(["accumulation-over"]);
+    expect(
+      containerAlerts(
+        { ...base, status: "awaiting_pickup", estimated_mL: 9_900, accumulationStartedAt: new Date("2026-05-01T00:00:00Z") },
+        EXAMPLE_LIMITS,
+        now,
+      ),
+    ).toEqual(["accumulation-over"]);
   });
-  it("raises nothing once collected", () => expect(containerAlerts({ ...base, status: "collected", estimated_mL: 20_000 }, EXAMPLE_LIMITS, now)).toEqual([]));
-  it("follows an edited threshold", () => expect(containerAlerts({ ...base, estimated_mL: 7_000 }, { ...EXAMPLE_LIMITS, fullThreshold_percent: 70 }, now)).toEqual(["near-full"]));
+  it("raises nothing once collected", () =>
+    expect(containerAlerts({ ...base, status: "collected", estimated_mL: 20_000 }, EXAMPLE_LIMITS, now)).toEqual([]));
+  it("follows an edited threshold", () =>
+    expect(containerAlerts({ ...base, estimated_mL: 7_000 }, { ...EXAMPLE_LIMITS, fullThreshold_percent: 70 }, now)).toEqual([
+      "near-full",
+    ]));
 });
 
 describe("reporting periods", () => {
@@ -67,5 +86,6 @@ describe("reporting periods", () => {
     expect(start.toISOString()).toBe("2026-02-01T00:00:00.000Z");
     expect(end.toISOString()).toBe("2026-03-01T00:00:00.000Z");
   });
-  it("lists the months a period touches", () => expect(monthsIn({ from: "2026-10-15", to: "2027-01-02" })).toEqual(["2026-10", "2026-11", "2026-12", "2027-01"]));
+  it("lists the months a period touches", () =>
+    expect(monthsIn({ from: "2026-10-15", to: "2027-01-02" })).toEqual(["2026-10", "2026-11", "2026-12", "2027-01"]));
 });

@@ -37,7 +37,11 @@ describe("renderContainerLabel", () => {
 
 describe("containerHazards", () => {
   it("shows the pictograms of what went in at 1 % or more", () => {
-    const h = containerHazards("non-halogenated-organic", [{ reagentId: "acetonitrile", volume_mL: 500 }, { reagentId: "water", volume_mL: 500 }, { reagentId: "formic-acid", volume_mL: 1 }]);
+    const h = containerHazards("non-halogenated-organic", [
+      { reagentId: "acetonitrile", volume_mL: 500 },
+      { reagentId: "water", volume_mL: 500 },
+      { reagentId: "formic-acid", volume_mL: 1 },
+    ]);
     expect(h.pictograms).toEqual(["GHS02", "GHS07"]); // formic acid at 0.1 % is below the cut-off
     expect(h.signalWord).toBe("Danger");
   });
@@ -54,7 +58,7 @@ const data: ReportData = {
   period: { from: "2026-11-01", to: "2026-11-30" },
   total_mL: 1500.5,
   streams: [{ stream: "non-halogenated-organic", name: "Non-halogenated organic", volume_mL: 1500.5 }],
-  byRoom: [{ room: "B2.14, bench \"3\"", streams: { "non-halogenated-organic": 1500.5 }, volume_mL: 1500.5 }],
+  byRoom: [{ room: 'B2.14, bench "3"', streams: { "non-halogenated-organic": 1500.5 }, volume_mL: 1500.5 }],
   byProject: [{ projectCode: "=HACK()", projectName: "x", volume_mL: 1500.5, streams: { "non-halogenated-organic": 1500.5 } }],
   byMonth: [{ month: "2026-11", streams: { "non-halogenated-organic": 1500.5 }, volume_mL: 1500.5 }],
   containers: [],

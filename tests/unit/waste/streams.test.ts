@@ -1,7 +1,14 @@
 // Stream assignment. Source of the expected streams: common practice for laboratory waste
 // segregation (CPwaste in src/lib/chem/sources.ts) — the institution's rules decide in the end.
 import { describe, expect, it } from "vitest";
-import { assignWasteStream, DEFAULT_STREAMS, streamAccepts, WasteRuleError, type MixPart, type StreamRule } from "../../../src/lib/waste/streams";
+import {
+  assignWasteStream,
+  DEFAULT_STREAMS,
+  streamAccepts,
+  WasteRuleError,
+  type MixPart,
+  type StreamRule,
+} from "../../../src/lib/waste/streams";
 
 const mL = (reagentId: string, volume_mL: number): MixPart => ({ reagentId, volume_mL });
 const g = (reagentId: string, mass_g: number): MixPart => ({ reagentId, mass_g });
@@ -51,8 +58,12 @@ describe("assignWasteStream with site rules", () => {
 
   it("honours the restrictiveness the site gives its streams", () => {
     const swapped = rules.map((r) => (r.id === "acidic-corrosive" ? { ...r, restrictiveness: 9 } : r));
-    expect(assignWasteStream([mL("water", 500), mL("trifluoroacetic-acid", 100), mL("formic-acid", 400)], swapped).streamId).toBe("acidic-corrosive");
-    expect(assignWasteStream([mL("water", 500), mL("trifluoroacetic-acid", 100), mL("formic-acid", 400)], rules).streamId).toBe("halogenated-organic");
+    expect(assignWasteStream([mL("water", 500), mL("trifluoroacetic-acid", 100), mL("formic-acid", 400)], swapped).streamId).toBe(
+      "acidic-corrosive",
+    );
+    expect(assignWasteStream([mL("water", 500), mL("trifluoroacetic-acid", 100), mL("formic-acid", 400)], rules).streamId).toBe(
+      "halogenated-organic",
+    );
   });
 
   it("refuses what it cannot route", () => {

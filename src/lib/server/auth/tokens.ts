@@ -26,7 +26,10 @@ export async function issueToken(
   const token = randomBytes(32).toString("base64url");
   const expiresAt = new Date(now.getTime() + TOKEN_LIFETIME_MS);
   await AuthToken.update({ usedAt: now }, { where: { userId, usedAt: null }, transaction: options.transaction });
-  await AuthToken.create({ userId, purpose, tokenHash: hashToken(token), expiresAt, usedAt: null, createdBy }, { transaction: options.transaction });
+  await AuthToken.create(
+    { userId, purpose, tokenHash: hashToken(token), expiresAt, usedAt: null, createdBy },
+    { transaction: options.transaction },
+  );
   return { token, expiresAt };
 }
 
@@ -41,7 +44,10 @@ export async function findUsableToken(token: string, now = new Date()): Promise<
  */
 export async function consumeToken(token: string, transaction: Transaction, now = new Date()): Promise<AuthToken | null> {
   const tokenHash = hashToken(token);
-  const [affected] = await AuthToken.update({ usedAt: now }, { where: { tokenHash, usedAt: null, expiresAt: { [Op.gt]: now } }, transaction });
+  const [affected] = await AuthToken.update(
+    { usedAt: now },
+    { where: { tokenHash, usedAt: null, expiresAt: { [Op.gt]: now } }, transaction },
+  );
   if (affected !== 1) return null;
   return AuthToken.findOne({ where: { tokenHash }, transaction });
 }

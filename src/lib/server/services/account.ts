@@ -27,7 +27,9 @@ export async function changePassword(userId: number, input: ChangePasswordInput,
   const user = await User.findByPk(userId);
   if (!user || !user.active || !user.passwordHash) throw new HttpError(401, "Sign in first.");
   if (!(await verifyPassword(user.passwordHash, input.currentPassword))) {
-    throw new HttpError(400, "currentPassword: This is not your current password", { fields: { currentPassword: "This is not your current password" } });
+    throw new HttpError(400, "currentPassword: This is not your current password", {
+      fields: { currentPassword: "This is not your current password" },
+    });
   }
   await user.update({ passwordHash: await hashPassword(input.newPassword) });
   await lucia.invalidateUserSessions(user.id);
@@ -72,7 +74,17 @@ export async function setPasswordWithToken(input: SetPasswordInput, ctx: { ip: s
     const user = await User.findByPk(record.userId, { transaction });
     if (!user || !user.active) return null;
     await user.update({ passwordHash }, { transaction });
-    await recordAudit({ actorId: user.id, action: record.purpose === "invitation" ? "invitation-accepted" : "password-changed", entity: "user", entityId: user.id, ip: ctx.ip, after: { via: record.purpose } }, transaction);
+    await recordAudit(
+      {
+        actorId: user.id,
+        action: record.purpose === "invitation" ? "invitation-accepted" : "password-changed",
+        entity: "user",
+        entityId: user.id,
+        ip: ctx.ip,
+        after: { via: record.purpose },
+      },
+      transaction,
+    );
     return user;
   });
   if (!result) throw new HttpError(400, `token: ${LINK_NOT_USABLE}`, { fields: { token: LINK_NOT_USABLE } });

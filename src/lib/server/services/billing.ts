@@ -65,14 +65,33 @@ const toRate = (row: RateRow): Rate => ({
 });
 
 async function loadRates(priceList: PriceList, currency: string, transaction?: Transaction): Promise<Rate[]> {
-  const rows = await RateRow.findAll({ where: { priceList, currency }, order: [["effectiveFrom", "ASC"], ["id", "ASC"]], transaction });
+  const rows = await RateRow.findAll({
+    where: { priceList, currency },
+    order: [
+      ["effectiveFrom", "ASC"],
+      ["id", "ASC"],
+    ],
+    transaction,
+  });
   return rows.map(toRate);
 }
 
 export async function listRates(now = new Date()): Promise<RateView[]> {
-  const rows = await RateRow.findAll({ order: [["priceList", "ASC"], ["kind", "ASC"], ["reagentId", "ASC"], ["grade", "ASC"], ["effectiveFrom", "DESC"], ["id", "DESC"]] });
+  const rows = await RateRow.findAll({
+    order: [
+      ["priceList", "ASC"],
+      ["kind", "ASC"],
+      ["reagentId", "ASC"],
+      ["grade", "ASC"],
+      ["effectiveFrom", "DESC"],
+      ["id", "DESC"],
+    ],
+  });
   const names = new Map(
-    (await db().query<{ id: string; name: string }>("SELECT id, name FROM reagents", { type: QueryTypes.SELECT })).map((r) => [r.id, r.name]),
+    (await db().query<{ id: string; name: string }>("SELECT id, name FROM reagents", { type: QueryTypes.SELECT })).map((r) => [
+      r.id,
+      r.name,
+    ]),
   );
   const day = today(now);
   // The newest rate started on or before today, per price list / kind / reagent / grade / currency, is current.
@@ -97,7 +116,11 @@ export async function listRates(now = new Date()): Promise<RateView[]> {
 export async function addRate(input: RateInput, actor: SignedInUser, ip: string | null = null): Promise<RateView> {
   return inTransaction(db(), async (transaction) => {
     if (input.kind === "reagent") {
-      const [reagent] = await db().query<{ unit: "mL" | "g"; grades: unknown }>("SELECT unit, grades FROM reagents WHERE id = :id", { type: QueryTypes.SELECT, replacements: { id: input.reagentId }, transaction });
+      const [reagent] = await db().query<{ unit: "mL" | "g"; grades: unknown }>("SELECT unit, grades FROM reagents WHERE id = :id", {
+        type: QueryTypes.SELECT,
+        replacements: { id: input.reagentId },
+        transaction,
+      });
       if (!reagent) throw new HttpError(400, `reagentId: no reagent "${input.reagentId}" in the catalogue`);
       const grades = (typeof reagent.grades === "string" ? JSON.parse(reagent.grades) : reagent.grades) as string[];
       if (input.grade && !grades.includes(input.grade)) throw new HttpError(400, `grade: ${input.reagentId} comes in ${grades.join(", ")}`);
@@ -111,7 +134,10 @@ export async function addRate(input: RateInput, actor: SignedInUser, ip: string 
     );
     const lastLocked = lock?.last ? String(lock.last).slice(0, 10) : null;
     if (lastLocked && input.effectiveFrom <= lastLocked) {
-      throw new HttpError(400, `effectiveFrom: ${input.priceList} statements up to ${lastLocked} are issued; a new price can start on ${nextDay(lastLocked)} at the earliest`);
+      throw new HttpError(
+        400,
+        `effectiveFrom: ${input.priceList} statements up to ${lastLocked} are issued; a new price can start on ${nextDay(lastLocked)} at the earliest`,
+      );
     }
     const row = await RateRow.create(
       {
@@ -128,7 +154,12 @@ export async function addRate(input: RateInput, actor: SignedInUser, ip: string 
       { transaction },
     );
     await recordAudit({ actorId: actor.id, action: "rate.add", entity: "rate", entityId: row.id, ip, after: toRate(row) }, transaction);
-    return { ...toRate(row), reagentName: input.reagentId ?? null, createdAt: row.createdAt.toISOString(), state: input.effectiveFrom <= today() ? "current" : "scheduled" } as RateView;
+    return {
+      ...toRate(row),
+      reagentName: input.reagentId ?? null,
+      createdAt: row.createdAt.toISOString(),
+      state: input.effectiveFrom <= today() ? "current" : "scheduled",
+    } as RateView;
   });
 }
 
@@ -152,7 +183,11 @@ export async function openDateFor(clientId: number, date: Date, transaction?: Tr
   let at = date;
   for (let guard = 0; guard < 1000; guard++) {
     const day = dayOf(at);
-    const lock = await PeriodLock.findOne({ where: { clientId, periodStart: { [Op.lte]: day }, periodEnd: { [Op.gte]: day } }, order: [["periodEnd", "DESC"]], transaction });
+    const lock = await PeriodLock.findOne({
+      where: { clientId, periodStart: { [Op.lte]: day }, periodEnd: { [Op.gte]: day } },
+      order: [["periodEnd", "DESC"]],
+      transaction,
+    });
     if (!lock) return at;
     at = new Date(`${nextDay(String(lock.periodEnd))}T00:00:00.000Z`);
   }
@@ -169,12 +204,26 @@ export async function openDateForProject(projectId: number | null, date: Date, t
 // ── Statements: computing ───────────────────────────────────────────────────────────────
 
 /** Lines for a client and period from the ledger at the rates in force on each day. */
-export async function computeStatement(clientId: number, periodStart: string, periodEnd: string, transaction?: Transaction): Promise<StatementComputation> {
+export async function computeStatement(
+  clientId: number,
+  periodStart: string,
+  periodEnd: string,
+  transaction?: Transaction,
+): Promise<StatementComputation> {
   const client = await Client.findByPk(clientId, { transaction });
   if (!client) throw new HttpError(404, `clientId: no client ${clientId}`);
   const replacements = { clientId, start: periodStart, end: nextDay(periodEnd) };
   // Summed by the database per project, reagent, grade and day; rates change at most daily.
-  const usage = await db().query<{ project_code: string; project_name: string; reagent_id: string; reagent_name: string; grade: string | null; day: string; volume_ml: string; mass_g: string | null }>(
+  const usage = await db().query<{
+    project_code: string;
+    project_name: string;
+    reagent_id: string;
+    reagent_name: string;
+    grade: string | null;
+    day: string;
+    volume_ml: string;
+    mass_g: string | null;
+  }>(
     `SELECT u.project_code, u.project_name, u.reagent_id, u.reagent_name, u.grade, u.day,
             SUM(u.volume_ml) AS volume_ml, SUM(u.mass_g) AS mass_g
        FROM (SELECT p.code AS project_code, p.name AS project_name, le.reagent_id, r.name AS reagent_name,
@@ -207,7 +256,8 @@ export async function computeStatement(clientId: number, periodStart: string, pe
       GROUP BY b.project_code, b.project_name, b.day`,
     { type: QueryTypes.SELECT, replacements, transaction },
   );
-  const counts = (rows: typeof injections): CountRow[] => rows.map((r) => ({ projectCode: r.project_code, projectName: r.project_name, day: r.day, count: Number(r.count) }));
+  const counts = (rows: typeof injections): CountRow[] =>
+    rows.map((r) => ({ projectCode: r.project_code, projectName: r.project_name, day: r.day, count: Number(r.count) }));
   const rows: UsageRow[] = usage.map((u) => ({
     projectCode: u.project_code,
     projectName: u.project_name,
@@ -219,7 +269,14 @@ export async function computeStatement(clientId: number, periodStart: string, pe
     mass_g: u.mass_g,
   }));
   const rates = await loadRates(client.kind, client.currency, transaction);
-  return buildStatement({ usage: rows, injections: counts(injections), preparations: counts(preparations), rates, priceList: client.kind, currency: client.currency });
+  return buildStatement({
+    usage: rows,
+    injections: counts(injections),
+    preparations: counts(preparations),
+    rates,
+    priceList: client.kind,
+    currency: client.currency,
+  });
 }
 
 // ── Statements: views ───────────────────────────────────────────────────────────────────
@@ -290,7 +347,8 @@ function invoiceView(invoice: Invoice, client: Client, statement: Statement): In
 function blockerOf(statement: { periodEnd: string; status: string }, computation: StatementComputation, now = new Date()): string | null {
   if (statement.status !== "draft") return null;
   if (statement.periodEnd >= today(now)) return `The period runs until ${statement.periodEnd}; issue it once it has ended.`;
-  if (computation.uncosted.length) return `No rate in force for ${computation.uncosted.join(", ")} on some days of the period; add a rate first.`;
+  if (computation.uncosted.length)
+    return `No rate in force for ${computation.uncosted.join(", ")} on some days of the period; add a rate first.`;
   if (computation.lines.length === 0 || computation.total_minor === 0) return "Nothing to charge in this period.";
   return null;
 }
@@ -352,7 +410,13 @@ export interface PeriodRow {
 
 /** Every active client for a period, with its statement if one exists (totals previewed otherwise). */
 export async function periodOverview(periodStart: string, periodEnd: string): Promise<PeriodRow[]> {
-  const clients = await Client.findAll({ where: { active: true }, order: [["kind", "DESC"], ["name", "ASC"]] });
+  const clients = await Client.findAll({
+    where: { active: true },
+    order: [
+      ["kind", "DESC"],
+      ["name", "ASC"],
+    ],
+  });
   const statements = await Statement.findAll({ where: { periodStart, periodEnd } });
   const invoices = await Invoice.findAll({ where: { statementId: statements.map((s) => s.id) } });
   const rows: PeriodRow[] = [];
@@ -394,7 +458,19 @@ export interface StatementSummary {
 export async function listStatements(viewer: SignedInUser, limit = 100): Promise<StatementSummary[]> {
   const all = can(viewer.role, "read:statement");
   if (!all && viewer.clientId === null) return [];
-  const rows = await db().query<{ id: number; client_id: number; client_name: string; period_start: string; period_end: string; status: "draft" | "issued" | "void"; total_minor: number; currency: string; issued_at: Date | null; invoice_status: InvoiceStatus | null; hosted_url: string | null }>(
+  const rows = await db().query<{
+    id: number;
+    client_id: number;
+    client_name: string;
+    period_start: string;
+    period_end: string;
+    status: "draft" | "issued" | "void";
+    total_minor: number;
+    currency: string;
+    issued_at: Date | null;
+    invoice_status: InvoiceStatus | null;
+    hosted_url: string | null;
+  }>(
     `SELECT s.id, s.client_id, c.name AS client_name, DATE_FORMAT(s.period_start, '%Y-%m-%d') AS period_start, DATE_FORMAT(s.period_end, '%Y-%m-%d') AS period_end,
             s.status, s.total_minor, s.currency, s.issued_at, i.status AS invoice_status, i.hosted_url
        FROM statements s JOIN clients c ON c.id = s.client_id LEFT JOIN invoices i ON i.statement_id = s.id
@@ -421,7 +497,13 @@ export async function listStatements(viewer: SignedInUser, limit = 100): Promise
 /** Invoices newest first; client contacts get their organisation's only. */
 export async function listInvoices(viewer: SignedInUser): Promise<InvoiceView[]> {
   const where = can(viewer.role, "read:invoice") ? {} : { clientId: viewer.clientId ?? -1 };
-  const invoices = await Invoice.findAll({ where, order: [["createdAt", "DESC"], ["id", "DESC"]] });
+  const invoices = await Invoice.findAll({
+    where,
+    order: [
+      ["createdAt", "DESC"],
+      ["id", "DESC"],
+    ],
+  });
   const clients = new Map((await Client.findAll()).map((c) => [c.id, c]));
   const statements = new Map((await Statement.findAll({ where: { id: invoices.map((i) => i.statementId) } })).map((s) => [s.id, s]));
   return invoices.map((i) => invoiceView(i, clients.get(i.clientId)!, statements.get(i.statementId)!));
@@ -430,21 +512,47 @@ export async function listInvoices(viewer: SignedInUser): Promise<InvoiceView[]>
 // ── Statements: drafting and issuing ────────────────────────────────────────────────────
 
 /** Opens the client's statement for a period: the existing one, or a new draft computed from the ledger. */
-export async function openStatement(input: { clientId: number; periodStart: string; periodEnd: string }, actor: SignedInUser): Promise<{ id: number; created: boolean }> {
+export async function openStatement(
+  input: { clientId: number; periodStart: string; periodEnd: string },
+  actor: SignedInUser,
+): Promise<{ id: number; created: boolean }> {
   if (input.periodEnd < input.periodStart) throw new HttpError(400, "periodEnd: must be on or after periodStart");
   return inTransaction(db(), async (transaction) => {
     const client = await Client.findByPk(input.clientId, { transaction, lock: transaction.LOCK.UPDATE });
     if (!client) throw new HttpError(400, `clientId: no client ${input.clientId}`);
-    const existing = await Statement.findOne({ where: { clientId: client.id, periodStart: input.periodStart, periodEnd: input.periodEnd }, transaction });
-    if (existing) return { id: existing.id, created: false };
-    const overlapping = await Statement.findOne({
-      where: { clientId: client.id, status: { [Op.ne]: "void" }, periodStart: { [Op.lte]: input.periodEnd }, periodEnd: { [Op.gte]: input.periodStart } },
+    const existing = await Statement.findOne({
+      where: { clientId: client.id, periodStart: input.periodStart, periodEnd: input.periodEnd },
       transaction,
     });
-    if (overlapping) throw new HttpError(409, `periodStart: ${statementReference(overlapping.id)} already covers ${overlapping.periodStart} – ${overlapping.periodEnd} for ${client.name}`);
+    if (existing) return { id: existing.id, created: false };
+    const overlapping = await Statement.findOne({
+      where: {
+        clientId: client.id,
+        status: { [Op.ne]: "void" },
+        periodStart: { [Op.lte]: input.periodEnd },
+        periodEnd: { [Op.gte]: input.periodStart },
+      },
+      transaction,
+    });
+    if (overlapping)
+      throw new HttpError(
+        409,
+        `periodStart: ${statementReference(overlapping.id)} already covers ${overlapping.periodStart} – ${overlapping.periodEnd} for ${client.name}`,
+      );
     const computation = await computeStatement(client.id, input.periodStart, input.periodEnd, transaction);
     const statement = await Statement.create(
-      { clientId: client.id, periodStart: input.periodStart, periodEnd: input.periodEnd, lines: computation.lines, totalMinor: computation.total_minor, currency: client.currency, issuedAt: null, issuedBy: null, voidedAt: null, createdBy: actor.id },
+      {
+        clientId: client.id,
+        periodStart: input.periodStart,
+        periodEnd: input.periodEnd,
+        lines: computation.lines,
+        totalMinor: computation.total_minor,
+        currency: client.currency,
+        issuedAt: null,
+        issuedBy: null,
+        voidedAt: null,
+        createdBy: actor.id,
+      },
       { transaction },
     );
     return { id: statement.id, created: true };
@@ -452,22 +560,57 @@ export async function openStatement(input: { clientId: number; periodStart: stri
 }
 
 /** Freezes a draft inside the caller's transaction: recomputed, compared with what the manager reviewed, locked. */
-async function issueLocked(statement: Statement, client: Client, expectedTotal: number | undefined, actor: SignedInUser, ip: string | null, transaction: Transaction, now: Date) {
+async function issueLocked(
+  statement: Statement,
+  client: Client,
+  expectedTotal: number | undefined,
+  actor: SignedInUser,
+  ip: string | null,
+  transaction: Transaction,
+  now: Date,
+) {
   if (statement.status !== "draft") throw new HttpError(409, `${statementReference(statement.id)} is already ${statement.status}.`);
   const computation = await computeStatement(client.id, String(statement.periodStart), String(statement.periodEnd), transaction);
   const blocker = blockerOf({ periodEnd: String(statement.periodEnd), status: "draft" }, computation, now);
   if (blocker) throw new HttpError(409, blocker);
   if (expectedTotal !== undefined && expectedTotal !== computation.total_minor) {
-    throw new HttpError(409, `expectedTotal_minor: the ledger changed since this draft was opened; the total is now ${formatMoney({ amount: computation.total_minor, currency: client.currency })}. Review it again.`, { total_minor: computation.total_minor });
+    throw new HttpError(
+      409,
+      `expectedTotal_minor: the ledger changed since this draft was opened; the total is now ${formatMoney({ amount: computation.total_minor, currency: client.currency })}. Review it again.`,
+      { total_minor: computation.total_minor },
+    );
   }
   const before = { status: statement.status, total_minor: statement.totalMinor };
-  await statement.update({ status: "issued", lines: computation.lines, totalMinor: computation.total_minor, issuedAt: now, issuedBy: actor.id }, { transaction });
-  await PeriodLock.create({ clientId: client.id, periodStart: String(statement.periodStart), periodEnd: String(statement.periodEnd), statementId: statement.id }, { transaction });
-  await recordAudit({ actorId: actor.id, action: "statement.issue", entity: "statement", entityId: statement.id, ip, before, after: { status: "issued", total_minor: computation.total_minor, currency: client.currency, lines: computation.lines.length } }, transaction);
+  await statement.update(
+    { status: "issued", lines: computation.lines, totalMinor: computation.total_minor, issuedAt: now, issuedBy: actor.id },
+    { transaction },
+  );
+  await PeriodLock.create(
+    { clientId: client.id, periodStart: String(statement.periodStart), periodEnd: String(statement.periodEnd), statementId: statement.id },
+    { transaction },
+  );
+  await recordAudit(
+    {
+      actorId: actor.id,
+      action: "statement.issue",
+      entity: "statement",
+      entityId: statement.id,
+      ip,
+      before,
+      after: { status: "issued", total_minor: computation.total_minor, currency: client.currency, lines: computation.lines.length },
+    },
+    transaction,
+  );
 }
 
 /** Issues an internal client's chargeback statement (or an external one without invoicing it). */
-export async function issueStatement(id: number, options: { expectedTotal_minor?: number | undefined }, actor: SignedInUser, ip: string | null = null, now = new Date()): Promise<void> {
+export async function issueStatement(
+  id: number,
+  options: { expectedTotal_minor?: number | undefined },
+  actor: SignedInUser,
+  ip: string | null = null,
+  now = new Date(),
+): Promise<void> {
   await inTransaction(db(), async (transaction) => {
     const statement = await Statement.findByPk(id, { transaction, lock: transaction.LOCK.UPDATE });
     if (!statement) throw new HttpError(404, `No statement ${id}.`);
@@ -484,7 +627,10 @@ export function statementKey(statement: Pick<Statement, "id" | "createdAt" | "re
 
 function providerError(error: unknown): never {
   if (error instanceof Stripe.errors.StripeIdempotencyError) {
-    throw new HttpError(409, `The payments service holds an earlier attempt for this statement with different contents (${error.message}).`);
+    throw new HttpError(
+      409,
+      `The payments service holds an earlier attempt for this statement with different contents (${error.message}).`,
+    );
   }
   if (error instanceof Stripe.errors.StripeError) {
     throw new HttpError(502, `The payments service refused the request: ${error.message}`, { providerCode: error.code ?? null });
@@ -508,7 +654,11 @@ async function ensureCustomer(payments: Stripe, client: Client, key: string, tra
     }
   }
   const customer = await payments.customers.create(
-    { name: client.name, ...(client.billingEmail ? { email: client.billingEmail } : {}), metadata: { decant_client_id: String(client.id) } },
+    {
+      name: client.name,
+      ...(client.billingEmail ? { email: client.billingEmail } : {}),
+      metadata: { decant_client_id: String(client.id) },
+    },
     // Keyed by the statement being invoiced: a retry of this run finds the same customer.
     { idempotencyKey: `${key}-customer` },
   );
@@ -544,7 +694,25 @@ export async function invoiceStatement(
     if (statement.status === "draft") await issueLocked(statement, client, options.expectedTotal_minor, actor, ip, transaction, now);
     if (!client.billingEmail) throw new HttpError(409, `${client.name} has no billing e-mail; add one before invoicing.`);
     invoice ??= await Invoice.create(
-      { statementId: statement.id, clientId: client.id, providerInvoiceId: null, providerCustomerId: null, number: null, hostedUrl: null, amountMinor: statement.totalMinor, currency: statement.currency, dueOn: null, finalizedAt: null, sentAt: null, paidAt: null, voidedAt: null, uncollectibleAt: null, paymentFailedAt: null, lastPaymentError: null, createdBy: actor.id },
+      {
+        statementId: statement.id,
+        clientId: client.id,
+        providerInvoiceId: null,
+        providerCustomerId: null,
+        number: null,
+        hostedUrl: null,
+        amountMinor: statement.totalMinor,
+        currency: statement.currency,
+        dueOn: null,
+        finalizedAt: null,
+        sentAt: null,
+        paidAt: null,
+        voidedAt: null,
+        uncollectibleAt: null,
+        paymentFailedAt: null,
+        lastPaymentError: null,
+        createdBy: actor.id,
+      },
       { transaction },
     );
     const key = statementKey(statement);
@@ -583,7 +751,10 @@ export async function invoiceStatement(
       }
       const finalized = await payments.invoices.finalizeInvoice(providerId, { auto_advance: false }, { idempotencyKey: `${key}-finalize` });
       if (finalized.total !== statement.totalMinor) {
-        throw new HttpError(502, `The payments service totals ${finalized.total} but the statement totals ${statement.totalMinor}; nothing was sent.`);
+        throw new HttpError(
+          502,
+          `The payments service totals ${finalized.total} but the statement totals ${statement.totalMinor}; nothing was sent.`,
+        );
       }
       const sent = await payments.invoices.sendInvoice(providerId, {}, { idempotencyKey: `${key}-send` });
       await invoice.update(
@@ -605,10 +776,28 @@ export async function invoiceStatement(
       if (error instanceof HttpError) throw error;
       providerError(error);
     }
-    await recordAudit({ actorId: actor.id, action: "invoice.send", entity: "invoice", entityId: invoice.id, ip, after: { providerInvoiceId: invoice.providerInvoiceId, number: invoice.number, amount_minor: invoice.amountMinor, currency: invoice.currency } }, transaction);
+    await recordAudit(
+      {
+        actorId: actor.id,
+        action: "invoice.send",
+        entity: "invoice",
+        entityId: invoice.id,
+        ip,
+        after: {
+          providerInvoiceId: invoice.providerInvoiceId,
+          number: invoice.number,
+          amount_minor: invoice.amountMinor,
+          currency: invoice.currency,
+        },
+      },
+      transaction,
+    );
     return { invoice: invoiceView(invoice, client, statement), created: true, mail: { client, statement } };
   });
-  if (result.mail) await mailInvoice(result.invoice, result.mail.client, result.mail.statement).catch((error) => console.error(`invoice mail for ${result.invoice.number}: ${(error as Error).message}`));
+  if (result.mail)
+    await mailInvoice(result.invoice, result.mail.client, result.mail.statement).catch((error) =>
+      console.error(`invoice mail for ${result.invoice.number}: ${(error as Error).message}`),
+    );
   return { invoice: result.invoice, created: result.created };
 }
 
@@ -643,20 +832,35 @@ let mailTransport: ReturnType<typeof createTransport> | undefined;
 
 // ── Invoices: manager actions ───────────────────────────────────────────────────────────
 
-async function invoiceAction(id: number, action: "void" | "uncollectible", actor: SignedInUser, ip: string | null, payments = getPayments()): Promise<InvoiceView> {
+async function invoiceAction(
+  id: number,
+  action: "void" | "uncollectible",
+  actor: SignedInUser,
+  ip: string | null,
+  payments = getPayments(),
+): Promise<InvoiceView> {
   return inTransaction(db(), async (transaction) => {
     const invoice = await Invoice.findByPk(id, { transaction, lock: transaction.LOCK.UPDATE });
     if (!invoice || !invoice.providerInvoiceId) throw new HttpError(404, `No sent invoice ${id}.`);
     const statement = (await Statement.findByPk(invoice.statementId, { transaction, lock: transaction.LOCK.UPDATE }))!;
     const client = (await Client.findByPk(invoice.clientId, { transaction }))!;
     const allowed = action === "void" ? ["open", "uncollectible"] : ["open"];
-    if (!allowed.includes(invoice.status)) throw new HttpError(409, `Invoice ${invoice.number} is ${invoice.status}; it cannot be ${action === "void" ? "voided" : "marked uncollectible"}.`);
+    if (!allowed.includes(invoice.status))
+      throw new HttpError(
+        409,
+        `Invoice ${invoice.number} is ${invoice.status}; it cannot be ${action === "void" ? "voided" : "marked uncollectible"}.`,
+      );
     const before = { status: invoice.status };
     let remote: Stripe.Invoice;
     try {
-      remote = action === "void"
-        ? await payments.invoices.voidInvoice(invoice.providerInvoiceId, {}, { idempotencyKey: `${statementKey(statement)}-void` })
-        : await payments.invoices.markUncollectible(invoice.providerInvoiceId, {}, { idempotencyKey: `${statementKey(statement)}-uncollectible` });
+      remote =
+        action === "void"
+          ? await payments.invoices.voidInvoice(invoice.providerInvoiceId, {}, { idempotencyKey: `${statementKey(statement)}-void` })
+          : await payments.invoices.markUncollectible(
+              invoice.providerInvoiceId,
+              {},
+              { idempotencyKey: `${statementKey(statement)}-uncollectible` },
+            );
     } catch (error) {
       providerError(error);
     }
@@ -665,15 +869,31 @@ async function invoiceAction(id: number, action: "void" | "uncollectible", actor
       // The period stays closed: anything still owed goes on the next period's statement.
       await statement.update({ status: "void", voidedAt: new Date() }, { transaction });
     } else {
-      await invoice.update({ status: "uncollectible", uncollectibleAt: fromUnix(remote.status_transitions?.marked_uncollectible_at) ?? new Date() }, { transaction });
+      await invoice.update(
+        { status: "uncollectible", uncollectibleAt: fromUnix(remote.status_transitions?.marked_uncollectible_at) ?? new Date() },
+        { transaction },
+      );
     }
-    await recordAudit({ actorId: actor.id, action: `invoice.${action}`, entity: "invoice", entityId: invoice.id, ip, before, after: { status: invoice.status } }, transaction);
+    await recordAudit(
+      {
+        actorId: actor.id,
+        action: `invoice.${action}`,
+        entity: "invoice",
+        entityId: invoice.id,
+        ip,
+        before,
+        after: { status: invoice.status },
+      },
+      transaction,
+    );
     return invoiceView(invoice, client, statement);
   });
 }
 
-export const voidInvoice = (id: number, actor: SignedInUser, ip: string | null = null, payments?: Stripe) => invoiceAction(id, "void", actor, ip, payments);
-export const markInvoiceUncollectible = (id: number, actor: SignedInUser, ip: string | null = null, payments?: Stripe) => invoiceAction(id, "uncollectible", actor, ip, payments);
+export const voidInvoice = (id: number, actor: SignedInUser, ip: string | null = null, payments?: Stripe) =>
+  invoiceAction(id, "void", actor, ip, payments);
+export const markInvoiceUncollectible = (id: number, actor: SignedInUser, ip: string | null = null, payments?: Stripe) =>
+  invoiceAction(id, "uncollectible", actor, ip, payments);
 
 // ── Webhooks ────────────────────────────────────────────────────────────────────────────
 
@@ -698,7 +918,11 @@ export interface WebhookOutcome {
  * endpoint secret (400 and nothing changed when it fails); the event id is recorded in the same
  * transaction as its effect, so a replay is recognised and changes nothing.
  */
-export async function handlePaymentsWebhook(rawBody: string, signatureHeader: string | null, deps: { payments?: Stripe; secret?: string } = {}): Promise<WebhookOutcome> {
+export async function handlePaymentsWebhook(
+  rawBody: string,
+  signatureHeader: string | null,
+  deps: { payments?: Stripe; secret?: string } = {},
+): Promise<WebhookOutcome> {
   if (!signatureHeader) throw new HttpError(400, "Stripe-Signature: the header is missing; the request is not signed.");
   const payments = deps.payments ?? getPayments();
   let event: Stripe.Event;
@@ -716,27 +940,54 @@ export async function handlePaymentsWebhook(rawBody: string, signatureHeader: st
     }
     if (!event.type.startsWith("invoice.")) return { eventId: event.id, type: event.type, outcome: "ignored" as const };
     const remote = event.data.object as Stripe.Invoice;
-    let invoice = remote.id ? await Invoice.findOne({ where: { providerInvoiceId: remote.id }, transaction, lock: transaction.LOCK.UPDATE }) : null;
+    let invoice = remote.id
+      ? await Invoice.findOne({ where: { providerInvoiceId: remote.id }, transaction, lock: transaction.LOCK.UPDATE })
+      : null;
     const statementId = Number(remote.metadata?.decant_statement_id);
-    if (!invoice && Number.isInteger(statementId)) invoice = await Invoice.findOne({ where: { statementId }, transaction, lock: transaction.LOCK.UPDATE });
+    if (!invoice && Number.isInteger(statementId))
+      invoice = await Invoice.findOne({ where: { statementId }, transaction, lock: transaction.LOCK.UPDATE });
     if (!invoice) return { eventId: event.id, type: event.type, outcome: "ignored" as const };
     const before = { status: invoice.status };
     if (event.type === "invoice.payment_failed") {
       if (invoice.status !== "open") return { eventId: event.id, type: event.type, outcome: "ignored" as const, invoiceId: invoice.id };
       const reason = (remote as unknown as { last_payment_error?: unknown }).last_payment_error;
-      await invoice.update({ paymentFailedAt: fromUnix(event.created) ?? new Date(), lastPaymentError: typeof reason === "string" ? reason.slice(0, 255) : "The payment failed." }, { transaction });
+      await invoice.update(
+        {
+          paymentFailedAt: fromUnix(event.created) ?? new Date(),
+          lastPaymentError: typeof reason === "string" ? reason.slice(0, 255) : "The payment failed.",
+        },
+        { transaction },
+      );
     } else {
       const transition = TRANSITIONS[event.type];
-      if (!transition || !transition.from.includes(invoice.status)) return { eventId: event.id, type: event.type, outcome: "ignored" as const, invoiceId: invoice.id };
+      if (!transition || !transition.from.includes(invoice.status))
+        return { eventId: event.id, type: event.type, outcome: "ignored" as const, invoiceId: invoice.id };
       const changes: Partial<Invoice> = { status: transition.to };
-      if (transition.to === "paid") Object.assign(changes, { paidAt: fromUnix(remote.status_transitions?.paid_at) ?? fromUnix(event.created), lastPaymentError: null });
-      if (transition.to === "void") Object.assign(changes, { voidedAt: fromUnix(remote.status_transitions?.voided_at) ?? fromUnix(event.created) });
-      if (transition.to === "uncollectible") Object.assign(changes, { uncollectibleAt: fromUnix(remote.status_transitions?.marked_uncollectible_at) ?? fromUnix(event.created) });
-      if (transition.to === "open" && remote.hosted_invoice_url) Object.assign(changes, { hostedUrl: remote.hosted_invoice_url, number: remote.number ?? invoice.number });
+      if (transition.to === "paid")
+        Object.assign(changes, { paidAt: fromUnix(remote.status_transitions?.paid_at) ?? fromUnix(event.created), lastPaymentError: null });
+      if (transition.to === "void")
+        Object.assign(changes, { voidedAt: fromUnix(remote.status_transitions?.voided_at) ?? fromUnix(event.created) });
+      if (transition.to === "uncollectible")
+        Object.assign(changes, {
+          uncollectibleAt: fromUnix(remote.status_transitions?.marked_uncollectible_at) ?? fromUnix(event.created),
+        });
+      if (transition.to === "open" && remote.hosted_invoice_url)
+        Object.assign(changes, { hostedUrl: remote.hosted_invoice_url, number: remote.number ?? invoice.number });
       await invoice.update(changes, { transaction });
-      if (transition.to === "void") await Statement.update({ status: "void", voidedAt: new Date() }, { where: { id: invoice.statementId }, transaction });
+      if (transition.to === "void")
+        await Statement.update({ status: "void", voidedAt: new Date() }, { where: { id: invoice.statementId }, transaction });
     }
-    await recordAudit({ actorId: null, action: event.type, entity: "invoice", entityId: invoice.id, before, after: { status: invoice.status, event: event.id } }, transaction);
+    await recordAudit(
+      {
+        actorId: null,
+        action: event.type,
+        entity: "invoice",
+        entityId: invoice.id,
+        before,
+        after: { status: invoice.status, event: event.id },
+      },
+      transaction,
+    );
     return { eventId: event.id, type: event.type, outcome: "applied" as const, invoiceId: invoice.id };
   });
 }
@@ -746,7 +997,18 @@ export async function handlePaymentsWebhook(rawBody: string, signatureHeader: st
 /** What the statement PDF shows: the statement as the screens see it, plus the facility's name. */
 export type StatementPdfInput = Pick<
   StatementView,
-  "reference" | "clientName" | "clientKind" | "costCentre" | "billingEmail" | "periodStart" | "periodEnd" | "status" | "issuedAt" | "lines" | "total_minor" | "currency"
+  | "reference"
+  | "clientName"
+  | "clientKind"
+  | "costCentre"
+  | "billingEmail"
+  | "periodStart"
+  | "periodEnd"
+  | "status"
+  | "issuedAt"
+  | "lines"
+  | "total_minor"
+  | "currency"
 > & {
   facility: string;
   invoice: Pick<InvoiceView, "number" | "dueOn" | "hostedUrl" | "status"> | null;
@@ -770,7 +1032,14 @@ async function pdfInput(id: number): Promise<StatementPdfInput> {
     lines: statement.lines,
     total_minor: statement.totalMinor,
     currency: statement.currency,
-    invoice: invoice ? { number: invoice.number, dueOn: invoice.dueOn ? String(invoice.dueOn) : null, hostedUrl: invoice.hostedUrl, status: invoice.status } : null,
+    invoice: invoice
+      ? {
+          number: invoice.number,
+          dueOn: invoice.dueOn ? String(invoice.dueOn) : null,
+          hostedUrl: invoice.hostedUrl,
+          status: invoice.status,
+        }
+      : null,
   };
 }
 
@@ -782,26 +1051,57 @@ export async function statementPdf(id: number, viewer: SignedInUser): Promise<{ 
 export async function statementCsvFile(id: number, viewer: SignedInUser): Promise<{ text: string; fileName: string }> {
   const view = await getStatement(id, viewer);
   return {
-    text: statementCsv({ reference: view.reference, clientName: view.clientName, periodStart: view.periodStart, periodEnd: view.periodEnd, currency: view.currency }, view.lines),
+    text: statementCsv(
+      {
+        reference: view.reference,
+        clientName: view.clientName,
+        periodStart: view.periodStart,
+        periodEnd: view.periodEnd,
+        currency: view.currency,
+      },
+      view.lines,
+    ),
     fileName: `${view.reference}.csv`,
   };
 }
 
 /** The chargeback journal for the finance office: every issued internal statement within the dates. */
 export async function chargebackJournal(from: string, to: string): Promise<{ text: string; fileName: string; statements: number }> {
-  const statements = await Statement.findAll({ where: { status: "issued", periodStart: { [Op.gte]: from }, periodEnd: { [Op.lte]: to } }, order: [["periodStart", "ASC"], ["id", "ASC"]] });
+  const statements = await Statement.findAll({
+    where: { status: "issued", periodStart: { [Op.gte]: from }, periodEnd: { [Op.lte]: to } },
+    order: [
+      ["periodStart", "ASC"],
+      ["id", "ASC"],
+    ],
+  });
   const clients = new Map((await Client.findAll({ where: { kind: "internal" } })).map((c) => [c.id, c]));
   const rows: JournalStatement[] = statements
     .filter((s) => clients.has(s.clientId))
     .map((s) => {
       const client = clients.get(s.clientId)!;
-      return { reference: statementReference(s.id), clientName: client.name, costCentre: client.costCentre ?? "", periodStart: String(s.periodStart), periodEnd: String(s.periodEnd), currency: s.currency, lines: s.lines };
+      return {
+        reference: statementReference(s.id),
+        clientName: client.name,
+        costCentre: client.costCentre ?? "",
+        periodStart: String(s.periodStart),
+        periodEnd: String(s.periodEnd),
+        currency: s.currency,
+        lines: s.lines,
+      };
     });
   return { text: journalCsv(rows), fileName: `chargeback-journal-${from}-to-${to}.csv`, statements: rows.length };
 }
 
 /** Reagents a rate can be set for, with their unit and grades. */
 export async function rateReagents(): Promise<{ id: string; name: string; unit: "mL" | "g"; grades: string[] }[]> {
-  const rows = await db().query<{ id: string; name: string; unit: "mL" | "g"; grades: unknown }>("SELECT id, name, unit, grades FROM reagents WHERE active = 1 ORDER BY name", { type: QueryTypes.SELECT });
-  return rows.map((r) => ({ id: r.id, name: r.name, unit: r.unit, grades: (typeof r.grades === "string" ? JSON.parse(r.grades) : r.grades) as string[] }));
+  const rows = await db().query<{ id: string; name: string; unit: "mL" | "g"; grades: unknown }>(
+    "SELECT id, name, unit, grades FROM reagents WHERE active = 1 ORDER BY name",
+    { type: QueryTypes.SELECT },
+  );
+  return rows.map((r) => ({
+    id: r.id,
+    name: r.name,
+    unit: r.unit,
+    grades: (typeof r.grades === "string" ? JSON.parse(r.grades) : r.grades) as string[],
+  }));
 }

@@ -29,7 +29,9 @@ interface ExpiringRow {
  * Sends the digest once per day, however many app instances call it and however often: a job
  * lock keeps two instances from sending at once, and the day it was sent is kept in settings.
  */
-export async function runExpiryDigest(options: { now?: Date; send?: (mail: OutgoingMail) => Promise<void> } = {}): Promise<ExpiryDigestResult> {
+export async function runExpiryDigest(
+  options: { now?: Date; send?: (mail: OutgoingMail) => Promise<void> } = {},
+): Promise<ExpiryDigestResult> {
   const now = options.now ?? new Date();
   const send = options.send ?? sendMail;
   const day = now.toISOString().slice(0, 10);
@@ -46,18 +48,29 @@ export async function runExpiryDigest(options: { now?: Date; send?: (mail: Outgo
         ORDER BY b.expires_at, b.code`,
       { type: QueryTypes.SELECT, replacements: { now, until: new Date(now.getTime() + 24 * 3_600_000) } },
     );
-    const technicians = await sequelize.query<{ email: string }>("SELECT email FROM users WHERE role = 'technician' AND active = 1 ORDER BY email", { type: QueryTypes.SELECT });
+    const technicians = await sequelize.query<{ email: string }>(
+      "SELECT email FROM users WHERE role = 'technician' AND active = 1 ORDER BY email",
+      { type: QueryTypes.SELECT },
+    );
     if (batches.length > 0) {
-      const lines = batches.map((b) => `${b.code} · ${b.name} · expires ${formatDateTime(new Date(b.expires_at))} UTC · ${Number(b.remaining_ml)} mL left`);
+      const lines = batches.map(
+        (b) => `${b.code} · ${b.name} · expires ${formatDateTime(new Date(b.expires_at))} UTC · ${Number(b.remaining_ml)} mL left`,
+      );
       const link = `${publicOrigin()}/home`;
       const subject = `Decant: ${batches.length} batch${batches.length === 1 ? "" : "es"} expire${batches.length === 1 ? "s" : ""} within 24 hours`;
-      const advice = "Replace them before the next run; an expired batch cannot be assigned to a run. Dispose of the remainder as your laboratory's SOPs and the waste rules say.";
+      const advice =
+        "Replace them before the next run; an expired batch cannot be assigned to a run. Dispose of the remainder as your laboratory's SOPs and the waste rules say.";
       const text = `These batches expire within 24 hours:\n\n${lines.map((l) => `- ${l}`).join("\n")}\n\n${advice}\n\n${link}\n`;
       const html = `<p>These batches expire within 24 hours:</p><ul>${lines.map((l) => `<li>${escapeHtml(l)}</li>`).join("")}</ul><p>${escapeHtml(advice)}</p><p><a href="${escapeHtml(link)}">Open Decant</a></p>`;
       for (const { email } of technicians) await send({ to: email, subject, text, html });
     }
     await Setting.upsert({ key: LAST_SENT_KEY, value: day, updatedBy: null });
-    return { ran: true, sentFor: day, batches: batches.map((b) => b.code), recipients: batches.length ? technicians.map((t) => t.email) : [] };
+    return {
+      ran: true,
+      sentFor: day,
+      batches: batches.map((b) => b.code),
+      recipients: batches.length ? technicians.map((t) => t.email) : [],
+    };
   });
   return outcome.ran ? outcome.result : nothing;
 }

@@ -34,8 +34,16 @@ export interface ImportReport {
   importId: number | null;
 }
 
-const FIELD_TO_COLUMN: Record<string, string> = { instrumentId: "instrument", methodId: "method", projectId: "project", operatorId: "operator", startedAt: "started_at", reference: "run_reference" };
-const columnOf = (field: string) => (field.startsWith("channelBatches.") ? `batch_${field.slice("channelBatches.".length)}` : (FIELD_TO_COLUMN[field] ?? field));
+const FIELD_TO_COLUMN: Record<string, string> = {
+  instrumentId: "instrument",
+  methodId: "method",
+  projectId: "project",
+  operatorId: "operator",
+  startedAt: "started_at",
+  reference: "run_reference",
+};
+const columnOf = (field: string) =>
+  field.startsWith("channelBatches.") ? `batch_${field.slice("channelBatches.".length)}` : (FIELD_TO_COLUMN[field] ?? field);
 
 interface PlannedRow {
   row: RunLogRow;
@@ -55,26 +63,61 @@ async function prepare(content: string, fileName: string, actor: SignedInUser, t
   const opts = transaction ? { transaction } : {};
   const checksum = createHash("sha256").update(content).digest("hex");
   const parsed = await readRunLog(content);
-  const report: ImportReport = { fileName, checksum, rowCount: parsed.rowCount, newRuns: 0, alreadyRecorded: 0, entries: 0, volume_mL: 0, issues: [...parsed.issues], previousImport: null, importId: null };
-  const [previous] = await sequelize.query<{ id: number; created_at: Date }>("SELECT id, created_at FROM imports WHERE checksum = ? AND status = 'committed' ORDER BY id LIMIT 1", { type: QueryTypes.SELECT, replacements: [checksum], ...opts });
+  const report: ImportReport = {
+    fileName,
+    checksum,
+    rowCount: parsed.rowCount,
+    newRuns: 0,
+    alreadyRecorded: 0,
+    entries: 0,
+    volume_mL: 0,
+    issues: [...parsed.issues],
+    previousImport: null,
+    importId: null,
+  };
+  const [previous] = await sequelize.query<{ id: number; created_at: Date }>(
+    "SELECT id, created_at FROM imports WHERE checksum = ? AND status = 'committed' ORDER BY id LIMIT 1",
+    { type: QueryTypes.SELECT, replacements: [checksum], ...opts },
+  );
   if (previous) report.previousImport = { id: previous.id, at: new Date(previous.created_at).toISOString() };
   if (parsed.issues.length) return { report, planned: [] as PlannedRow[] };
 
   const rows = parsed.rows;
   const wasteChecks = new Map<string, Awaited<ReturnType<typeof wasteProblem>>>();
   const instruments = new Map<string, InstrumentForUse>();
-  for (const i of await sequelize.query<{ id: number; name: string; channels: unknown; waste_container_id: number | null; active: number }>("SELECT id, name, channels, waste_container_id, active FROM instruments", { type: QueryTypes.SELECT, ...opts })) {
-    instruments.set(i.name.toLowerCase(), { id: i.id, name: i.name, channels: parseJson<string[]>(i.channels), wasteContainerId: i.waste_container_id, active: Boolean(i.active) });
+  for (const i of await sequelize.query<{ id: number; name: string; channels: unknown; waste_container_id: number | null; active: number }>(
+    "SELECT id, name, channels, waste_container_id, active FROM instruments",
+    { type: QueryTypes.SELECT, ...opts },
+  )) {
+    instruments.set(i.name.toLowerCase(), {
+      id: i.id,
+      name: i.name,
+      channels: parseJson<string[]>(i.channels),
+      wasteContainerId: i.waste_container_id,
+      active: Boolean(i.active),
+    });
   }
   const methods = new Map<string, MethodForUse>();
-  for (const m of await sequelize.query<{ id: number; name: string; program: unknown }>("SELECT id, name, program FROM methods", { type: QueryTypes.SELECT, ...opts })) {
+  for (const m of await sequelize.query<{ id: number; name: string; program: unknown }>("SELECT id, name, program FROM methods", {
+    type: QueryTypes.SELECT,
+    ...opts,
+  })) {
     methods.set(m.name.toLowerCase(), { id: m.id, name: m.name, program: parseJson<ProgramPoint[]>(m.program) });
   }
   const projects = new Map<string, { id: number; status: string }>();
-  for (const p of await sequelize.query<{ id: number; code: string; status: string }>("SELECT id, code, status FROM projects", { type: QueryTypes.SELECT, ...opts })) projects.set(p.code.toLowerCase(), p);
+  for (const p of await sequelize.query<{ id: number; code: string; status: string }>("SELECT id, code, status FROM projects", {
+    type: QueryTypes.SELECT,
+    ...opts,
+  }))
+    projects.set(p.code.toLowerCase(), p);
   const emails = [...new Set(rows.map((r) => r.operator?.toLowerCase()).filter((e): e is string => !!e))];
   const users = new Map<string, number>();
-  if (emails.length) for (const u of await sequelize.query<{ id: number; email: string }>("SELECT id, email FROM users WHERE email IN (:emails) AND active = 1", { type: QueryTypes.SELECT, replacements: { emails }, ...opts })) users.set(u.email.toLowerCase(), u.id);
+  if (emails.length)
+    for (const u of await sequelize.query<{ id: number; email: string }>(
+      "SELECT id, email FROM users WHERE email IN (:emails) AND active = 1",
+      { type: QueryTypes.SELECT, replacements: { emails }, ...opts },
+    ))
+      users.set(u.email.toLowerCase(), u.id);
   const codes = [...new Set(rows.flatMap((r) => Object.values(r.batches)))];
   const batches = await loadBatches({ codes }, transaction, Boolean(transaction));
   const batchByCode = new Map([...batches.values()].map((b) => [b.code.toLowerCase(), b]));
@@ -92,7 +135,10 @@ async function prepare(content: string, fileName: string, actor: SignedInUser, t
   for (const [instrumentId, references] of byInstrument) {
     for (let i = 0; i < references.length; i += 5_000) {
       const slice = references.slice(i, i + 5_000);
-      for (const hit of await sequelize.query<{ reference: string }>("SELECT reference FROM runs WHERE instrument_id = :instrumentId AND reference IN (:slice)", { type: QueryTypes.SELECT, replacements: { instrumentId, slice }, ...opts })) {
+      for (const hit of await sequelize.query<{ reference: string }>(
+        "SELECT reference FROM runs WHERE instrument_id = :instrumentId AND reference IN (:slice)",
+        { type: QueryTypes.SELECT, replacements: { instrumentId, slice }, ...opts },
+      )) {
         recorded.add(`${instrumentId}\u0000${hit.reference}`);
       }
     }
@@ -129,7 +175,21 @@ async function prepare(content: string, fileName: string, actor: SignedInUser, t
       continue;
     }
     if (report.issues.length > before || !instrument || !method || !project) continue;
-    const { plan, problems } = planRun({ instrument, method, projectId: project.id, injections: row.injections, blanks: row.blanks, purge_mL: row.purge_mL, channelBatches, startedAt: row.startedAt, authorId: actor.id }, batches, remainingAfter);
+    const { plan, problems } = planRun(
+      {
+        instrument,
+        method,
+        projectId: project.id,
+        injections: row.injections,
+        blanks: row.blanks,
+        purge_mL: row.purge_mL,
+        channelBatches,
+        startedAt: row.startedAt,
+        authorId: actor.id,
+      },
+      batches,
+      remainingAfter,
+    );
     for (const p of problems) issue(row.row, columnOf(p.field), p.message);
     if (!plan) continue;
     const waste = await wasteProblem({ instrument, methodId: method.id, channelBatches }, plan, transaction, wasteChecks);
@@ -143,7 +203,8 @@ async function prepare(content: string, fileName: string, actor: SignedInUser, t
     report.volume_mL += Object.values(plan.channelVolumes).reduce((a, b) => a + b, 0);
   }
   report.volume_mL = Math.round(report.volume_mL * 10_000) / 10_000;
-  if (report.issues.length >= 1_000) report.issues.push({ row: 1, column: null, message: "Stopped listing after 1,000 problems; fix these and check again." });
+  if (report.issues.length >= 1_000)
+    report.issues.push({ row: 1, column: null, message: "Stopped listing after 1,000 problems; fix these and check again." });
   return { report, planned };
 }
 
@@ -152,11 +213,31 @@ export async function checkRunLog(content: string, fileName: string, actor: Sign
   return (await prepare(content, fileName, actor)).report;
 }
 
-const RUN_COLUMNS = ["instrument_id", "method_id", "project_id", "operator_id", "reference", "started_at", "injections", "blanks", "purge_ml", "channel_batches", "channel_volumes", "import_id", "created_at", "updated_at"];
+const RUN_COLUMNS = [
+  "instrument_id",
+  "method_id",
+  "project_id",
+  "operator_id",
+  "reference",
+  "started_at",
+  "injections",
+  "blanks",
+  "purge_ml",
+  "channel_batches",
+  "channel_volumes",
+  "import_id",
+  "created_at",
+  "updated_at",
+];
 const RUNS_PER_INSERT = 1_000;
 
 /** Writes every new run of a file in one transaction, or nothing when any row has a problem. */
-export async function commitRunLog(content: string, fileName: string, actor: SignedInUser, ip: string | null = null): Promise<ImportReport> {
+export async function commitRunLog(
+  content: string,
+  fileName: string,
+  actor: SignedInUser,
+  ip: string | null = null,
+): Promise<ImportReport> {
   const sequelize = getSequelize();
   try {
     return await inTransaction(sequelize, async (transaction) => {
@@ -165,13 +246,20 @@ export async function commitRunLog(content: string, fileName: string, actor: Sig
       // The same plans, emptied run by run as their ledger entries are written.
       const planned: (PlannedRow | null)[] = prepared.planned;
       if (report.issues.length) {
-        throw new HttpError(400, `The file has ${report.issues.length} problem${report.issues.length === 1 ? "" : "s"}; nothing was written.`, { issues: report.issues, report });
+        throw new HttpError(
+          400,
+          `The file has ${report.issues.length} problem${report.issues.length === 1 ? "" : "s"}; nothing was written.`,
+          { issues: report.issues, report },
+        );
       }
       const now = new Date();
-      await sequelize.query("INSERT INTO imports (kind, file_name, checksum, row_count, status, uploaded_by, created_at, updated_at) VALUES ('run-log', ?, ?, ?, 'committed', ?, ?, ?)", {
-        replacements: [fileName.slice(0, 255), report.checksum, report.newRuns, actor.id, now, now],
-        transaction,
-      });
+      await sequelize.query(
+        "INSERT INTO imports (kind, file_name, checksum, row_count, status, uploaded_by, created_at, updated_at) VALUES ('run-log', ?, ?, ?, 'committed', ?, ?, ?)",
+        {
+          replacements: [fileName.slice(0, 255), report.checksum, report.newRuns, actor.id, now, now],
+          transaction,
+        },
+      );
       const importId = await lastInsertId(transaction);
       report.importId = importId;
 
@@ -185,13 +273,31 @@ export async function commitRunLog(content: string, fileName: string, actor: Sig
           const slice = prepared.planned.slice(start, start + RUNS_PER_INSERT);
           const values: unknown[] = [];
           for (const p of slice) {
-            values.push(p.instrument.id, p.method.id, p.projectId, p.operatorId, p.row.reference, p.row.startedAt, p.row.injections, p.row.blanks, p.row.purge_mL.toFixed(3), JSON.stringify(p.channelBatches), JSON.stringify(p.plan.channelVolumes), importId, now, now);
+            values.push(
+              p.instrument.id,
+              p.method.id,
+              p.projectId,
+              p.operatorId,
+              p.row.reference,
+              p.row.startedAt,
+              p.row.injections,
+              p.row.blanks,
+              p.row.purge_mL.toFixed(3),
+              JSON.stringify(p.channelBatches),
+              JSON.stringify(p.plan.channelVolumes),
+              importId,
+              now,
+              now,
+            );
           }
           await send(multiRowInsert("runs", RUN_COLUMNS, slice.length), values);
         }
       });
       const runIds = new Map<string, number>();
-      for (const r of await sequelize.query<{ id: number; instrument_id: number; reference: string }>("SELECT id, instrument_id, reference FROM runs WHERE import_id = ?", { type: QueryTypes.SELECT, replacements: [importId], transaction })) {
+      for (const r of await sequelize.query<{ id: number; instrument_id: number; reference: string }>(
+        "SELECT id, instrument_id, reference FROM runs WHERE import_id = ?",
+        { type: QueryTypes.SELECT, replacements: [importId], transaction },
+      )) {
         runIds.set(`${r.instrument_id}\u0000${r.reference}`, r.id);
       }
       const batchUse = new Map<number, number>();
@@ -208,13 +314,31 @@ export async function commitRunLog(content: string, fileName: string, actor: Sig
       await appendEntries(entries(), transaction);
       await drawFromBatches(batchUse, transaction);
       await recordAudit(
-        { actorId: actor.id, action: "import.commit", entity: "import", entityId: importId, ip, after: { fileName, checksum: report.checksum, rowCount: report.rowCount, newRuns: report.newRuns, alreadyRecorded: report.alreadyRecorded, entries: report.entries, volume_mL: report.volume_mL } },
+        {
+          actorId: actor.id,
+          action: "import.commit",
+          entity: "import",
+          entityId: importId,
+          ip,
+          after: {
+            fileName,
+            checksum: report.checksum,
+            rowCount: report.rowCount,
+            newRuns: report.newRuns,
+            alreadyRecorded: report.alreadyRecorded,
+            entries: report.entries,
+            volume_mL: report.volume_mL,
+          },
+        },
         transaction,
       );
       return report;
     });
   } catch (error) {
-    if (error instanceof UniqueConstraintError) throw new HttpError(409, "file: some of these runs were recorded by another import just now; check the file again", { fields: { file: "conflicts with a concurrent import" } });
+    if (error instanceof UniqueConstraintError)
+      throw new HttpError(409, "file: some of these runs were recorded by another import just now; check the file again", {
+        fields: { file: "conflicts with a concurrent import" },
+      });
     throw error;
   }
 }
@@ -229,9 +353,23 @@ export interface ImportSummary {
 }
 
 export async function listImports(limit = 20): Promise<ImportSummary[]> {
-  const rows = await getSequelize().query<{ id: number; file_name: string; row_count: number; status: string; uploaded_by: string | null; created_at: Date }>(
+  const rows = await getSequelize().query<{
+    id: number;
+    file_name: string;
+    row_count: number;
+    status: string;
+    uploaded_by: string | null;
+    created_at: Date;
+  }>(
     "SELECT i.id, i.file_name, i.row_count, i.status, u.name AS uploaded_by, i.created_at FROM imports i LEFT JOIN users u ON u.id = i.uploaded_by WHERE i.kind = 'run-log' ORDER BY i.id DESC LIMIT ?",
     { type: QueryTypes.SELECT, replacements: [limit] },
   );
-  return rows.map((r) => ({ id: r.id, fileName: r.file_name, rowCount: r.row_count, status: r.status, uploadedBy: r.uploaded_by, createdAt: new Date(r.created_at).toISOString() }));
+  return rows.map((r) => ({
+    id: r.id,
+    fileName: r.file_name,
+    rowCount: r.row_count,
+    status: r.status,
+    uploadedBy: r.uploaded_by,
+    createdAt: new Date(r.created_at).toISOString(),
+  }));
 }

@@ -23,14 +23,36 @@ export interface InstrumentSummary {
 const parse = (v: unknown) => (typeof v === "string" ? (JSON.parse(v) as string[]) : (v as string[]));
 
 export async function listInstruments(): Promise<InstrumentSummary[]> {
-  const rows = await getSequelize().query<{ id: number; name: string; kind: string; room: string; channels: unknown; waste_container_id: number | null; code: string | null; stream: string | null; active: number; runs: number }>(
+  const rows = await getSequelize().query<{
+    id: number;
+    name: string;
+    kind: string;
+    room: string;
+    channels: unknown;
+    waste_container_id: number | null;
+    code: string | null;
+    stream: string | null;
+    active: number;
+    runs: number;
+  }>(
     `SELECT i.id, i.name, i.kind, i.room, i.channels, i.waste_container_id, c.code, s.name AS stream, i.active,
             (SELECT COUNT(*) FROM runs r WHERE r.instrument_id = i.id) AS runs
        FROM instruments i LEFT JOIN waste_containers c ON c.id = i.waste_container_id LEFT JOIN waste_streams s ON s.id = c.stream_id
       ORDER BY i.name`,
     { type: QueryTypes.SELECT },
   );
-  return rows.map((r) => ({ id: r.id, name: r.name, kind: r.kind, room: r.room, channels: parse(r.channels), wasteContainerId: r.waste_container_id, wasteContainerCode: r.code, wasteStream: r.stream, active: Boolean(r.active), runs: Number(r.runs) }));
+  return rows.map((r) => ({
+    id: r.id,
+    name: r.name,
+    kind: r.kind,
+    room: r.room,
+    channels: parse(r.channels),
+    wasteContainerId: r.waste_container_id,
+    wasteContainerCode: r.code,
+    wasteStream: r.stream,
+    active: Boolean(r.active),
+    runs: Number(r.runs),
+  }));
 }
 
 /** Containers an instrument can drain to (not yet collected). */
@@ -43,22 +65,49 @@ export async function openWasteContainers() {
 
 async function checkContainer(id: number | null) {
   if (id === null) return;
-  const [row] = await getSequelize().query<{ id: number }>("SELECT id FROM waste_containers WHERE id = ? AND status <> 'collected'", { type: QueryTypes.SELECT, replacements: [id] });
-  if (!row) throw new HttpError(400, "wasteContainerId: no waste container in use with this id", { fields: { wasteContainerId: "no waste container in use with this id" } });
+  const [row] = await getSequelize().query<{ id: number }>("SELECT id FROM waste_containers WHERE id = ? AND status <> 'collected'", {
+    type: QueryTypes.SELECT,
+    replacements: [id],
+  });
+  if (!row)
+    throw new HttpError(400, "wasteContainerId: no waste container in use with this id", {
+      fields: { wasteContainerId: "no waste container in use with this id" },
+    });
 }
 
-const snapshot = (i: Instrument) => ({ name: i.name, kind: i.kind, room: i.room, channels: i.channels, wasteContainerId: i.wasteContainerId, active: i.active });
+const snapshot = (i: Instrument) => ({
+  name: i.name,
+  kind: i.kind,
+  room: i.room,
+  channels: i.channels,
+  wasteContainerId: i.wasteContainerId,
+  active: i.active,
+});
 
 function duplicateName(error: unknown, name: string): never {
-  if (error instanceof UniqueConstraintError) throw new HttpError(409, `name: an instrument called ${name} exists already`, { fields: { name: "is taken" } });
+  if (error instanceof UniqueConstraintError)
+    throw new HttpError(409, `name: an instrument called ${name} exists already`, { fields: { name: "is taken" } });
   throw error;
 }
 
 export async function createInstrument(input: InstrumentInput, actor: SignedInUser): Promise<{ id: number }> {
   await checkContainer(input.wasteContainerId);
   return inTransaction(getSequelize(), async (transaction) => {
-    const created = await Instrument.create({ name: input.name, kind: input.kind, room: input.room, channels: input.channels, wasteContainerId: input.wasteContainerId, active: input.active }, { transaction }).catch((e: unknown) => duplicateName(e, input.name));
-    await recordAudit({ actorId: actor.id, action: "instrument.create", entity: "instrument", entityId: created.id, after: snapshot(created) }, transaction);
+    const created = await Instrument.create(
+      {
+        name: input.name,
+        kind: input.kind,
+        room: input.room,
+        channels: input.channels,
+        wasteContainerId: input.wasteContainerId,
+        active: input.active,
+      },
+      { transaction },
+    ).catch((e: unknown) => duplicateName(e, input.name));
+    await recordAudit(
+      { actorId: actor.id, action: "instrument.create", entity: "instrument", entityId: created.id, after: snapshot(created) },
+      transaction,
+    );
     return { id: created.id };
   });
 }
@@ -69,9 +118,19 @@ export async function updateInstrument(id: number, input: InstrumentInput, actor
     const instrument = await Instrument.findByPk(id, { transaction, lock: transaction.LOCK.UPDATE });
     if (!instrument) throw new HttpError(404, `id: no instrument ${id}`);
     const before = snapshot(instrument);
-    instrument.set({ name: input.name, kind: input.kind, room: input.room, channels: input.channels, wasteContainerId: input.wasteContainerId, active: input.active });
+    instrument.set({
+      name: input.name,
+      kind: input.kind,
+      room: input.room,
+      channels: input.channels,
+      wasteContainerId: input.wasteContainerId,
+      active: input.active,
+    });
     await instrument.save({ transaction }).catch((e: unknown) => duplicateName(e, input.name));
-    await recordAudit({ actorId: actor.id, action: "instrument.update", entity: "instrument", entityId: id, before, after: snapshot(instrument) }, transaction);
+    await recordAudit(
+      { actorId: actor.id, action: "instrument.update", entity: "instrument", entityId: id, before, after: snapshot(instrument) },
+      transaction,
+    );
     return { id };
   });
 }

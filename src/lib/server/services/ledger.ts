@@ -33,8 +33,22 @@ export interface NewLedgerEntry {
 }
 
 const COLUMNS = [
-  "occurred_at", "project_id", "kind", "batch_id", "reagent_id", "volume_ml", "mass_g", "channel", "waste_stream_id",
-  "waste_container_id", "source_kind", "source_id", "author_id", "reverses_id", "reason", "created_at",
+  "occurred_at",
+  "project_id",
+  "kind",
+  "batch_id",
+  "reagent_id",
+  "volume_ml",
+  "mass_g",
+  "channel",
+  "waste_stream_id",
+  "waste_container_id",
+  "source_kind",
+  "source_id",
+  "author_id",
+  "reverses_id",
+  "reason",
+  "created_at",
 ] as const;
 const ROWS_PER_INSERT = 2_000;
 
@@ -59,14 +73,27 @@ export async function ensureCatalogueRows(reagentIds: Iterable<string>, transact
   const sequelize = getSequelize();
   const wanted = [...new Set(reagentIds)];
   if (wanted.length === 0) return;
-  const present = new Set((await sequelize.query<{ id: string }>("SELECT id FROM reagents WHERE id IN (:wanted)", { type: QueryTypes.SELECT, replacements: { wanted }, transaction })).map((r) => r.id));
+  const present = new Set(
+    (
+      await sequelize.query<{ id: string }>("SELECT id FROM reagents WHERE id IN (:wanted)", {
+        type: QueryTypes.SELECT,
+        replacements: { wanted },
+        transaction,
+      })
+    ).map((r) => r.id),
+  );
   const streams = new Set(wanted.map(wasteStreamOf).filter((s): s is string => s !== null));
   if (streams.size > 0) {
-    const known = new Set((await sequelize.query<{ id: string }>("SELECT id FROM waste_streams", { type: QueryTypes.SELECT, transaction })).map((r) => r.id));
+    const known = new Set(
+      (await sequelize.query<{ id: string }>("SELECT id FROM waste_streams", { type: QueryTypes.SELECT, transaction })).map((r) => r.id),
+    );
     for (const stream of streams) {
       if (known.has(stream)) continue;
       const [name, restrictiveness] = STREAM_NAMES[stream] ?? [stream, 2];
-      await sequelize.query("INSERT IGNORE INTO waste_streams (id, name, restrictiveness, created_at, updated_at) VALUES (?, ?, ?, NOW(3), NOW(3))", { replacements: [stream, name, restrictiveness], transaction });
+      await sequelize.query(
+        "INSERT IGNORE INTO waste_streams (id, name, restrictiveness, created_at, updated_at) VALUES (?, ?, ?, NOW(3), NOW(3))",
+        { replacements: [stream, name, restrictiveness], transaction },
+      );
     }
   }
   for (const id of wanted) {
@@ -75,7 +102,10 @@ export async function ensureCatalogueRows(reagentIds: Iterable<string>, transact
     if (!reagent) throw new HttpError(400, `reagent: ${id} is not in the catalogue`);
     await sequelize.query(
       "INSERT IGNORE INTO reagents (id, name, grades, unit, waste_stream_id, flammable, active, created_at, updated_at) VALUES (?, ?, '[]', ?, ?, ?, 1, NOW(3), NOW(3))",
-      { replacements: [id, reagent.name, reagent.form === "solid" ? "g" : "mL", reagent.wasteStream.value, reagent.flammable ? 1 : 0], transaction },
+      {
+        replacements: [id, reagent.name, reagent.form === "solid" ? "g" : "mL", reagent.wasteStream.value, reagent.flammable ? 1 : 0],
+        transaction,
+      },
     );
   }
 }
@@ -97,8 +127,22 @@ export async function appendEntries(entries: Iterable<NewLedgerEntry>, transacti
     };
     for (const e of entries) {
       values.push(
-        e.occurredAt, e.projectId, e.kind, e.batchId, e.reagentId, e.volume_mL.toFixed(4), e.mass_g === null ? null : e.mass_g.toFixed(5), e.channel,
-        e.wasteStreamId, e.wasteContainerId, e.sourceKind, e.sourceId, e.authorId, e.reversesId ?? null, e.reason ?? null, now,
+        e.occurredAt,
+        e.projectId,
+        e.kind,
+        e.batchId,
+        e.reagentId,
+        e.volume_mL.toFixed(4),
+        e.mass_g === null ? null : e.mass_g.toFixed(5),
+        e.channel,
+        e.wasteStreamId,
+        e.wasteContainerId,
+        e.sourceKind,
+        e.sourceId,
+        e.authorId,
+        e.reversesId ?? null,
+        e.reason ?? null,
+        now,
       );
       if (++rows === ROWS_PER_INSERT) await flush();
     }
@@ -181,7 +225,11 @@ const toLine = (r: LedgerRow): LedgerLine => ({
 });
 
 /** Entries of a run (and their corrections), of a batch, or the latest ones. */
-export async function listEntries(filter: { runId?: number | undefined; batchId?: number | undefined; limit?: number }): Promise<LedgerLine[]> {
+export async function listEntries(filter: {
+  runId?: number | undefined;
+  batchId?: number | undefined;
+  limit?: number;
+}): Promise<LedgerLine[]> {
   const where: string[] = [];
   const replacements: Record<string, unknown> = { limit: filter.limit ?? 200 };
   if (filter.runId !== undefined) {
@@ -192,7 +240,10 @@ export async function listEntries(filter: { runId?: number | undefined; batchId?
     where.push("l.batch_id = :batchId");
     replacements.batchId = filter.batchId;
   }
-  const rows = await getSequelize().query<LedgerRow>(`${SELECT_LINES} ${where.length ? `WHERE ${where.join(" AND ")}` : ""} ORDER BY l.id DESC LIMIT :limit`, { type: QueryTypes.SELECT, replacements });
+  const rows = await getSequelize().query<LedgerRow>(
+    `${SELECT_LINES} ${where.length ? `WHERE ${where.join(" AND ")}` : ""} ORDER BY l.id DESC LIMIT :limit`,
+    { type: QueryTypes.SELECT, replacements },
+  );
   return rows.map(toLine);
 }
 
@@ -203,7 +254,11 @@ const DRAWN_FROM_BATCH = new Set<LedgerKind>(["run", "draw", "discard"]);
  * Reverses entries (by id, or every entry of a run not yet reversed) in one transaction: a
  * correction per entry, the batches' remaining volume restored, one audit line.
  */
-export async function reverseEntries(input: { entryIds: number[]; runId?: number | undefined; reason: string }, actor: SignedInUser, ip: string | null = null): Promise<{ corrections: LedgerLine[] }> {
+export async function reverseEntries(
+  input: { entryIds: number[]; runId?: number | undefined; reason: string },
+  actor: SignedInUser,
+  ip: string | null = null,
+): Promise<{ corrections: LedgerLine[] }> {
   const sequelize = getSequelize();
   const ids = await inTransaction(sequelize, async (transaction) => {
     const conditions: string[] = [];
@@ -216,7 +271,9 @@ export async function reverseEntries(input: { entryIds: number[]; runId?: number
       conditions.push("(l.source_id = :runSource AND l.kind = 'run')");
       replacements.runSource = `run:${input.runId}`;
     }
-    const originals = await sequelize.query<LedgerRow & { project_id: number | null; waste_container_id: number | null; occurred_at: Date }>(
+    const originals = await sequelize.query<
+      LedgerRow & { project_id: number | null; waste_container_id: number | null; occurred_at: Date }
+    >(
       `SELECT l.*, r.id AS reversed_by FROM ledger_entries l LEFT JOIN ledger_entries r ON r.reverses_id = l.id
         WHERE ${conditions.join(" OR ")} ORDER BY l.id FOR UPDATE`,
       { type: QueryTypes.SELECT, replacements, transaction },
@@ -224,11 +281,20 @@ export async function reverseEntries(input: { entryIds: number[]; runId?: number
     const found = new Set(originals.map((o) => Number(o.id)));
     const missing = input.entryIds.filter((id) => !found.has(id));
     if (missing.length) throw new HttpError(404, `entryIds: no ledger entry ${missing.join(", ")}`);
-    if (input.runId !== undefined && !originals.some((o) => o.source_id === `run:${input.runId}`)) throw new HttpError(404, `runId: run ${input.runId} has no ledger entries`);
+    if (input.runId !== undefined && !originals.some((o) => o.source_id === `run:${input.runId}`))
+      throw new HttpError(404, `runId: run ${input.runId} has no ledger entries`);
     const corrections = originals.filter((o) => o.kind === "correction" && input.entryIds.includes(Number(o.id)));
-    if (corrections.length) throw new HttpError(400, `entryIds: entry ${corrections.map((c) => c.id).join(", ")} is itself a correction; corrections are not reversed`);
+    if (corrections.length)
+      throw new HttpError(
+        400,
+        `entryIds: entry ${corrections.map((c) => c.id).join(", ")} is itself a correction; corrections are not reversed`,
+      );
     const already = originals.filter((o) => o.reversed_by !== null && input.entryIds.includes(Number(o.id)));
-    if (already.length) throw new HttpError(409, `entryIds: entry ${already.map((a) => a.id).join(", ")} is already reversed (by entry ${already.map((a) => a.reversed_by).join(", ")})`);
+    if (already.length)
+      throw new HttpError(
+        409,
+        `entryIds: entry ${already.map((a) => a.id).join(", ")} is already reversed (by entry ${already.map((a) => a.reversed_by).join(", ")})`,
+      );
     const todo = originals.filter((o) => o.kind !== "correction" && o.reversed_by === null);
     if (todo.length === 0) throw new HttpError(409, "runId: every entry of this run is already reversed");
 
@@ -258,13 +324,19 @@ export async function reverseEntries(input: { entryIds: number[]; runId?: number
     try {
       await appendEntries(reversing, transaction);
     } catch (error) {
-      if (error instanceof Error && /Duplicate entry/i.test(`${error.message} ${(error as { parent?: Error }).parent?.message ?? ""}`)) throw new HttpError(409, "entryIds: an entry was reversed by someone else just now; reload");
+      if (error instanceof Error && /Duplicate entry/i.test(`${error.message} ${(error as { parent?: Error }).parent?.message ?? ""}`))
+        throw new HttpError(409, "entryIds: an entry was reversed by someone else just now; reload");
       throw error;
     }
     const backToBatch = new Map<number, number>();
-    for (const o of todo) if (o.batch_id !== null && DRAWN_FROM_BATCH.has(o.kind)) backToBatch.set(o.batch_id, (backToBatch.get(o.batch_id) ?? 0) + Number(o.volume_ml));
+    for (const o of todo)
+      if (o.batch_id !== null && DRAWN_FROM_BATCH.has(o.kind))
+        backToBatch.set(o.batch_id, (backToBatch.get(o.batch_id) ?? 0) + Number(o.volume_ml));
     for (const [batchId, volume] of backToBatch) {
-      await sequelize.query("UPDATE batches SET remaining_ml = LEAST(volume_ml, remaining_ml + ?), updated_at = NOW(3) WHERE id = ?", { replacements: [volume.toFixed(4), batchId], transaction });
+      await sequelize.query("UPDATE batches SET remaining_ml = LEAST(volume_ml, remaining_ml + ?), updated_at = NOW(3) WHERE id = ?", {
+        replacements: [volume.toFixed(4), batchId],
+        transaction,
+      });
     }
     const originalIds = todo.map((o) => Number(o.id));
     await recordAudit(
@@ -281,6 +353,9 @@ export async function reverseEntries(input: { entryIds: number[]; runId?: number
     );
     return originalIds;
   });
-  const rows = await sequelize.query<LedgerRow>(`${SELECT_LINES} WHERE l.reverses_id IN (:ids) ORDER BY l.id`, { type: QueryTypes.SELECT, replacements: { ids } });
+  const rows = await sequelize.query<LedgerRow>(`${SELECT_LINES} WHERE l.reverses_id IN (:ids) ORDER BY l.id`, {
+    type: QueryTypes.SELECT,
+    replacements: { ids },
+  });
   return { corrections: rows.map(toLine) };
 }

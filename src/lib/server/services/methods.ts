@@ -24,46 +24,86 @@ export interface MethodSummary {
 
 const parse = (v: unknown) => (typeof v === "string" ? (JSON.parse(v) as ProgramPoint[]) : (v as ProgramPoint[]));
 
-function summarise(r: { id: number; name: string; description: string | null; program: unknown; re_equilibration_min: string; run_time_min: string; runs?: number }): MethodSummary {
+function summarise(r: {
+  id: number;
+  name: string;
+  description: string | null;
+  program: unknown;
+  re_equilibration_min: string;
+  run_time_min: string;
+  runs?: number;
+}): MethodSummary {
   const program = parse(r.program);
   const use = solventUse({ program });
   return {
-    id: r.id, name: r.name, description: r.description, program, reEquilibration_min: Number(r.re_equilibration_min), runTime_min: Number(r.run_time_min),
-    perInjection_mL: use.byChannel_mL, perInjectionTotal_mL: use.total_mL, runs: Number(r.runs ?? 0),
+    id: r.id,
+    name: r.name,
+    description: r.description,
+    program,
+    reEquilibration_min: Number(r.re_equilibration_min),
+    runTime_min: Number(r.run_time_min),
+    perInjection_mL: use.byChannel_mL,
+    perInjectionTotal_mL: use.total_mL,
+    runs: Number(r.runs ?? 0),
   };
 }
 
 export async function listMethods(): Promise<MethodSummary[]> {
-  const rows = await getSequelize().query<{ id: number; name: string; description: string | null; program: unknown; re_equilibration_min: string; run_time_min: string; runs: number }>(
-    "SELECT m.*, (SELECT COUNT(*) FROM runs r WHERE r.method_id = m.id) AS runs FROM methods m ORDER BY m.name",
-    { type: QueryTypes.SELECT },
-  );
+  const rows = await getSequelize().query<{
+    id: number;
+    name: string;
+    description: string | null;
+    program: unknown;
+    re_equilibration_min: string;
+    run_time_min: string;
+    runs: number;
+  }>("SELECT m.*, (SELECT COUNT(*) FROM runs r WHERE r.method_id = m.id) AS runs FROM methods m ORDER BY m.name", {
+    type: QueryTypes.SELECT,
+  });
   return rows.map(summarise);
 }
 
 export async function getMethod(id: number): Promise<MethodSummary | null> {
-  const [row] = await getSequelize().query<{ id: number; name: string; description: string | null; program: unknown; re_equilibration_min: string; run_time_min: string; runs: number }>(
-    "SELECT m.*, (SELECT COUNT(*) FROM runs r WHERE r.method_id = m.id) AS runs FROM methods m WHERE m.id = ?",
-    { type: QueryTypes.SELECT, replacements: [id] },
-  );
+  const [row] = await getSequelize().query<{
+    id: number;
+    name: string;
+    description: string | null;
+    program: unknown;
+    re_equilibration_min: string;
+    run_time_min: string;
+    runs: number;
+  }>("SELECT m.*, (SELECT COUNT(*) FROM runs r WHERE r.method_id = m.id) AS runs FROM methods m WHERE m.id = ?", {
+    type: QueryTypes.SELECT,
+    replacements: [id],
+  });
   return row ? summarise(row) : null;
 }
 
 function toColumns(input: MethodInput) {
   const program = rowsToProgram(input.rows);
   const runTime = program[program.length - 1]?.time_min ?? 0;
-  return { name: input.name, description: input.description || null, program, reEquilibrationMin: input.reEquilibration_min.toFixed(3), runTimeMin: runTime.toFixed(3) };
+  return {
+    name: input.name,
+    description: input.description || null,
+    program,
+    reEquilibrationMin: input.reEquilibration_min.toFixed(3),
+    runTimeMin: runTime.toFixed(3),
+  };
 }
 
 function duplicateName(error: unknown, name: string): never {
-  if (error instanceof UniqueConstraintError) throw new HttpError(409, `name: a method called ${name} exists already`, { fields: { name: "is taken" } });
+  if (error instanceof UniqueConstraintError)
+    throw new HttpError(409, `name: a method called ${name} exists already`, { fields: { name: "is taken" } });
   throw error;
 }
 
 export async function createMethod(input: MethodInput, actor: SignedInUser): Promise<{ id: number }> {
   return inTransaction(getSequelize(), async (transaction) => {
     const created = await Method.create(toColumns(input), { transaction }).catch((e: unknown) => duplicateName(e, input.name));
-    await recordAudit({ actorId: actor.id, action: "method.create", entity: "method", entityId: created.id, after: toColumns(input) }, transaction);
+    await recordAudit(
+      { actorId: actor.id, action: "method.create", entity: "method", entityId: created.id, after: toColumns(input) },
+      transaction,
+    );
     return { id: created.id };
   });
 }
@@ -79,7 +119,10 @@ export async function updateMethod(id: number, input: MethodInput, actor: Signed
     const before = { name: method.name, program: method.program, reEquilibrationMin: method.reEquilibrationMin };
     method.set(toColumns(input));
     await method.save({ transaction }).catch((e: unknown) => duplicateName(e, input.name));
-    await recordAudit({ actorId: actor.id, action: "method.update", entity: "method", entityId: id, before, after: toColumns(input) }, transaction);
+    await recordAudit(
+      { actorId: actor.id, action: "method.update", entity: "method", entityId: id, before, after: toColumns(input) },
+      transaction,
+    );
     return { id };
   });
 }

@@ -25,7 +25,13 @@ export async function recentUsageByProject(days: number, clientId: number | null
       ORDER BY volume DESC, p.code`,
     { type: QueryTypes.SELECT, replacements: { since: new Date(now.getTime() - days * DAY), until: now, clientId } },
   );
-  return rows.map((r) => ({ projectCode: r.code, projectName: r.name, clientName: r.client, volume_mL: Number(r.volume), runs: Number(r.runs) }));
+  return rows.map((r) => ({
+    projectCode: r.code,
+    projectName: r.name,
+    clientName: r.client,
+    volume_mL: Number(r.volume),
+    runs: Number(r.runs),
+  }));
 }
 
 export interface ContainerFill {

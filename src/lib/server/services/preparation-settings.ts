@@ -17,7 +17,10 @@ const KEYS = {
 } as const;
 
 async function readSettings(keys: string[]): Promise<Map<string, unknown>> {
-  const rows = await getSequelize().query<{ key: string; value: unknown }>("SELECT `key`, value FROM settings WHERE `key` IN (:keys)", { type: QueryTypes.SELECT, replacements: { keys } });
+  const rows = await getSequelize().query<{ key: string; value: unknown }>("SELECT `key`, value FROM settings WHERE `key` IN (:keys)", {
+    type: QueryTypes.SELECT,
+    replacements: { keys },
+  });
   return new Map(rows.map((r) => [r.key, typeof r.value === "string" ? JSON.parse(r.value) : r.value]));
 }
 
@@ -43,10 +46,19 @@ export async function getPreparationSettings(): Promise<PreparationSettings> {
   const parsed = preparationSettingsSchema.safeParse(candidate);
   // A hand-edited setting that no longer parses falls back to the defaults rather than breaking preparation.
   if (parsed.success) return parsed.data;
-  return preparationSettingsSchema.parse({ expiryRules: defaultRules(values), tolerances: DEFAULT_TOLERANCES, labelStocks: DEFAULT_LABEL_STOCKS, defaultLabelStockId: DEFAULT_LABEL_STOCK_ID });
+  return preparationSettingsSchema.parse({
+    expiryRules: defaultRules(values),
+    tolerances: DEFAULT_TOLERANCES,
+    labelStocks: DEFAULT_LABEL_STOCKS,
+    defaultLabelStockId: DEFAULT_LABEL_STOCK_ID,
+  });
 }
 
-export async function savePreparationSettings(settings: PreparationSettings, actor: SignedInUser, ip: string | null = null): Promise<PreparationSettings> {
+export async function savePreparationSettings(
+  settings: PreparationSettings,
+  actor: SignedInUser,
+  ip: string | null = null,
+): Promise<PreparationSettings> {
   const before = await getPreparationSettings();
   await inTransaction(getSequelize(), async (transaction) => {
     for (const [field, key] of Object.entries(KEYS) as [keyof typeof KEYS, string][]) {
@@ -55,7 +67,10 @@ export async function savePreparationSettings(settings: PreparationSettings, act
         { replacements: [key, JSON.stringify(settings[field]), actor.id], transaction },
       );
     }
-    await recordAudit({ actorId: actor.id, action: "update", entity: "preparation-settings", entityId: null, ip, before, after: settings }, transaction);
+    await recordAudit(
+      { actorId: actor.id, action: "update", entity: "preparation-settings", entityId: null, ip, before, after: settings },
+      transaction,
+    );
   });
   return getPreparationSettings();
 }

@@ -66,12 +66,35 @@ function parseSpec(raw: unknown): RecipeSpec {
 }
 
 interface SummaryRow {
-  id: number; code: string; name: string; channel: string | null; status: string; latest: number; approved: number | null; updated_at: Date; author: string | null; spec: unknown;
+  id: number;
+  code: string;
+  name: string;
+  channel: string | null;
+  status: string;
+  latest: number;
+  approved: number | null;
+  updated_at: Date;
+  author: string | null;
+  spec: unknown;
 }
 
-const SORT_COLUMNS: Record<string, string> = { code: "r.code", name: "r.name", channel: "r.channel", version: "latest", updated: "r.updated_at" };
+const SORT_COLUMNS: Record<string, string> = {
+  code: "r.code",
+  name: "r.name",
+  channel: "r.channel",
+  version: "latest",
+  updated: "r.updated_at",
+};
 
-export async function listRecipes(query: { q?: string | undefined; status?: RecipeState | undefined; channel?: string | undefined; sort?: string; dir?: "asc" | "desc" } = {}): Promise<RecipeSummary[]> {
+export async function listRecipes(
+  query: {
+    q?: string | undefined;
+    status?: RecipeState | undefined;
+    channel?: string | undefined;
+    sort?: string;
+    dir?: "asc" | "desc";
+  } = {},
+): Promise<RecipeSummary[]> {
   const sort = SORT_COLUMNS[query.sort ?? "code"] ?? "r.code";
   const dir = query.dir === "desc" ? "DESC" : "ASC";
   const rows = await getSequelize().query<SummaryRow>(
@@ -86,7 +109,8 @@ export async function listRecipes(query: { q?: string | undefined; status?: Reci
     { type: QueryTypes.SELECT, replacements: { q: query.q || null, like: `%${query.q ?? ""}%`, channel: query.channel ?? null } },
   );
   const out = rows.map((r): RecipeSummary => {
-    const state: RecipeState = r.status === "retired" ? "retired" : r.approved !== null && Number(r.approved) === Number(r.latest) ? "approved" : "pending";
+    const state: RecipeState =
+      r.status === "retired" ? "retired" : r.approved !== null && Number(r.approved) === Number(r.latest) ? "approved" : "pending";
     let description = "";
     try {
       description = describeSpec(parseSpec(r.spec));
@@ -94,8 +118,16 @@ export async function listRecipes(query: { q?: string | undefined; status?: Reci
       description = "(specification no longer valid)";
     }
     return {
-      id: r.id, code: r.code, name: r.name, channel: r.channel, state, latestVersion: Number(r.latest), approvedVersion: r.approved === null ? null : Number(r.approved),
-      description, updatedAt: new Date(r.updated_at).toISOString(), author: r.author,
+      id: r.id,
+      code: r.code,
+      name: r.name,
+      channel: r.channel,
+      state,
+      latestVersion: Number(r.latest),
+      approvedVersion: r.approved === null ? null : Number(r.approved),
+      description,
+      updatedAt: new Date(r.updated_at).toISOString(),
+      author: r.author,
     };
   });
   return query.status ? out.filter((r) => r.state === query.status) : out;
@@ -105,8 +137,18 @@ export async function getRecipe(id: number): Promise<RecipeDetail> {
   const [summary] = (await listRecipes()).filter((r) => r.id === id);
   if (!summary) throw new HttpError(404, `No recipe with id ${id}.`);
   const rows = await getSequelize().query<{
-    id: number; version: number; spec: unknown; detection_nm: number | null; storage: string | null; notes: string | null; created_at: Date;
-    created_by: number | null; author: string | null; approved_at: Date | null; approver: string | null; batches: number;
+    id: number;
+    version: number;
+    spec: unknown;
+    detection_nm: number | null;
+    storage: string | null;
+    notes: string | null;
+    created_at: Date;
+    created_by: number | null;
+    author: string | null;
+    approved_at: Date | null;
+    approver: string | null;
+    batches: number;
   }>(
     `SELECT v.id, v.version, v.spec, v.detection_nm, v.storage, v.notes, v.created_at, v.created_by, a.name AS author, v.approved_at, p.name AS approver,
             (SELECT COUNT(*) FROM batches b WHERE b.recipe_version_id = v.id) AS batches
@@ -117,20 +159,43 @@ export async function getRecipe(id: number): Promise<RecipeDetail> {
   return {
     ...summary,
     versions: rows.map((v) => ({
-      id: v.id, version: v.version, spec: parseSpec(v.spec), detection_nm: v.detection_nm, storage: v.storage, notes: v.notes,
-      createdAt: new Date(v.created_at).toISOString(), createdBy: v.author, createdById: v.created_by,
-      approvedAt: v.approved_at ? new Date(v.approved_at).toISOString() : null, approvedBy: v.approver, batches: Number(v.batches),
+      id: v.id,
+      version: v.version,
+      spec: parseSpec(v.spec),
+      detection_nm: v.detection_nm,
+      storage: v.storage,
+      notes: v.notes,
+      createdAt: new Date(v.created_at).toISOString(),
+      createdBy: v.author,
+      createdById: v.created_by,
+      approvedAt: v.approved_at ? new Date(v.approved_at).toISOString() : null,
+      approvedBy: v.approver,
+      batches: Number(v.batches),
     })),
   };
 }
 
 function codeFrom(name: string): string {
-  const letters = name.toUpperCase().replace(/[^A-Z0-9 ]+/g, " ").trim().split(/\s+/).filter(Boolean).map((w) => (/^\d/.test(w) ? w : w.slice(0, 3))).join("-");
+  const letters = name
+    .toUpperCase()
+    .replace(/[^A-Z0-9 ]+/g, " ")
+    .trim()
+    .split(/\s+/)
+    .filter(Boolean)
+    .map((w) => (/^\d/.test(w) ? w : w.slice(0, 3)))
+    .join("-");
   return `MP-${letters}`.slice(0, 28).replace(/-+$/, "");
 }
 
 async function uniqueCode(base: string): Promise<string> {
-  const taken = new Set((await getSequelize().query<{ code: string }>("SELECT code FROM recipes WHERE code LIKE ?", { type: QueryTypes.SELECT, replacements: [`${base}%`] })).map((r) => r.code));
+  const taken = new Set(
+    (
+      await getSequelize().query<{ code: string }>("SELECT code FROM recipes WHERE code LIKE ?", {
+        type: QueryTypes.SELECT,
+        replacements: [`${base}%`],
+      })
+    ).map((r) => r.code),
+  );
   if (!taken.has(base)) return base;
   for (let n = 2; ; n++) if (!taken.has(`${base}-${n}`)) return `${base}-${n}`;
 }
@@ -141,15 +206,25 @@ export async function createRecipe(input: RecipeInput, actor: SignedInUser, ip: 
   let id = 0;
   try {
     await inTransaction(sequelize, async (transaction) => {
-      await sequelize.query("INSERT INTO recipes (code, name, channel, status, created_by, created_at, updated_at) VALUES (?, ?, ?, 'draft', ?, NOW(3), NOW(3))", {
-        replacements: [code, input.name, input.channel ?? null, actor.id], transaction,
-      });
+      await sequelize.query(
+        "INSERT INTO recipes (code, name, channel, status, created_by, created_at, updated_at) VALUES (?, ?, ?, 'draft', ?, NOW(3), NOW(3))",
+        {
+          replacements: [code, input.name, input.channel ?? null, actor.id],
+          transaction,
+        },
+      );
       id = await lastInsertId(transaction);
       await sequelize.query(
         "INSERT INTO recipe_versions (recipe_id, version, spec, detection_nm, storage, notes, created_by, created_at) VALUES (?, 1, ?, ?, ?, ?, ?, NOW(3))",
-        { replacements: [id, JSON.stringify(input.spec), input.detection_nm ?? null, input.storage ?? null, input.notes ?? null, actor.id], transaction },
+        {
+          replacements: [id, JSON.stringify(input.spec), input.detection_nm ?? null, input.storage ?? null, input.notes ?? null, actor.id],
+          transaction,
+        },
       );
-      await recordAudit({ actorId: actor.id, action: "create", entity: "recipe", entityId: id, ip, after: { code, ...input } }, transaction);
+      await recordAudit(
+        { actorId: actor.id, action: "create", entity: "recipe", entityId: id, ip, after: { code, ...input } },
+        transaction,
+      );
     });
   } catch (error) {
     if (error instanceof UniqueConstraintError) throw new HttpError(409, `code: a recipe with the code ${code} exists already`);
@@ -159,25 +234,56 @@ export async function createRecipe(input: RecipeInput, actor: SignedInUser, ip: 
 }
 
 /** Edits the pending version in place, or adds the next version when the latest is approved or used. */
-export async function updateRecipe(id: number, input: RecipeInput, actor: SignedInUser, ip: string | null = null): Promise<{ recipe: RecipeDetail; newVersion: boolean }> {
+export async function updateRecipe(
+  id: number,
+  input: RecipeInput,
+  actor: SignedInUser,
+  ip: string | null = null,
+): Promise<{ recipe: RecipeDetail; newVersion: boolean }> {
   const before = await getRecipe(id);
   if (before.state === "retired") throw new HttpError(409, "This recipe is retired; it can no longer be changed.");
   const latest = before.versions[0]!;
   const frozen = latest.approvedAt !== null || latest.batches > 0;
   const sequelize = getSequelize();
   await inTransaction(sequelize, async (transaction) => {
-    await sequelize.query("UPDATE recipes SET name = ?, channel = ?, updated_at = NOW(3) WHERE id = ?", { replacements: [input.name, input.channel ?? null, id], transaction });
+    await sequelize.query("UPDATE recipes SET name = ?, channel = ?, updated_at = NOW(3) WHERE id = ?", {
+      replacements: [input.name, input.channel ?? null, id],
+      transaction,
+    });
     if (frozen) {
       await sequelize.query(
         "INSERT INTO recipe_versions (recipe_id, version, spec, detection_nm, storage, notes, created_by, created_at) VALUES (?, ?, ?, ?, ?, ?, ?, NOW(3))",
-        { replacements: [id, latest.version + 1, JSON.stringify(input.spec), input.detection_nm ?? null, input.storage ?? null, input.notes ?? null, actor.id], transaction },
+        {
+          replacements: [
+            id,
+            latest.version + 1,
+            JSON.stringify(input.spec),
+            input.detection_nm ?? null,
+            input.storage ?? null,
+            input.notes ?? null,
+            actor.id,
+          ],
+          transaction,
+        },
       );
     } else {
       await sequelize.query("UPDATE recipe_versions SET spec = ?, detection_nm = ?, storage = ?, notes = ? WHERE id = ?", {
-        replacements: [JSON.stringify(input.spec), input.detection_nm ?? null, input.storage ?? null, input.notes ?? null, latest.id], transaction,
+        replacements: [JSON.stringify(input.spec), input.detection_nm ?? null, input.storage ?? null, input.notes ?? null, latest.id],
+        transaction,
       });
     }
-    await recordAudit({ actorId: actor.id, action: frozen ? "new-version" : "update", entity: "recipe", entityId: id, ip, before: { version: latest.version, spec: latest.spec }, after: { version: frozen ? latest.version + 1 : latest.version, ...input } }, transaction);
+    await recordAudit(
+      {
+        actorId: actor.id,
+        action: frozen ? "new-version" : "update",
+        entity: "recipe",
+        entityId: id,
+        ip,
+        before: { version: latest.version, spec: latest.spec },
+        after: { version: frozen ? latest.version + 1 : latest.version, ...input },
+      },
+      transaction,
+    );
   });
   return { recipe: await getRecipe(id), newVersion: frozen };
 }
@@ -186,12 +292,16 @@ export async function updateRecipe(id: number, input: RecipeInput, actor: Signed
 export async function approveRecipe(id: number, version: number, actor: SignedInUser, ip: string | null = null): Promise<RecipeDetail> {
   const recipe = await getRecipe(id);
   const latest = recipe.versions[0]!;
-  if (latest.version !== version) throw new HttpError(409, `version: version ${version} is not the latest (v${latest.version}); reload and review the latest.`);
+  if (latest.version !== version)
+    throw new HttpError(409, `version: version ${version} is not the latest (v${latest.version}); reload and review the latest.`);
   if (latest.approvedAt) throw new HttpError(409, `Version ${version} is approved already.`);
   if (latest.createdById === actor.id) throw new HttpError(403, "A recipe version is approved by someone other than its author.");
   const sequelize = getSequelize();
   await inTransaction(sequelize, async (transaction) => {
-    await sequelize.query("UPDATE recipe_versions SET approved_by = ?, approved_at = NOW(3) WHERE id = ? AND approved_at IS NULL", { replacements: [actor.id, latest.id], transaction });
+    await sequelize.query("UPDATE recipe_versions SET approved_by = ?, approved_at = NOW(3) WHERE id = ? AND approved_at IS NULL", {
+      replacements: [actor.id, latest.id],
+      transaction,
+    });
     await sequelize.query("UPDATE recipes SET status = 'approved', updated_at = NOW(3) WHERE id = ?", { replacements: [id], transaction });
     await recordAudit({ actorId: actor.id, action: "approve", entity: "recipe", entityId: id, ip, after: { version } }, transaction);
   });
@@ -199,7 +309,17 @@ export async function approveRecipe(id: number, version: number, actor: SignedIn
 }
 
 export async function preparableRecipes(): Promise<PreparableRecipe[]> {
-  const rows = await getSequelize().query<{ recipe_id: number; id: number; version: number; code: string; name: string; channel: string | null; detection_nm: number | null; storage: string | null; spec: unknown }>(
+  const rows = await getSequelize().query<{
+    recipe_id: number;
+    id: number;
+    version: number;
+    code: string;
+    name: string;
+    channel: string | null;
+    detection_nm: number | null;
+    storage: string | null;
+    spec: unknown;
+  }>(
     `SELECT v.recipe_id, v.id, v.version, r.code, r.name, r.channel, v.detection_nm, v.storage, v.spec
        FROM recipe_versions v JOIN recipes r ON r.id = v.recipe_id
       WHERE r.status <> 'retired' AND v.approved_at IS NOT NULL
@@ -210,7 +330,17 @@ export async function preparableRecipes(): Promise<PreparableRecipe[]> {
   const out: PreparableRecipe[] = [];
   for (const r of rows) {
     try {
-      out.push({ recipeId: r.recipe_id, versionId: r.id, version: r.version, code: r.code, name: r.name, channel: r.channel, detection_nm: r.detection_nm, storage: r.storage, spec: parseSpec(r.spec) });
+      out.push({
+        recipeId: r.recipe_id,
+        versionId: r.id,
+        version: r.version,
+        code: r.code,
+        name: r.name,
+        channel: r.channel,
+        detection_nm: r.detection_nm,
+        storage: r.storage,
+        spec: parseSpec(r.spec),
+      });
     } catch {
       // A version whose stored specification no longer parses is not offered for preparation.
     }
@@ -219,13 +349,37 @@ export async function preparableRecipes(): Promise<PreparableRecipe[]> {
 }
 
 export async function getRecipeVersion(versionId: number): Promise<PreparableRecipe & { approved: boolean; retired: boolean }> {
-  const [r] = await getSequelize().query<{ recipe_id: number; id: number; version: number; code: string; name: string; channel: string | null; detection_nm: number | null; storage: string | null; spec: unknown; approved_at: Date | null; status: string }>(
+  const [r] = await getSequelize().query<{
+    recipe_id: number;
+    id: number;
+    version: number;
+    code: string;
+    name: string;
+    channel: string | null;
+    detection_nm: number | null;
+    storage: string | null;
+    spec: unknown;
+    approved_at: Date | null;
+    status: string;
+  }>(
     `SELECT v.recipe_id, v.id, v.version, r.code, r.name, r.channel, v.detection_nm, v.storage, v.spec, v.approved_at, r.status
        FROM recipe_versions v JOIN recipes r ON r.id = v.recipe_id WHERE v.id = ?`,
     { type: QueryTypes.SELECT, replacements: [versionId] },
   );
   if (!r) throw new HttpError(400, `recipeVersionId: no recipe version ${versionId}`);
-  return { recipeId: r.recipe_id, versionId: r.id, version: r.version, code: r.code, name: r.name, channel: r.channel, detection_nm: r.detection_nm, storage: r.storage, spec: parseSpec(r.spec), approved: r.approved_at !== null, retired: r.status === "retired" };
+  return {
+    recipeId: r.recipe_id,
+    versionId: r.id,
+    version: r.version,
+    code: r.code,
+    name: r.name,
+    channel: r.channel,
+    detection_nm: r.detection_nm,
+    storage: r.storage,
+    spec: parseSpec(r.spec),
+    approved: r.approved_at !== null,
+    retired: r.status === "retired",
+  };
 }
 
 export { describeSpec };

@@ -28,7 +28,10 @@ export async function inTransaction<T>(sequelize: Sequelize, work: (transaction:
 
 /** The id of the row just inserted on this transaction's connection. */
 export async function lastInsertId(transaction: Transaction): Promise<number> {
-  const [row] = await getSequelize().query<{ id: number | bigint }>("SELECT LAST_INSERT_ID() AS id", { type: QueryTypes.SELECT, transaction });
+  const [row] = await getSequelize().query<{ id: number | bigint }>("SELECT LAST_INSERT_ID() AS id", {
+    type: QueryTypes.SELECT,
+    transaction,
+  });
   return Number(row!.id);
 }
 
@@ -57,10 +60,14 @@ const utcDateTime = (d: Date) => d.toISOString().slice(0, 23).replace("T", " ");
 async function driverQuery(transaction: Transaction, sql: string, values: readonly unknown[]): Promise<void> {
   const connection = (transaction as unknown as { connection: DriverConnection }).connection;
   try {
-    await connection.query(sql, values.map((v) => (v instanceof Date ? utcDateTime(v) : v)));
+    await connection.query(
+      sql,
+      values.map((v) => (v instanceof Date ? utcDateTime(v) : v)),
+    );
   } catch (error) {
     const driverError = error as Error & { code?: string; sql?: string };
-    if (driverError.code === "ER_DUP_ENTRY") throw new UniqueConstraintError({ message: driverError.message, parent: { ...driverError, sql: driverError.sql ?? sql } });
+    if (driverError.code === "ER_DUP_ENTRY")
+      throw new UniqueConstraintError({ message: driverError.message, parent: { ...driverError, sql: driverError.sql ?? sql } });
     throw error;
   }
 }

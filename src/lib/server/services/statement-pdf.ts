@@ -41,7 +41,8 @@ export async function renderStatementPdf(input: StatementPdfInput): Promise<Uint
   let page!: PDFPage;
   let y = 0;
 
-  const text = (s: string, x: number, yy: number, size: number, font: PDFFont = regular, color = INK) => page.drawText(clean(s), { x, y: yy, size, font, color });
+  const text = (s: string, x: number, yy: number, size: number, font: PDFFont = regular, color = INK) =>
+    page.drawText(clean(s), { x, y: yy, size, font, color });
   const right = (s: string, xRight: number, yy: number, size: number, font: PDFFont = regular, color = INK) => {
     const t = clean(s);
     page.drawText(t, { x: xRight - font.widthOfTextAtSize(t, size), y: yy, size, font, color });
@@ -83,13 +84,23 @@ export async function renderStatementPdf(input: StatementPdfInput): Promise<Uint
       text(detail, MARGIN, y - 29, 9.5);
       y -= 50;
       if (input.status !== "issued") {
-        const note = input.status === "draft" ? "DRAFT for review: figures follow the ledger until the statement is issued." : "VOID: this statement was cancelled.";
+        const note =
+          input.status === "draft"
+            ? "DRAFT for review: figures follow the ledger until the statement is issued."
+            : "VOID: this statement was cancelled.";
         page.drawRectangle({ x: MARGIN, y: y - 6, width: A4.width - 2 * MARGIN, height: 20, color: rgb(0.98, 0.94, 0.85) });
         text(note, MARGIN + 8, y, 9.5, bold, AMBER);
         y -= 30;
       }
     } else {
-      text(`${input.reference} · ${input.clientName} · ${input.periodStart} to ${input.periodEnd} (continued)`, MARGIN, y - 8, 9, regular, MUTED);
+      text(
+        `${input.reference} · ${input.clientName} · ${input.periodStart} to ${input.periodEnd} (continued)`,
+        MARGIN,
+        y - 8,
+        9,
+        regular,
+        MUTED,
+      );
       y -= 30;
     }
     tableHeader();
@@ -133,17 +144,31 @@ export async function renderStatementPdf(input: StatementPdfInput): Promise<Uint
     ensure(50);
     const due = input.invoice.dueOn ? `, due ${input.invoice.dueOn}` : "";
     text(`Invoice ${input.invoice.number ?? ""}${due} · ${input.invoice.status}`, MARGIN, y, 10, bold, TEAL);
-    if (input.invoice.hostedUrl && input.invoice.status === "open") text(fit(`Pay online: ${input.invoice.hostedUrl}`, A4.width - 2 * MARGIN, 9), MARGIN, y - 14, 9);
+    if (input.invoice.hostedUrl && input.invoice.status === "open")
+      text(fit(`Pay online: ${input.invoice.hostedUrl}`, A4.width - 2 * MARGIN, 9), MARGIN, y - 14, 9);
     y -= 34;
   } else if (input.clientKind === "internal" && input.status === "issued") {
     ensure(30);
-    text(`Charged back to cost centre ${input.costCentre ?? "not set"} through the finance office's journal.`, MARGIN, y, 9.5, regular, MUTED);
+    text(
+      `Charged back to cost centre ${input.costCentre ?? "not set"} through the finance office's journal.`,
+      MARGIN,
+      y,
+      9.5,
+      regular,
+      MUTED,
+    );
   }
 
   pages.forEach((p, index) => {
     const label = clean(`${input.reference} · page ${index + 1} of ${pages.length}`);
     p.drawText(label, { x: A4.width - MARGIN - regular.widthOfTextAtSize(label, 8), y: MARGIN - 20, size: 8, font: regular, color: MUTED });
-    p.drawText(clean("Volumes from the facility's solvent ledger, costed at the rates in force on each day."), { x: MARGIN, y: MARGIN - 20, size: 8, font: regular, color: MUTED });
+    p.drawText(clean("Volumes from the facility's solvent ledger, costed at the rates in force on each day."), {
+      x: MARGIN,
+      y: MARGIN - 20,
+      size: 8,
+      font: regular,
+      color: MUTED,
+    });
   });
   return doc.save();
 }

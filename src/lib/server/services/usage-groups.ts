@@ -119,14 +119,23 @@ function add(totals: Map<string, bigint>, key: string, value: string | null) {
   if (value === null) return;
   totals.set(key, (totals.get(key) ?? 0n) + toMicro(value));
 }
-const toRecord = (totals: Map<string, bigint>, digits: number) => Object.fromEntries([...totals].map(([k, v]) => [k, round(Number(v) / 1e6, digits)]));
+const toRecord = (totals: Map<string, bigint>, digits: number) =>
+  Object.fromEntries([...totals].map(([k, v]) => [k, round(Number(v) / 1e6, digits)]));
 
 /** `GET /api/usage?groupBy=client|instrument|reagent|month`; `clientId` limits it to one organisation's projects. */
-export async function usageGrouped(query: UsageQuery & { groupBy: GroupedBy }, scope: { clientId: number | null }): Promise<GroupedUsageAnswer> {
+export async function usageGrouped(
+  query: UsageQuery & { groupBy: GroupedBy },
+  scope: { clientId: number | null },
+): Promise<GroupedUsageAnswer> {
   const sequelize = getSequelize();
   const groupBy = query.groupBy;
   const [start, end] = periodBounds(query.from, query.to);
-  const runKey: Record<GroupedBy, string | null> = { client: "p.client_id", instrument: "r.instrument_id", month: "DATE_FORMAT(r.started_at, '%Y-%m')", reagent: null };
+  const runKey: Record<GroupedBy, string | null> = {
+    client: "p.client_id",
+    instrument: "r.instrument_id",
+    month: "DATE_FORMAT(r.started_at, '%Y-%m')",
+    reagent: null,
+  };
   const runSql = runKey[groupBy];
   const rates = await loadRates();
   const [rows, projects, runs] = await Promise.all([
@@ -147,12 +156,26 @@ export async function usageGrouped(query: UsageQuery & { groupBy: GroupedBy }, s
   ]);
   const projectById = new Map(projects.map((p) => [p.id, p]));
   const mobilePhases: Record<string, string> = {};
-  const groups = new Map<string, { label: string; volumes: Map<string, bigint>; masses: Map<string, bigint>; phases: Map<string, bigint>; lines: Map<number, CostLine[]> }>();
+  const groups = new Map<
+    string,
+    {
+      label: string;
+      volumes: Map<string, bigint>;
+      masses: Map<string, bigint>;
+      phases: Map<string, bigint>;
+      lines: Map<number, CostLine[]>;
+    }
+  >();
   for (const s of rows) {
     const key = s.group_key === null ? NONE : String(s.group_key);
     let g = groups.get(key);
     if (!g) {
-      const label = s.group_key === null ? (groupBy === "instrument" ? "Not on an instrument (draws, preparation, discards)" : "—") : (s.group_label ?? key);
+      const label =
+        s.group_key === null
+          ? groupBy === "instrument"
+            ? "Not on an instrument (draws, preparation, discards)"
+            : "—"
+          : (s.group_label ?? key);
       g = { label, volumes: new Map(), masses: new Map(), phases: new Map(), lines: new Map() };
       groups.set(key, g);
     }
@@ -196,7 +219,10 @@ export async function usageGrouped(query: UsageQuery & { groupBy: GroupedBy }, s
 }
 
 /** Each project's mobile-phase volumes for the period (project code → recipe code → mL), for the project grouping. */
-export async function mobilePhasesByProject(query: UsageQuery, scope: { clientId: number | null }): Promise<{ byProject: Map<string, Record<string, number>>; mobilePhases: Record<string, string> }> {
+export async function mobilePhasesByProject(
+  query: UsageQuery,
+  scope: { clientId: number | null },
+): Promise<{ byProject: Map<string, Record<string, number>>; mobilePhases: Record<string, string> }> {
   const rows = await sums("project", query, scope.clientId, []);
   const totals = new Map<string, Map<string, bigint>>();
   const mobilePhases: Record<string, string> = {};

@@ -42,12 +42,28 @@ export function periodBounds(from: string, to: string): [Date, Date] {
 
 /** All rates (a small table), in the pure module's shape. */
 export async function loadRates(): Promise<Rate[]> {
-  const rows = await getSequelize().query<{ id: number; kind: Rate["kind"]; reagent_id: string | null; grade: string | null; price_list: PriceList; unit: Rate["unit"]; amount_minor: number; currency: string; effective_from: string | Date }>(
-    "SELECT id, kind, reagent_id, grade, price_list, unit, amount_minor, currency, effective_from FROM rates",
-    { type: QueryTypes.SELECT },
-  );
+  const rows = await getSequelize().query<{
+    id: number;
+    kind: Rate["kind"];
+    reagent_id: string | null;
+    grade: string | null;
+    price_list: PriceList;
+    unit: Rate["unit"];
+    amount_minor: number;
+    currency: string;
+    effective_from: string | Date;
+  }>("SELECT id, kind, reagent_id, grade, price_list, unit, amount_minor, currency, effective_from FROM rates", {
+    type: QueryTypes.SELECT,
+  });
   return rows.map((r) => ({
-    id: r.id, kind: r.kind, reagentId: r.reagent_id, grade: r.grade, priceList: r.price_list, unit: r.unit, amount_minor: r.amount_minor, currency: r.currency,
+    id: r.id,
+    kind: r.kind,
+    reagentId: r.reagent_id,
+    grade: r.grade,
+    priceList: r.price_list,
+    unit: r.unit,
+    amount_minor: r.amount_minor,
+    currency: r.currency,
     effectiveFrom: typeof r.effective_from === "string" ? r.effective_from.slice(0, 10) : r.effective_from.toISOString().slice(0, 10),
   }));
 }
@@ -121,7 +137,17 @@ export async function usageByProject(query: UsageQuery, scope: { clientId: numbe
     let row = rows.get(projectId);
     const project = projectById.get(projectId);
     if (!row && project) {
-      row = { projectCode: project.code, projectName: project.name, clientName: project.client_name, volumes_mL: {}, masses_g: {}, runs: 0, injections: 0, cost: { amount: 0, currency: project.currency }, uncosted: [] };
+      row = {
+        projectCode: project.code,
+        projectName: project.name,
+        clientName: project.client_name,
+        volumes_mL: {},
+        masses_g: {},
+        runs: 0,
+        injections: 0,
+        cost: { amount: 0, currency: project.currency },
+        uncosted: [],
+      };
       rows.set(projectId, row);
     }
     return row;
@@ -136,7 +162,12 @@ export async function usageByProject(query: UsageQuery, scope: { clientId: numbe
     if (d.mass !== null) total.mass = (total.mass ?? 0n) + toMicro(d.mass);
     totals.set(key, total);
     const lines = linesByProject.get(d.project_id) ?? [];
-    lines.push({ reagentId: d.reagent_id, volume_mL: d.volume, mass_g: d.mass, at: typeof d.at === "string" ? d.at.slice(0, 10) : d.at.toISOString().slice(0, 10) });
+    lines.push({
+      reagentId: d.reagent_id,
+      volume_mL: d.volume,
+      mass_g: d.mass,
+      at: typeof d.at === "string" ? d.at.slice(0, 10) : d.at.toISOString().slice(0, 10),
+    });
     linesByProject.set(d.project_id, lines);
   }
   for (const t of totals.values()) {
@@ -159,5 +190,10 @@ export async function usageByProject(query: UsageQuery, scope: { clientId: numbe
     row.cost = { amount: cost.amount_minor, currency: cost.currency };
     row.uncosted = cost.uncosted;
   }
-  return { from: query.from, to: query.to, groupBy: "project", rows: [...rows.values()].sort((a, b) => a.projectCode.localeCompare(b.projectCode)) };
+  return {
+    from: query.from,
+    to: query.to,
+    groupBy: "project",
+    rows: [...rows.values()].sort((a, b) => a.projectCode.localeCompare(b.projectCode)),
+  };
 }

@@ -70,15 +70,21 @@ export async function listUsers(): Promise<UserRow[]> {
 }
 
 async function requireClient(clientId: number | null | undefined): Promise<number> {
-  if (clientId == null) throw new HttpError(400, "clientId: A client contact needs a client organisation", { fields: { clientId: "A client contact needs a client organisation" } });
-  if (!(await Client.findByPk(clientId))) throw new HttpError(400, "clientId: No such client organisation", { fields: { clientId: "No such client organisation" } });
+  if (clientId == null)
+    throw new HttpError(400, "clientId: A client contact needs a client organisation", {
+      fields: { clientId: "A client contact needs a client organisation" },
+    });
+  if (!(await Client.findByPk(clientId)))
+    throw new HttpError(400, "clientId: No such client organisation", { fields: { clientId: "No such client organisation" } });
   return clientId;
 }
 
 /** Only an administrator may hand out the administrator role or change an administrator's account. */
 function assertMayTouchAdmin(actorRole: Role, ...roles: (Role | undefined)[]) {
   if (actorRole !== "admin" && roles.includes("admin")) {
-    throw new HttpError(403, "Only an administrator may grant the administrator role or change an administrator's account.", { missingPermission: "manage:settings" });
+    throw new HttpError(403, "Only an administrator may grant the administrator role or change an administrator's account.", {
+      missingPermission: "manage:settings",
+    });
   }
 }
 
@@ -105,18 +111,41 @@ export async function inviteUser(input: InviteUserInput, ctx: ActorContext): Pro
   let created: { user: User; token: string };
   try {
     created = await inTransaction(sequelize, async (transaction) => {
-      const user = await User.create({ email: input.email, name: input.name, role: input.role, clientId, passwordHash: null, lastSignInAt: null }, { transaction });
+      const user = await User.create(
+        { email: input.email, name: input.name, role: input.role, clientId, passwordHash: null, lastSignInAt: null },
+        { transaction },
+      );
       const { token } = await issueToken(user.id, "invitation", ctx.actor.id, { transaction });
-      await recordAudit({ actorId: ctx.actor.id, action: "user-invited", entity: "user", entityId: user.id, ip: ctx.ip, after: { email: user.email, name: user.name, role: user.role, clientId } }, transaction);
+      await recordAudit(
+        {
+          actorId: ctx.actor.id,
+          action: "user-invited",
+          entity: "user",
+          entityId: user.id,
+          ip: ctx.ip,
+          after: { email: user.email, name: user.name, role: user.role, clientId },
+        },
+        transaction,
+      );
       return { user, token };
     });
   } catch (error) {
     if (error instanceof UniqueConstraintError) {
-      throw new HttpError(409, "email: There is already an account with this e-mail address", { fields: { email: "There is already an account with this e-mail address" } });
+      throw new HttpError(409, "email: There is already an account with this e-mail address", {
+        fields: { email: "There is already an account with this e-mail address" },
+      });
     }
     throw error;
   }
-  const mailSent = await deliver(invitationMail({ to: created.user.email, name: created.user.name, role: created.user.role, invitedBy: ctx.actor.name, link: linkFor(ctx.origin, created.token) }));
+  const mailSent = await deliver(
+    invitationMail({
+      to: created.user.email,
+      name: created.user.name,
+      role: created.user.role,
+      invitedBy: ctx.actor.name,
+      link: linkFor(ctx.origin, created.token),
+    }),
+  );
   return { user: toRow(created.user, await clientNames()), mailSent };
 }
 
@@ -142,10 +171,32 @@ export async function updateUser(id: number, input: UpdateUserInput, ctx: ActorC
   await inTransaction(User.sequelize!, async (transaction) => {
     await user.update({ role, clientId, active }, { transaction });
     if (before.role !== role || before.clientId !== clientId) {
-      await recordAudit({ actorId: ctx.actor.id, action: "user-role-changed", entity: "user", entityId: user.id, ip: ctx.ip, before: { role: before.role, clientId: before.clientId }, after: { role, clientId } }, transaction);
+      await recordAudit(
+        {
+          actorId: ctx.actor.id,
+          action: "user-role-changed",
+          entity: "user",
+          entityId: user.id,
+          ip: ctx.ip,
+          before: { role: before.role, clientId: before.clientId },
+          after: { role, clientId },
+        },
+        transaction,
+      );
     }
     if (before.active !== active) {
-      await recordAudit({ actorId: ctx.actor.id, action: active ? "user-reactivated" : "user-deactivated", entity: "user", entityId: user.id, ip: ctx.ip, before: { active: before.active }, after: { active } }, transaction);
+      await recordAudit(
+        {
+          actorId: ctx.actor.id,
+          action: active ? "user-reactivated" : "user-deactivated",
+          entity: "user",
+          entityId: user.id,
+          ip: ctx.ip,
+          before: { active: before.active },
+          after: { active },
+        },
+        transaction,
+      );
     }
   });
   // A changed role or a deactivation takes effect now, not when the session would have expired.
@@ -154,14 +205,27 @@ export async function updateUser(id: number, input: UpdateUserInput, ctx: ActorC
 }
 
 /** Sends a fresh link: an invitation while no password is chosen, a reset link after. */
-export async function resendLink(id: number, ctx: ActorContext): Promise<{ user: UserRow; mailSent: boolean; purpose: "invitation" | "reset" }> {
+export async function resendLink(
+  id: number,
+  ctx: ActorContext,
+): Promise<{ user: UserRow; mailSent: boolean; purpose: "invitation" | "reset" }> {
   const user = await findUser(id);
   assertMayTouchAdmin(ctx.actor.role, user.role);
   if (!user.active) throw new HttpError(409, "This account is deactivated; reactivate it first.");
   const purpose = user.passwordHash === null ? "invitation" : "reset";
   const { token } = await issueToken(user.id, purpose, ctx.actor.id);
-  await recordAudit({ actorId: ctx.actor.id, action: purpose === "invitation" ? "user-invited" : "password-reset-sent", entity: "user", entityId: user.id, ip: ctx.ip, after: { email: user.email, resent: true } });
+  await recordAudit({
+    actorId: ctx.actor.id,
+    action: purpose === "invitation" ? "user-invited" : "password-reset-sent",
+    entity: "user",
+    entityId: user.id,
+    ip: ctx.ip,
+    after: { email: user.email, resent: true },
+  });
   const link = linkFor(ctx.origin, token);
-  const mail = purpose === "invitation" ? invitationMail({ to: user.email, name: user.name, role: user.role, invitedBy: ctx.actor.name, link }) : resetMail({ to: user.email, name: user.name, link });
+  const mail =
+    purpose === "invitation"
+      ? invitationMail({ to: user.email, name: user.name, role: user.role, invitedBy: ctx.actor.name, link })
+      : resetMail({ to: user.email, name: user.name, link });
   return { user: toRow(user, await clientNames()), mailSent: await deliver(mail), purpose };
 }

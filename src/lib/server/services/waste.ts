@@ -6,10 +6,34 @@
 // column waste_containers.estimated_volume_ml is only a cache of that figure (kept for readers
 // that want a plain column, and frozen when a container is collected).
 import { QueryTypes, type Transaction } from "sequelize";
-import { accumulationState, containerAlerts, EXAMPLE_LIMITS, fillState, type AccumulationInfo, type AlertKind, type FillInfo, type WasteLimits } from "../../waste/alerts";
+import {
+  accumulationState,
+  containerAlerts,
+  EXAMPLE_LIMITS,
+  fillState,
+  type AccumulationInfo,
+  type AlertKind,
+  type FillInfo,
+  type WasteLimits,
+} from "../../waste/alerts";
 import { monthsIn, periodBounds, type Period } from "../../waste/period";
-import { assignWasteStream, DEFAULT_STREAM_BY_ID, streamAccepts, type MixPart, type StreamAssignment, type StreamRule } from "../../waste/streams";
-import type { CollectionInput, ContainerInput, PickupRequest, ReadingInput, StreamInput, StreamUpdate, WasteSettingsInput } from "../../schemas/waste";
+import {
+  assignWasteStream,
+  DEFAULT_STREAM_BY_ID,
+  streamAccepts,
+  type MixPart,
+  type StreamAssignment,
+  type StreamRule,
+} from "../../waste/streams";
+import type {
+  CollectionInput,
+  ContainerInput,
+  PickupRequest,
+  ReadingInput,
+  StreamInput,
+  StreamUpdate,
+  WasteSettingsInput,
+} from "../../schemas/waste";
 import { recordAudit } from "../audit";
 import { getSequelize } from "../db";
 import { getReagent } from "../../chem";
@@ -50,7 +74,12 @@ const SETTING_KEYS = {
   reagentStreams: "waste.reagentStreams",
 } as const;
 
-const asNumber = (v: unknown, fallback: number) => (typeof v === "number" && Number.isFinite(v) ? v : typeof v === "string" && v.trim() !== "" && Number.isFinite(Number(v)) ? Number(v) : fallback);
+const asNumber = (v: unknown, fallback: number) =>
+  typeof v === "number" && Number.isFinite(v)
+    ? v
+    : typeof v === "string" && v.trim() !== "" && Number.isFinite(Number(v))
+      ? Number(v)
+      : fallback;
 const asRecord = <T>(v: unknown, pick: (x: unknown) => T | undefined): Record<string, T> => {
   if (typeof v === "string") {
     try {
@@ -92,7 +121,10 @@ export async function updateWasteSettings(input: WasteSettingsInput, ctx: Contex
       await Setting.upsert({ key, value: input[field], updatedBy: ctx.actor.id }, { transaction });
     }
     const after = await readWasteSettings(transaction);
-    await recordAudit({ actorId: ctx.actor.id, action: "waste.settings.update", entity: "settings", entityId: "waste", ip: ctx.ip ?? null, before, after }, transaction);
+    await recordAudit(
+      { actorId: ctx.actor.id, action: "waste.settings.update", entity: "settings", entityId: "waste", ip: ctx.ip ?? null, before, after },
+      transaction,
+    );
     return after;
   });
 }
@@ -124,7 +156,13 @@ function ruleOf(row: WasteStream): StreamRule & { defaultMinShare: boolean; defa
 
 /** The site's streams with their effective rules, most restrictive first. */
 export async function listStreams(transaction?: Transaction): Promise<StreamView[]> {
-  const rows = await WasteStream.findAll({ order: [["restrictiveness", "DESC"], ["id", "ASC"]], transaction });
+  const rows = await WasteStream.findAll({
+    order: [
+      ["restrictiveness", "DESC"],
+      ["id", "ASC"],
+    ],
+    transaction,
+  });
   const counts = await db().query<{ stream_id: string; n: number }>(
     "SELECT stream_id, COUNT(*) AS n FROM waste_containers WHERE status <> 'collected' GROUP BY stream_id",
     { type: QueryTypes.SELECT, transaction },
@@ -142,7 +180,13 @@ async function streamRules(transaction?: Transaction): Promise<StreamRule[]> {
 }
 
 function streamSnapshot(row: WasteStream) {
-  return { name: row.name, description: row.description, restrictiveness: row.restrictiveness, minShare_percent: row.minSharePercent === null ? null : Number(row.minSharePercent), alsoAccepts: row.alsoAccepts };
+  return {
+    name: row.name,
+    description: row.description,
+    restrictiveness: row.restrictiveness,
+    minShare_percent: row.minSharePercent === null ? null : Number(row.minSharePercent),
+    alsoAccepts: row.alsoAccepts,
+  };
 }
 
 export async function createStream(input: StreamInput, ctx: Context): Promise<StreamView> {
@@ -150,10 +194,27 @@ export async function createStream(input: StreamInput, ctx: Context): Promise<St
     if (await WasteStream.findByPk(input.id, { transaction })) throw new HttpError(409, `id: a stream "${input.id}" exists already`);
     await checkAccepted(input.alsoAccepts, input.id, transaction);
     const row = await WasteStream.create(
-      { id: input.id, name: input.name, description: input.description, restrictiveness: input.restrictiveness, minSharePercent: input.minShare_percent === null ? null : String(input.minShare_percent), alsoAccepts: input.alsoAccepts },
+      {
+        id: input.id,
+        name: input.name,
+        description: input.description,
+        restrictiveness: input.restrictiveness,
+        minSharePercent: input.minShare_percent === null ? null : String(input.minShare_percent),
+        alsoAccepts: input.alsoAccepts,
+      },
       { transaction },
     );
-    await recordAudit({ actorId: ctx.actor.id, action: "waste.stream.create", entity: "waste_stream", entityId: row.id, ip: ctx.ip ?? null, after: streamSnapshot(row) }, transaction);
+    await recordAudit(
+      {
+        actorId: ctx.actor.id,
+        action: "waste.stream.create",
+        entity: "waste_stream",
+        entityId: row.id,
+        ip: ctx.ip ?? null,
+        after: streamSnapshot(row),
+      },
+      transaction,
+    );
   });
   return (await listStreams()).find((s) => s.id === input.id)!;
 }
@@ -172,10 +233,27 @@ export async function updateStream(id: string, input: StreamUpdate, ctx: Context
     await checkAccepted(input.alsoAccepts, id, transaction);
     const before = streamSnapshot(row);
     await row.update(
-      { name: input.name, description: input.description, restrictiveness: input.restrictiveness, minSharePercent: input.minShare_percent === null ? null : String(input.minShare_percent), alsoAccepts: input.alsoAccepts },
+      {
+        name: input.name,
+        description: input.description,
+        restrictiveness: input.restrictiveness,
+        minSharePercent: input.minShare_percent === null ? null : String(input.minShare_percent),
+        alsoAccepts: input.alsoAccepts,
+      },
       { transaction },
     );
-    await recordAudit({ actorId: ctx.actor.id, action: "waste.stream.update", entity: "waste_stream", entityId: id, ip: ctx.ip ?? null, before, after: streamSnapshot(row) }, transaction);
+    await recordAudit(
+      {
+        actorId: ctx.actor.id,
+        action: "waste.stream.update",
+        entity: "waste_stream",
+        entityId: id,
+        ip: ctx.ip ?? null,
+        before,
+        after: streamSnapshot(row),
+      },
+      transaction,
+    );
   });
   return (await listStreams()).find((s) => s.id === id)!;
 }
@@ -280,14 +358,20 @@ function containerView(row: ContainerRow, settings: WasteSettings, now: Date): C
     pickupReference: row.pickup_reference,
     instrument: row.instrument_id ? { id: row.instrument_id, name: row.instrument_name ?? "" } : null,
     lastReading: row.last_read_at ? { at: new Date(row.last_read_at).toISOString(), level_mL: num(row.last_level) } : null,
-    alerts: containerAlerts({ status: row.status, capacity_mL: row.capacity_ml, estimated_mL: estimated, accumulationStartedAt: started }, settings, now),
+    alerts: containerAlerts(
+      { status: row.status, capacity_mL: row.capacity_ml, estimated_mL: estimated, accumulationStartedAt: started },
+      settings,
+      now,
+    ),
   };
 }
 
 const STATUS_ORDER: Record<ContainerStatus, number> = { full: 0, in_use: 1, awaiting_pickup: 2, collected: 3 };
 
 /** Containers with live estimates; live ones (not collected) unless `includeCollected`. Fullest first within a status. */
-export async function listContainers(options: { includeCollected?: boolean; now?: Date; transaction?: Transaction } = {}): Promise<ContainerView[]> {
+export async function listContainers(
+  options: { includeCollected?: boolean; now?: Date; transaction?: Transaction } = {},
+): Promise<ContainerView[]> {
   const now = options.now ?? new Date();
   const settings = await readWasteSettings(options.transaction);
   const rows = await db().query<ContainerRow>(`${CONTAINER_SELECT} ${options.includeCollected ? "" : "WHERE c.status <> 'collected'"}`, {
@@ -303,27 +387,50 @@ export async function listContainers(options: { includeCollected?: boolean; now?
 export async function getContainer(id: number, options: { now?: Date; transaction?: Transaction } = {}): Promise<ContainerView> {
   const now = options.now ?? new Date();
   const settings = await readWasteSettings(options.transaction);
-  const [row] = await db().query<ContainerRow>(`${CONTAINER_SELECT} WHERE c.id = :id`, { type: QueryTypes.SELECT, replacements: { at: now, id }, transaction: options.transaction });
+  const [row] = await db().query<ContainerRow>(`${CONTAINER_SELECT} WHERE c.id = :id`, {
+    type: QueryTypes.SELECT,
+    replacements: { at: now, id },
+    transaction: options.transaction,
+  });
   if (!row) throw new HttpError(404, `No waste container with id ${id}.`);
   return containerView(row, settings, now);
 }
 
 /** The live estimate of one container at an instant (used to record a reading's difference). */
 export async function estimateAt(id: number, at: Date, transaction?: Transaction): Promise<number> {
-  const [row] = await db().query<ContainerRow>(`${CONTAINER_SELECT} WHERE c.id = :id`, { type: QueryTypes.SELECT, replacements: { at, id }, transaction });
+  const [row] = await db().query<ContainerRow>(`${CONTAINER_SELECT} WHERE c.id = :id`, {
+    type: QueryTypes.SELECT,
+    replacements: { at, id },
+    transaction,
+  });
   if (!row) throw new HttpError(404, `No waste container with id ${id}.`);
   return num(row.last_level) + num(row.added);
 }
 
 export interface ContainerHistory {
-  readings: { id: number; at: string; level_mL: number; estimatedBefore_mL: number; difference_mL: number; reader: string | null; note: string | null }[];
+  readings: {
+    id: number;
+    at: string;
+    level_mL: number;
+    estimatedBefore_mL: number;
+    difference_mL: number;
+    reader: string | null;
+    note: string | null;
+  }[];
   events: { at: string; action: string; actor: string | null; detail: unknown }[];
   /** What went in during the current accumulation, per reagent. */
   contents: { reagentId: string; volume_mL: number }[];
 }
 
 export async function containerHistory(id: number): Promise<ContainerHistory> {
-  const readings = await db().query<{ id: number; read_at: Date; level_ml: string; estimated_before_ml: string; reader: string | null; note: string | null }>(
+  const readings = await db().query<{
+    id: number;
+    read_at: Date;
+    level_ml: string;
+    estimated_before_ml: string;
+    reader: string | null;
+    note: string | null;
+  }>(
     `SELECT r.id, r.read_at, r.level_ml, r.estimated_before_ml, u.name AS reader, r.note
        FROM waste_readings r LEFT JOIN users u ON u.id = r.reader_id WHERE r.container_id = :id ORDER BY r.read_at DESC, r.id DESC`,
     { type: QueryTypes.SELECT, replacements: { id } },
@@ -349,7 +456,12 @@ export async function containerHistory(id: number): Promise<ContainerHistory> {
       reader: r.reader,
       note: r.note,
     })),
-    events: events.map((e) => ({ at: new Date(e.created_at).toISOString(), action: e.action, actor: e.actor, detail: typeof e.after === "string" ? safeJson(e.after) : e.after })),
+    events: events.map((e) => ({
+      at: new Date(e.created_at).toISOString(),
+      action: e.action,
+      actor: e.actor,
+      detail: typeof e.after === "string" ? safeJson(e.after) : e.after,
+    })),
     contents: contents.map((c) => ({ reagentId: c.reagent_id, volume_mL: Math.round(num(c.v) * 10) / 10 })),
   };
 }
@@ -363,21 +475,45 @@ const safeJson = (s: string) => {
 };
 
 function containerSnapshot(c: WasteContainer, instrumentId: number | null) {
-  return { code: c.code, streamId: c.streamId, capacity_mL: c.capacityMl, room: c.room, locationKind: c.locationKind, locationNote: c.locationNote, status: c.status, instrumentId };
+  return {
+    code: c.code,
+    streamId: c.streamId,
+    capacity_mL: c.capacityMl,
+    room: c.room,
+    locationKind: c.locationKind,
+    locationNote: c.locationNote,
+    status: c.status,
+    instrumentId,
+  };
 }
 
 async function linkInstrument(containerId: number, instrumentId: number | null, transaction: Transaction) {
   if (instrumentId !== null) {
-    const [instrument] = await db().query<{ id: number }>("SELECT id FROM instruments WHERE id = :instrumentId", { type: QueryTypes.SELECT, replacements: { instrumentId }, transaction });
+    const [instrument] = await db().query<{ id: number }>("SELECT id FROM instruments WHERE id = :instrumentId", {
+      type: QueryTypes.SELECT,
+      replacements: { instrumentId },
+      transaction,
+    });
     if (!instrument) throw new HttpError(400, `instrumentId: no instrument with id ${instrumentId}`);
   }
   // An instrument drains to one container at a time, and here a container serves one instrument.
-  await db().query("UPDATE instruments SET waste_container_id = NULL WHERE waste_container_id = :containerId AND (:instrumentId IS NULL OR id <> :instrumentId)", { replacements: { containerId, instrumentId }, transaction });
-  if (instrumentId !== null) await db().query("UPDATE instruments SET waste_container_id = :containerId WHERE id = :instrumentId", { replacements: { containerId, instrumentId }, transaction });
+  await db().query(
+    "UPDATE instruments SET waste_container_id = NULL WHERE waste_container_id = :containerId AND (:instrumentId IS NULL OR id <> :instrumentId)",
+    { replacements: { containerId, instrumentId }, transaction },
+  );
+  if (instrumentId !== null)
+    await db().query("UPDATE instruments SET waste_container_id = :containerId WHERE id = :instrumentId", {
+      replacements: { containerId, instrumentId },
+      transaction,
+    });
 }
 
 async function servedInstrument(containerId: number, transaction?: Transaction): Promise<number | null> {
-  const [row] = await db().query<{ id: number }>("SELECT MIN(id) AS id FROM instruments WHERE waste_container_id = :containerId", { type: QueryTypes.SELECT, replacements: { containerId }, transaction });
+  const [row] = await db().query<{ id: number }>("SELECT MIN(id) AS id FROM instruments WHERE waste_container_id = :containerId", {
+    type: QueryTypes.SELECT,
+    replacements: { containerId },
+    transaction,
+  });
   return row?.id ?? null;
 }
 
@@ -388,13 +524,36 @@ async function requireStream(streamId: string, transaction: Transaction) {
 export async function createContainer(input: ContainerInput, ctx: Context): Promise<ContainerView> {
   const id = await inTransaction(db(), async (transaction) => {
     await requireStream(input.streamId, transaction);
-    if (await WasteContainer.findOne({ where: { code: input.code }, transaction })) throw new HttpError(409, `code: a container ${input.code} exists already`);
+    if (await WasteContainer.findOne({ where: { code: input.code }, transaction }))
+      throw new HttpError(409, `code: a container ${input.code} exists already`);
     const container = await WasteContainer.create(
-      { code: input.code, streamId: input.streamId, capacityMl: input.capacity_mL, room: input.room, locationKind: input.locationKind, locationNote: input.locationNote, status: "in_use", accumulationStartedAt: new Date(), fullAt: null, collectedAt: null, pickupId: null },
+      {
+        code: input.code,
+        streamId: input.streamId,
+        capacityMl: input.capacity_mL,
+        room: input.room,
+        locationKind: input.locationKind,
+        locationNote: input.locationNote,
+        status: "in_use",
+        accumulationStartedAt: new Date(),
+        fullAt: null,
+        collectedAt: null,
+        pickupId: null,
+      },
       { transaction },
     );
     await linkInstrument(container.id, input.instrumentId, transaction);
-    await recordAudit({ actorId: ctx.actor.id, action: "waste.container.create", entity: "waste_container", entityId: container.id, ip: ctx.ip ?? null, after: containerSnapshot(container, input.instrumentId) }, transaction);
+    await recordAudit(
+      {
+        actorId: ctx.actor.id,
+        action: "waste.container.create",
+        entity: "waste_container",
+        entityId: container.id,
+        ip: ctx.ip ?? null,
+        after: containerSnapshot(container, input.instrumentId),
+      },
+      transaction,
+    );
     return container.id;
   });
   return getContainer(id);
@@ -406,34 +565,73 @@ export async function updateContainer(id: number, input: ContainerInput, ctx: Co
     if (!container) throw new HttpError(404, `No waste container with id ${id}.`);
     if (container.status === "collected") throw new HttpError(409, `${container.code} was collected; it stays in the history as it was.`);
     await requireStream(input.streamId, transaction);
-    if (input.code !== container.code && (await WasteContainer.findOne({ where: { code: input.code }, transaction }))) throw new HttpError(409, `code: a container ${input.code} exists already`);
+    if (input.code !== container.code && (await WasteContainer.findOne({ where: { code: input.code }, transaction })))
+      throw new HttpError(409, `code: a container ${input.code} exists already`);
     if (input.streamId !== container.streamId && num(await estimateAt(id, new Date(), transaction)) > 0) {
       throw new HttpError(409, `streamId: ${container.code} already holds waste of its stream; start a new container for another stream.`);
     }
     const before = containerSnapshot(container, await servedInstrument(id, transaction));
-    await container.update({ code: input.code, streamId: input.streamId, capacityMl: input.capacity_mL, room: input.room, locationKind: input.locationKind, locationNote: input.locationNote }, { transaction });
+    await container.update(
+      {
+        code: input.code,
+        streamId: input.streamId,
+        capacityMl: input.capacity_mL,
+        room: input.room,
+        locationKind: input.locationKind,
+        locationNote: input.locationNote,
+      },
+      { transaction },
+    );
     await linkInstrument(id, input.instrumentId, transaction);
-    await recordAudit({ actorId: ctx.actor.id, action: "waste.container.update", entity: "waste_container", entityId: id, ip: ctx.ip ?? null, before, after: containerSnapshot(container, input.instrumentId) }, transaction);
+    await recordAudit(
+      {
+        actorId: ctx.actor.id,
+        action: "waste.container.update",
+        entity: "waste_container",
+        entityId: id,
+        ip: ctx.ip ?? null,
+        before,
+        after: containerSnapshot(container, input.instrumentId),
+      },
+      transaction,
+    );
   });
   return getContainer(id);
 }
 
 /** Records a level reading; the difference from Decant's estimate is stored with it. */
-export async function recordReading(id: number, input: ReadingInput, ctx: Context): Promise<{ container: ContainerView; estimatedBefore_mL: number; difference_mL: number }> {
+export async function recordReading(
+  id: number,
+  input: ReadingInput,
+  ctx: Context,
+): Promise<{ container: ContainerView; estimatedBefore_mL: number; difference_mL: number }> {
   const readAt = input.readAt ? new Date(input.readAt) : new Date();
   if (readAt.getTime() > Date.now() + 5 * 60_000) throw new HttpError(400, "readAt: cannot be in the future");
   const result = await inTransaction(db(), async (transaction) => {
     const container = await WasteContainer.findByPk(id, { transaction, lock: transaction.LOCK.UPDATE });
     if (!container) throw new HttpError(404, `No waste container with id ${id}.`);
     if (container.status === "collected") throw new HttpError(409, `${container.code} was collected; a reading no longer applies.`);
-    if (container.accumulationStartedAt && readAt < container.accumulationStartedAt) throw new HttpError(400, "readAt: before this container started accumulating");
-    if (input.level_mL > container.capacityMl * 1.2) throw new HttpError(400, `level_mL: more than the container's capacity (${container.capacityMl} mL) allows`);
+    if (container.accumulationStartedAt && readAt < container.accumulationStartedAt)
+      throw new HttpError(400, "readAt: before this container started accumulating");
+    if (input.level_mL > container.capacityMl * 1.2)
+      throw new HttpError(400, `level_mL: more than the container's capacity (${container.capacityMl} mL) allows`);
     const before = await estimateAt(id, readAt, transaction);
-    const reading = await WasteReading.create({ containerId: id, readAt, levelMl: input.level_mL, estimatedBeforeMl: before, readerId: ctx.actor.id, note: input.note }, { transaction });
+    const reading = await WasteReading.create(
+      { containerId: id, readAt, levelMl: input.level_mL, estimatedBeforeMl: before, readerId: ctx.actor.id, note: input.note },
+      { transaction },
+    );
     const difference = Math.round((input.level_mL - before) * 10_000) / 10_000;
     await container.update({ estimatedVolumeMl: String(await estimateAt(id, new Date(), transaction)) }, { transaction });
     await recordAudit(
-      { actorId: ctx.actor.id, action: "waste.reading", entity: "waste_container", entityId: id, ip: ctx.ip ?? null, before: { estimated_mL: before }, after: { readingId: reading.id, level_mL: input.level_mL, difference_mL: difference, readAt: readAt.toISOString() } },
+      {
+        actorId: ctx.actor.id,
+        action: "waste.reading",
+        entity: "waste_container",
+        entityId: id,
+        ip: ctx.ip ?? null,
+        before: { estimated_mL: before },
+        after: { readingId: reading.id, level_mL: input.level_mL, difference_mL: difference, readAt: readAt.toISOString() },
+      },
       transaction,
     );
     return { estimatedBefore_mL: Math.round(before * 10) / 10, difference_mL: Math.round(difference * 10) / 10 };
@@ -452,7 +650,18 @@ export async function setContainerStatus(id: number, status: "in_use" | "full", 
     if (container.status === status) return;
     const before = { status: container.status, fullAt: iso(container.fullAt) };
     await container.update({ status, fullAt: status === "full" ? new Date() : null }, { transaction });
-    await recordAudit({ actorId: ctx.actor.id, action: "waste.container.status", entity: "waste_container", entityId: id, ip: ctx.ip ?? null, before, after: { status, fullAt: iso(container.fullAt) } }, transaction);
+    await recordAudit(
+      {
+        actorId: ctx.actor.id,
+        action: "waste.container.status",
+        entity: "waste_container",
+        entityId: id,
+        ip: ctx.ip ?? null,
+        before,
+        after: { status, fullAt: iso(container.fullAt) },
+      },
+      transaction,
+    );
   });
   return getContainer(id);
 }
@@ -466,7 +675,11 @@ export type ContainerAcceptance =
  * writes a run and refuses the run with `reason` when the answer is no. `container` is the
  * container's id (or an object carrying it, e.g. an instrument's current container).
  */
-export async function checkContainerAccepts(container: number | { id: number }, mixStream: string, options: { transaction?: Transaction } = {}): Promise<ContainerAcceptance> {
+export async function checkContainerAccepts(
+  container: number | { id: number },
+  mixStream: string,
+  options: { transaction?: Transaction } = {},
+): Promise<ContainerAcceptance> {
   const id = typeof container === "number" ? container : container.id;
   const { transaction } = options;
   const row = await WasteContainer.findByPk(id, { transaction });
@@ -475,11 +688,21 @@ export async function checkContainerAccepts(container: number | { id: number }, 
   const own = streams.find((s) => s.id === row.streamId);
   const mix = streams.find((s) => s.id === mixStream);
   if (!mix || !own) {
-    return { ok: false, containerId: id, code: "unknown-stream", reason: `${row.code}: the mix's waste stream "${mixStream}" is not one of the site's streams; ask the safety officer where it goes.` };
+    return {
+      ok: false,
+      containerId: id,
+      code: "unknown-stream",
+      reason: `${row.code}: the mix's waste stream "${mixStream}" is not one of the site's streams; ask the safety officer where it goes.`,
+    };
   }
   if (row.status !== "in_use") {
     const state = row.status === "full" ? "marked full" : row.status === "awaiting_pickup" ? "waiting for pickup" : "collected";
-    return { ok: false, containerId: id, code: "not-in-use", reason: `${row.code} is ${state}; route the instrument to another ${own.name.toLowerCase()} container first.` };
+    return {
+      ok: false,
+      containerId: id,
+      code: "not-in-use",
+      reason: `${row.code} is ${state}; route the instrument to another ${own.name.toLowerCase()} container first.`,
+    };
   }
   if (!streamAccepts(ruleOf(own), mixStream)) {
     return {
@@ -519,7 +742,16 @@ export function alertMessage(c: ContainerView, kind: AlertKind, settings: WasteL
 /** Alerts as they stand now (computed live, for the pages). */
 export async function currentAlerts(now = new Date()): Promise<AlertView[]> {
   const [containers, settings] = await Promise.all([listContainers({ now }), readWasteSettings()]);
-  return containers.flatMap((c) => c.alerts.map((kind) => ({ containerId: c.id, code: c.code, stream: c.stream, room: c.room, kind, message: alertMessage(c, kind, settings) })));
+  return containers.flatMap((c) =>
+    c.alerts.map((kind) => ({
+      containerId: c.id,
+      code: c.code,
+      stream: c.stream,
+      room: c.room,
+      kind,
+      message: alertMessage(c, kind, settings),
+    })),
+  );
 }
 
 export interface AlertCheckResult {
@@ -547,19 +779,32 @@ export async function runWasteAlertCheck(options: { now?: Date; send?: MailSende
       for (const kind of c.alerts) {
         const [, affected] = await db().query(
           `INSERT IGNORE INTO waste_alerts (container_id, kind, cycle, detail, raised_at) VALUES (:id, :kind, :cycle, :detail, :now)`,
-          { type: QueryTypes.INSERT, replacements: { id: c.id, kind, cycle: c.accumulationStartedAt ?? "none", detail: JSON.stringify({ message: alertMessage(c, kind, settings), fill_percent: c.fill.percent }), now } },
+          {
+            type: QueryTypes.INSERT,
+            replacements: {
+              id: c.id,
+              kind,
+              cycle: c.accumulationStartedAt ?? "none",
+              detail: JSON.stringify({ message: alertMessage(c, kind, settings), fill_percent: c.fill.percent }),
+              now,
+            },
+          },
         );
         raised += Number(affected) > 0 ? 1 : 0;
       }
       // Keep the cached column close to the live estimate.
-      await db().query("UPDATE waste_containers SET estimated_volume_ml = :v WHERE id = :id AND status <> 'collected'", { replacements: { v: c.estimated_mL, id: c.id } });
+      await db().query("UPDATE waste_containers SET estimated_volume_ml = :v WHERE id = :id AND status <> 'collected'", {
+        replacements: { v: c.estimated_mL, id: c.id },
+      });
     }
     const pending = await db().query<{ id: number; detail: unknown; code: string }>(
       `SELECT a.id, a.detail, c.code FROM waste_alerts a JOIN waste_containers c ON c.id = a.container_id WHERE a.mailed_at IS NULL ORDER BY c.code, a.id`,
       { type: QueryTypes.SELECT },
     );
     if (pending.length === 0) return { raised, mailed: 0, recipients: [] };
-    const officers = await db().query<{ email: string }>("SELECT email FROM users WHERE role = 'safety' AND active = 1 ORDER BY id", { type: QueryTypes.SELECT });
+    const officers = await db().query<{ email: string }>("SELECT email FROM users WHERE role = 'safety' AND active = 1 ORDER BY id", {
+      type: QueryTypes.SELECT,
+    });
     if (officers.length === 0) return { raised, mailed: 0, recipients: [] };
     const lines = pending.map((p) => {
       const detail = (typeof p.detail === "string" ? safeJson(p.detail) : p.detail) as { message?: string } | null;
@@ -568,11 +813,14 @@ export async function runWasteAlertCheck(options: { now?: Date; send?: MailSende
     const send = options.send ?? (await import("../mail")).sendMail;
     const { escapeHtml } = await import("../mail");
     const subject = `Decant waste alert: ${pending.length === 1 ? lines[0]!.split(" ")[0] : `${pending.length} containers need attention`}`;
-    const caution = "Follow your institution's hazardous-waste procedures and local regulations; Decant's estimates support, and never replace, a look at the container.";
+    const caution =
+      "Follow your institution's hazardous-waste procedures and local regulations; Decant's estimates support, and never replace, a look at the container.";
     const text = `The scheduled waste check found:\n\n${lines.map((l) => `- ${l}`).join("\n")}\n\n${caution}\n`;
     const html = `<p>The scheduled waste check found:</p><ul>${lines.map((l) => `<li>${escapeHtml(l)}</li>`).join("")}</ul><p>${escapeHtml(caution)}</p>`;
     for (const officer of officers) await send({ to: officer.email, subject, text, html });
-    await db().query("UPDATE waste_alerts SET mailed_at = :now WHERE id IN (:ids)", { replacements: { now, ids: pending.map((p) => p.id) } });
+    await db().query("UPDATE waste_alerts SET mailed_at = :now WHERE id IN (:ids)", {
+      replacements: { now, ids: pending.map((p) => p.id) },
+    });
     return { raised, mailed: pending.length, recipients: officers.map((o) => o.email) };
   });
   return outcome.ran ? { ran: true, ...outcome.result } : { ran: false, raised: 0, mailed: 0, recipients: [] };
@@ -583,7 +831,8 @@ let schedule: NodeJS.Timeout | undefined;
 /** Starts the in-process schedule of the alert check (every 15 minutes, first run after one minute). */
 export function ensureWasteAlertSchedule(every_ms = 15 * 60_000) {
   if (schedule || process.env.DECANT_NO_SCHEDULE === "1") return;
-  const tick = () => void runWasteAlertCheck().catch((error) => console.warn(`waste alert check failed: ${error instanceof Error ? error.message : error}`));
+  const tick = () =>
+    void runWasteAlertCheck().catch((error) => console.warn(`waste alert check failed: ${error instanceof Error ? error.message : error}`));
   const first = setTimeout(tick, 60_000);
   first.unref();
   schedule = setInterval(tick, every_ms);
@@ -605,7 +854,16 @@ export interface PickupView {
 }
 
 export async function listPickups(): Promise<PickupView[]> {
-  const pickups = await db().query<{ id: number; reference: string | null; status: PickupView["status"]; requested_at: Date; requested_by: string | null; collected_at: Date | null; manifest_ref: string | null; note: string | null }>(
+  const pickups = await db().query<{
+    id: number;
+    reference: string | null;
+    status: PickupView["status"];
+    requested_at: Date;
+    requested_by: string | null;
+    collected_at: Date | null;
+    manifest_ref: string | null;
+    note: string | null;
+  }>(
     `SELECT p.id, p.reference, p.status, p.requested_at, u.name AS requested_by, p.collected_at, p.manifest_ref, p.note
        FROM pickups p LEFT JOIN users u ON u.id = p.requested_by ORDER BY p.status = 'requested' DESC, p.requested_at DESC, p.id DESC`,
     { type: QueryTypes.SELECT },
@@ -620,13 +878,19 @@ export async function listPickups(): Promise<PickupView[]> {
     collectedAt: iso(p.collected_at),
     manifestRef: p.manifest_ref,
     note: p.note,
-    containers: containers.filter((c) => c.pickupId === p.id).map((c) => ({ id: c.id, code: c.code, stream: c.stream, estimated_mL: c.estimated_mL })),
+    containers: containers
+      .filter((c) => c.pickupId === p.id)
+      .map((c) => ({ id: c.id, code: c.code, stream: c.stream, estimated_mL: c.estimated_mL })),
   }));
 }
 
 async function nextPickupReference(now: Date, transaction: Transaction): Promise<string> {
   const year = now.getUTCFullYear();
-  const [row] = await db().query<{ n: number }>("SELECT COUNT(*) AS n FROM pickups WHERE reference LIKE :prefix", { type: QueryTypes.SELECT, replacements: { prefix: `PU-${year}-%` }, transaction });
+  const [row] = await db().query<{ n: number }>("SELECT COUNT(*) AS n FROM pickups WHERE reference LIKE :prefix", {
+    type: QueryTypes.SELECT,
+    replacements: { prefix: `PU-${year}-%` },
+    transaction,
+  });
   return `PU-${year}-${String(num(row?.n) + 1).padStart(3, "0")}`;
 }
 
@@ -638,17 +902,54 @@ export async function requestPickup(input: PickupRequest, ctx: Context): Promise
     for (const id of input.containerIds) {
       const c = containers.find((x) => x.id === id);
       if (!c) throw new HttpError(400, `containerIds: no container with id ${id}`);
-      if (c.status === "awaiting_pickup" || c.status === "collected") throw new HttpError(409, `containerIds: ${c.code} is already ${c.status === "collected" ? "collected" : "waiting for a pickup"}`);
+      if (c.status === "awaiting_pickup" || c.status === "collected")
+        throw new HttpError(409, `containerIds: ${c.code} is already ${c.status === "collected" ? "collected" : "waiting for a pickup"}`);
     }
-    const pickup = await Pickup.create({ reference: await nextPickupReference(now, transaction), status: "requested", requestedAt: now, requestedBy: ctx.actor.id, collectedAt: null, manifestRef: null, note: input.note, recordedBy: null }, { transaction });
+    const pickup = await Pickup.create(
+      {
+        reference: await nextPickupReference(now, transaction),
+        status: "requested",
+        requestedAt: now,
+        requestedBy: ctx.actor.id,
+        collectedAt: null,
+        manifestRef: null,
+        note: input.note,
+        recordedBy: null,
+      },
+      { transaction },
+    );
     for (const c of containers) {
       const before = { status: c.status };
       await c.update({ status: "awaiting_pickup", pickupId: pickup.id, fullAt: c.fullAt ?? now }, { transaction });
       // It takes no more waste: the instrument it served is unhooked and needs a fresh container.
-      await db().query("UPDATE instruments SET waste_container_id = NULL WHERE waste_container_id = :id", { replacements: { id: c.id }, transaction });
-      await recordAudit({ actorId: ctx.actor.id, action: "waste.container.status", entity: "waste_container", entityId: c.id, ip: ctx.ip ?? null, before, after: { status: "awaiting_pickup", pickup: pickup.reference } }, transaction);
+      await db().query("UPDATE instruments SET waste_container_id = NULL WHERE waste_container_id = :id", {
+        replacements: { id: c.id },
+        transaction,
+      });
+      await recordAudit(
+        {
+          actorId: ctx.actor.id,
+          action: "waste.container.status",
+          entity: "waste_container",
+          entityId: c.id,
+          ip: ctx.ip ?? null,
+          before,
+          after: { status: "awaiting_pickup", pickup: pickup.reference },
+        },
+        transaction,
+      );
     }
-    await recordAudit({ actorId: ctx.actor.id, action: "waste.pickup.request", entity: "pickup", entityId: pickup.id, ip: ctx.ip ?? null, after: { reference: pickup.reference, containers: containers.map((c) => c.code), note: input.note } }, transaction);
+    await recordAudit(
+      {
+        actorId: ctx.actor.id,
+        action: "waste.pickup.request",
+        entity: "pickup",
+        entityId: pickup.id,
+        ip: ctx.ip ?? null,
+        after: { reference: pickup.reference, containers: containers.map((c) => c.code), note: input.note },
+      },
+      transaction,
+    );
     return pickup.id;
   });
   return (await listPickups()).find((p) => p.id === pickupId)!;
@@ -667,10 +968,40 @@ export async function recordCollection(pickupId: number, input: CollectionInput,
     for (const c of containers) {
       const estimate = await estimateAt(c.id, collectedAt, transaction);
       await c.update({ status: "collected", collectedAt, estimatedVolumeMl: String(estimate) }, { transaction });
-      await recordAudit({ actorId: ctx.actor.id, action: "waste.container.status", entity: "waste_container", entityId: c.id, ip: ctx.ip ?? null, before: { status: "awaiting_pickup" }, after: { status: "collected", manifestRef: input.manifestRef, estimated_mL: estimate } }, transaction);
+      await recordAudit(
+        {
+          actorId: ctx.actor.id,
+          action: "waste.container.status",
+          entity: "waste_container",
+          entityId: c.id,
+          ip: ctx.ip ?? null,
+          before: { status: "awaiting_pickup" },
+          after: { status: "collected", manifestRef: input.manifestRef, estimated_mL: estimate },
+        },
+        transaction,
+      );
     }
-    await pickup.update({ status: "collected", collectedAt, manifestRef: input.manifestRef, note: input.note ?? pickup.note, recordedBy: ctx.actor.id }, { transaction });
-    await recordAudit({ actorId: ctx.actor.id, action: "waste.pickup.collected", entity: "pickup", entityId: pickupId, ip: ctx.ip ?? null, before: { status: "requested" }, after: { status: "collected", manifestRef: input.manifestRef, collectedAt: collectedAt.toISOString(), containers: containers.map((c) => c.code) } }, transaction);
+    await pickup.update(
+      { status: "collected", collectedAt, manifestRef: input.manifestRef, note: input.note ?? pickup.note, recordedBy: ctx.actor.id },
+      { transaction },
+    );
+    await recordAudit(
+      {
+        actorId: ctx.actor.id,
+        action: "waste.pickup.collected",
+        entity: "pickup",
+        entityId: pickupId,
+        ip: ctx.ip ?? null,
+        before: { status: "requested" },
+        after: {
+          status: "collected",
+          manifestRef: input.manifestRef,
+          collectedAt: collectedAt.toISOString(),
+          containers: containers.map((c) => c.code),
+        },
+      },
+      transaction,
+    );
   });
   return (await listPickups()).find((p) => p.id === pickupId)!;
 }
@@ -696,12 +1027,19 @@ const roundVolume = (v: unknown) => Math.round(num(v) * 10_000) / 10_000;
 export async function wasteSummary(period: Period): Promise<{ streams: StreamTotal[] }> {
   const { start, end } = periodBounds(period);
   const [rows, streams] = await Promise.all([
-    db().query<{ stream: string; v: string }>(`SELECT ${STREAM_OF} AS stream, SUM(l.volume_ml) AS v ${WASTE_ENTRIES} GROUP BY ${STREAM_OF}`, { type: QueryTypes.SELECT, replacements: { start, end } }),
+    db().query<{ stream: string; v: string }>(
+      `SELECT ${STREAM_OF} AS stream, SUM(l.volume_ml) AS v ${WASTE_ENTRIES} GROUP BY ${STREAM_OF}`,
+      { type: QueryTypes.SELECT, replacements: { start, end } },
+    ),
     WasteStream.findAll({ attributes: ["id", "restrictiveness"], order: [["restrictiveness", "DESC"]] }),
   ]);
   const totals = new Map<string, number>(streams.map((s) => [s.id, 0]));
   for (const r of rows) totals.set(r.stream, roundVolume(r.v));
-  return { streams: [...totals].map(([stream, volume_mL]) => ({ stream, volume_mL })).sort((a, b) => b.volume_mL - a.volume_mL || a.stream.localeCompare(b.stream)) };
+  return {
+    streams: [...totals]
+      .map(([stream, volume_mL]) => ({ stream, volume_mL }))
+      .sort((a, b) => b.volume_mL - a.volume_mL || a.stream.localeCompare(b.stream)),
+  };
 }
 
 export interface WasteReport {
@@ -755,8 +1093,12 @@ export async function wasteReport(period: Period): Promise<WasteReport> {
   return {
     period,
     streams: summary.streams.map((s) => ({ ...s, name: nameOf(s.stream) })),
-    byRoom: [...roomGroups].map(([room, rec]) => ({ room, streams: rec, volume_mL: sum(rec) })).sort((a, b) => a.room.localeCompare(b.room)),
-    byProject: [...projectGroups].map(([code, rec]) => ({ projectCode: code, projectName: projectNames.get(code) ?? "", streams: rec, volume_mL: sum(rec) })).sort((a, b) => b.volume_mL - a.volume_mL),
+    byRoom: [...roomGroups]
+      .map(([room, rec]) => ({ room, streams: rec, volume_mL: sum(rec) }))
+      .sort((a, b) => a.room.localeCompare(b.room)),
+    byProject: [...projectGroups]
+      .map(([code, rec]) => ({ projectCode: code, projectName: projectNames.get(code) ?? "", streams: rec, volume_mL: sum(rec) }))
+      .sort((a, b) => b.volume_mL - a.volume_mL),
     byMonth: monthsIn(period).map((month) => {
       const rec = monthGroups.get(month) ?? {};
       return { month, streams: rec, volume_mL: sum(rec) };
@@ -766,7 +1108,9 @@ export async function wasteReport(period: Period): Promise<WasteReport> {
 }
 
 /** Waste on hand now: live containers (collected ones have left), by stream and by room. */
-export async function wasteOnHand(now = new Date()): Promise<{ byStream: Record<string, number>; byRoom: Record<string, number>; total_mL: number }> {
+export async function wasteOnHand(
+  now = new Date(),
+): Promise<{ byStream: Record<string, number>; byRoom: Record<string, number>; total_mL: number }> {
   const containers = await listContainers({ now });
   const byStream: Record<string, number> = {};
   const byRoom: Record<string, number> = {};
@@ -797,11 +1141,15 @@ export interface FlammablesInRoom {
  * The flammable share of a batch (v/v): its flammable liquid components (the catalogue's flag;
  * the reagents table's for a reagent the catalogue lacks) over all its liquid components.
  */
-export function flammableShare(components: readonly { reagentId: string; unit: string; amount_mL: number; tableFlammable?: boolean }[]): number {
+export function flammableShare(
+  components: readonly { reagentId: string; unit: string; amount_mL: number; tableFlammable?: boolean }[],
+): number {
   const liquids = components.filter((c) => c.unit === "mL");
   const total = liquids.reduce((sum, c) => sum + Math.max(0, c.amount_mL), 0);
   if (!(total > 0)) return 0;
-  const flammable = liquids.filter((c) => getReagent(c.reagentId)?.flammable ?? c.tableFlammable ?? false).reduce((sum, c) => sum + Math.max(0, c.amount_mL), 0);
+  const flammable = liquids
+    .filter((c) => getReagent(c.reagentId)?.flammable ?? c.tableFlammable ?? false)
+    .reduce((sum, c) => sum + Math.max(0, c.amount_mL), 0);
   return Math.min(1, flammable / total);
 }
 
@@ -816,7 +1164,15 @@ export async function flammablesByRoom(now = new Date()): Promise<FlammablesInRo
       { type: QueryTypes.SELECT },
     ),
     // Each live batch's components: what is left of it × its flammable share is on the bench.
-    db().query<{ id: number; room: string; remaining_ml: string; reagent_id: string | null; unit: string | null; amount: string | null; table_flammable: number | null }>(
+    db().query<{
+      id: number;
+      room: string;
+      remaining_ml: string;
+      reagent_id: string | null;
+      unit: string | null;
+      amount: string | null;
+      table_flammable: number | null;
+    }>(
       `SELECT b.id, COALESCE(b.room, 'unassigned') AS room, b.remaining_ml, c.reagent_id, c.unit,
               COALESCE(c.actual_amount, c.target_amount) AS amount, r.flammable AS table_flammable
          FROM batches b
@@ -841,10 +1197,14 @@ export async function flammablesByRoom(now = new Date()): Promise<FlammablesInRo
   const rooms = new Map<string, { stock: number; batches: number; waste: number }>();
   const at = (room: string) => rooms.get(room) ?? rooms.set(room, { stock: 0, batches: 0, waste: 0 }).get(room)!;
   for (const s of stock) at(s.room).stock += num(s.remaining) / 1000;
-  const batches = new Map<number, { room: string; remaining: number; parts: { reagentId: string; unit: string; amount_mL: number; tableFlammable: boolean }[] }>();
+  const batches = new Map<
+    number,
+    { room: string; remaining: number; parts: { reagentId: string; unit: string; amount_mL: number; tableFlammable: boolean }[] }
+  >();
   for (const p of batchParts) {
     const b = batches.get(p.id) ?? batches.set(p.id, { room: p.room, remaining: num(p.remaining_ml), parts: [] }).get(p.id)!;
-    if (p.reagent_id && p.unit) b.parts.push({ reagentId: p.reagent_id, unit: p.unit, amount_mL: num(p.amount), tableFlammable: num(p.table_flammable) === 1 });
+    if (p.reagent_id && p.unit)
+      b.parts.push({ reagentId: p.reagent_id, unit: p.unit, amount_mL: num(p.amount), tableFlammable: num(p.table_flammable) === 1 });
   }
   for (const b of batches.values()) {
     const share = flammableShare(b.parts);
@@ -860,7 +1220,8 @@ export async function flammablesByRoom(now = new Date()): Promise<FlammablesInRo
     .map(([room, v]) => {
       const onHand = v.stock + v.batches + v.waste;
       const limit = settings.roomLimits_L[room] ?? null;
-      const state: FlammablesInRoom["state"] = limit === null ? "no-limit" : onHand >= limit ? "over" : onHand >= 0.8 * limit ? "near" : "ok";
+      const state: FlammablesInRoom["state"] =
+        limit === null ? "no-limit" : onHand >= limit ? "over" : onHand >= 0.8 * limit ? "near" : "ok";
       const r2 = (x: number) => Math.round(x * 100) / 100;
       return { room, stock_L: r2(v.stock), batches_L: r2(v.batches), waste_L: r2(v.waste), onHand_L: r2(onHand), limit_L: limit, state };
     })
@@ -869,7 +1230,9 @@ export async function flammablesByRoom(now = new Date()): Promise<FlammablesInRo
 
 // ── Instruments (for the container form) ───────────────────────────────────────────────────
 
-export async function instrumentChoices(): Promise<{ id: number; name: string; room: string; containerId: number | null; containerCode: string | null }[]> {
+export async function instrumentChoices(): Promise<
+  { id: number; name: string; room: string; containerId: number | null; containerCode: string | null }[]
+> {
   const rows = await db().query<{ id: number; name: string; room: string; waste_container_id: number | null; code: string | null }>(
     "SELECT i.id, i.name, i.room, i.waste_container_id, c.code FROM instruments i LEFT JOIN waste_containers c ON c.id = i.waste_container_id WHERE i.active = 1 ORDER BY i.name",
     { type: QueryTypes.SELECT },
@@ -879,9 +1242,12 @@ export async function instrumentChoices(): Promise<{ id: number; name: string; r
 
 /** Which container to suggest for a stream in a room: an in-use one with the most room left. */
 export function suggestContainer(containers: readonly ContainerView[], streamId: string, room: string): ContainerView | null {
-  return containers.filter((c) => c.status === "in_use" && c.streamId === streamId && c.room === room).sort((a, b) => a.fill.percent - b.fill.percent)[0] ?? null;
+  return (
+    containers
+      .filter((c) => c.status === "in_use" && c.streamId === streamId && c.room === room)
+      .sort((a, b) => a.fill.percent - b.fill.percent)[0] ?? null
+  );
 }
-
 
 // ── Report and label ───────────────────────────────────────────────────────────────────────
 
@@ -892,7 +1258,12 @@ async function facilityName(): Promise<string> {
 
 /** Everything the CSV and PDF report of a period show. */
 export async function wasteReportData(period: Period, now = new Date()): Promise<ReportData> {
-  const [report, containers, flammables, facility] = await Promise.all([wasteReport(period), listContainers({ now }), flammablesByRoom(now), facilityName()]);
+  const [report, containers, flammables, facility] = await Promise.all([
+    wasteReport(period),
+    listContainers({ now }),
+    flammablesByRoom(now),
+    facilityName(),
+  ]);
   return {
     facility,
     generatedAt: now.toISOString(),
@@ -902,7 +1273,16 @@ export async function wasteReportData(period: Period, now = new Date()): Promise
     byRoom: report.byRoom,
     byProject: report.byProject,
     byMonth: report.byMonth,
-    containers: containers.map((c) => ({ code: c.code, stream: c.stream, room: c.room, status: c.status, estimated_mL: c.estimated_mL, capacity_mL: c.capacity_mL, fill_percent: c.fill.percent, since: c.accumulationStartedAt?.slice(0, 10) ?? null })),
+    containers: containers.map((c) => ({
+      code: c.code,
+      stream: c.stream,
+      room: c.room,
+      status: c.status,
+      estimated_mL: c.estimated_mL,
+      capacity_mL: c.capacity_mL,
+      fill_percent: c.fill.percent,
+      since: c.accumulationStartedAt?.slice(0, 10) ?? null,
+    })),
     flammables: flammables.map((f) => ({ room: f.room, onHand_L: f.onHand_L, limit_L: f.limit_L, state: f.state })),
   };
 }

@@ -9,6 +9,11 @@ export const GET = endpoint(async ({ locals, url }) => {
   const { from, to } = validate(queryOf(url), journalQuery);
   const { text, fileName, statements } = await chargebackJournal(from, to);
   return new Response(text, {
-    headers: { "content-type": "text/csv; charset=utf-8", "content-disposition": `attachment; filename="${fileName}"`, "cache-control": "private, no-store", "x-statement-count": String(statements) },
+    headers: {
+      "content-type": "text/csv; charset=utf-8",
+      "content-disposition": `attachment; filename="${fileName}"`,
+      "cache-control": "private, no-store",
+      "x-statement-count": String(statements),
+    },
   });
 });

@@ -16,7 +16,11 @@ export const POST = endpoint(async ({ locals, request, clientAddress }) => {
     throw new HttpError(415, "body: send the lot as multipart/form-data");
   }
   // Read with a cap (by Content-Length, or while a chunked upload streams in), then parse the form.
-  const raw = await readBodyBytes(request, CERTIFICATE_MAX_BYTES + 64 * 1024, `certificate: the upload is over the ${CERTIFICATE_MAX_BYTES / 1048576} MB limit`);
+  const raw = await readBodyBytes(
+    request,
+    CERTIFICATE_MAX_BYTES + 64 * 1024,
+    `certificate: the upload is over the ${CERTIFICATE_MAX_BYTES / 1048576} MB limit`,
+  );
   let form: FormData;
   try {
     form = await new Response(raw, { headers: { "content-type": request.headers.get("content-type")! } }).formData();

@@ -13,7 +13,11 @@ async function answer(query: UsageQuery, scope: { clientId: number | null }) {
   const usage = await usageByProject(query, scope);
   if (query.phases !== "1") return usage;
   const phases = await mobilePhasesByProject(query, scope);
-  return { ...usage, mobilePhases: phases.mobilePhases, rows: usage.rows.map((r) => ({ ...r, mobilePhases_mL: phases.byProject.get(r.projectCode) ?? {} })) };
+  return {
+    ...usage,
+    mobilePhases: phases.mobilePhases,
+    rows: usage.rows.map((r) => ({ ...r, mobilePhases_mL: phases.byProject.get(r.projectCode) ?? {} })),
+  };
 }
 
 export const GET = endpoint(async ({ locals, url }) => {

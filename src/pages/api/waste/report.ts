@@ -11,11 +11,23 @@ export const GET = endpoint(async ({ locals, url }) => {
   const data = await wasteReportData({ from, to });
   const name = `decant-waste-${from}-to-${to}`;
   if (format === "csv") {
-    return new Response(reportCsv(data), { headers: { "content-type": "text/csv; charset=utf-8", "content-disposition": `attachment; filename="${name}.csv"`, "cache-control": "no-store" } });
+    return new Response(reportCsv(data), {
+      headers: {
+        "content-type": "text/csv; charset=utf-8",
+        "content-disposition": `attachment; filename="${name}.csv"`,
+        "cache-control": "no-store",
+      },
+    });
   }
   if (format === "pdf") {
     const bytes = await reportPdf(data);
-    return new Response(new Uint8Array(bytes), { headers: { "content-type": "application/pdf", "content-disposition": `attachment; filename="${name}.pdf"`, "cache-control": "no-store" } });
+    return new Response(new Uint8Array(bytes), {
+      headers: {
+        "content-type": "application/pdf",
+        "content-disposition": `attachment; filename="${name}.pdf"`,
+        "cache-control": "no-store",
+      },
+    });
   }
   return json(data);
 });

@@ -19,6 +19,12 @@ export const POST = endpoint(async ({ locals, request }) => {
   const acceptance = await checkContainerAccepts(input.containerId, assignment.streamId);
   // The mix's GHS pictograms and signal word (components at 1 % or more of the liquid volume, w/v for solids).
   const liquid = input.parts.reduce((sum, p) => sum + (p.volume_mL ?? 0), 0);
-  const hazards = hazardSummary(input.parts.map((p) => ({ reagent: p.reagentId, share_percent: (((p.volume_mL ?? 0) + (p.mass_g ?? 0)) / liquid) * 100 })));
-  return json({ assignment, acceptance, hazards: { pictograms: hazards.pictograms, signalWord: hazards.signalWord, statements: hazards.statements } });
+  const hazards = hazardSummary(
+    input.parts.map((p) => ({ reagent: p.reagentId, share_percent: (((p.volume_mL ?? 0) + (p.mass_g ?? 0)) / liquid) * 100 })),
+  );
+  return json({
+    assignment,
+    acceptance,
+    hazards: { pictograms: hazards.pictograms, signalWord: hazards.signalWord, statements: hazards.statements },
+  });
 });

@@ -7,6 +7,10 @@ export const GET = endpoint(async ({ locals, params }) => {
   const user = requirePermission(locals, "read:statement", { own: true });
   const { text, fileName } = await statementCsvFile(validate(params.id, idParam, "id"), user);
   return new Response(text, {
-    headers: { "content-type": "text/csv; charset=utf-8", "content-disposition": `attachment; filename="${fileName}"`, "cache-control": "private, no-store" },
+    headers: {
+      "content-type": "text/csv; charset=utf-8",
+      "content-disposition": `attachment; filename="${fileName}"`,
+      "cache-control": "private, no-store",
+    },
   });
 });

@@ -8,6 +8,10 @@ export const GET = endpoint(async ({ locals, params, url }) => {
   const { bytes, fileName } = await statementPdf(validate(params.id, idParam, "id"), user);
   const disposition = url.searchParams.get("download") === "1" ? "attachment" : "inline";
   return new Response(new Uint8Array(bytes), {
-    headers: { "content-type": "application/pdf", "content-disposition": `${disposition}; filename="${fileName}"`, "cache-control": "private, no-store" },
+    headers: {
+      "content-type": "application/pdf",
+      "content-disposition": `${disposition}; filename="${fileName}"`,
+      "cache-control": "private, no-store",
+    },
   });
 });

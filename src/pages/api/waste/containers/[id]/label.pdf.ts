@@ -11,5 +11,11 @@ export const GET = endpoint(async ({ locals, params, url }) => {
   const { copies } = validate(queryOf(url), labelQuery);
   const content = await containerLabelContent(id);
   const bytes = await renderContainerLabel(content, copies);
-  return new Response(new Uint8Array(bytes), { headers: { "content-type": "application/pdf", "content-disposition": `inline; filename="container-${content.code}.pdf"`, "cache-control": "no-store" } });
+  return new Response(new Uint8Array(bytes), {
+    headers: {
+      "content-type": "application/pdf",
+      "content-disposition": `inline; filename="container-${content.code}.pdf"`,
+      "cache-control": "no-store",
+    },
+  });
 });
