@@ -16,7 +16,9 @@ export function createSequelize(
     timezone: "+00:00",
     define: { underscored: true },
     pool: { max: 10, min: 0, acquire: 10_000, idle: 10_000 },
-    dialectOptions: { connectTimeout: 5_000 },
+    // DECIMAL columns (volumes, masses, prices) arrive as numbers, for model and raw reads alike:
+    // every value Decant keeps in one fits a double exactly enough, and no caller converts.
+    dialectOptions: { connectTimeout: 5_000, decimalAsNumber: true },
   });
   initModels(sequelize);
   return sequelize;

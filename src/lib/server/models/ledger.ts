@@ -22,8 +22,8 @@ export class Method extends Model<InferAttributes<Method>, InferCreationAttribut
   declare description: string | null;
   /** The pump program: flow and composition change linearly between points. */
   declare program: ProgramPoint[];
-  declare reEquilibrationMin: CreationOptional<string>;
-  declare runTimeMin: string;
+  declare reEquilibrationMin: CreationOptional<number>;
+  declare runTimeMin: number;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 }
@@ -40,9 +40,9 @@ export class LedgerEntry extends Model<InferAttributes<LedgerEntry>, InferCreati
   declare batchId: number | null;
   declare reagentId: string;
   /** mL of the reagent (negative in a correction); 0 for a solid. */
-  declare volumeMl: string;
+  declare volumeMl: number;
   /** g of a solid reagent; null for liquids. */
-  declare massG: string | null;
+  declare massG: number | null;
   declare channel: string | null;
   declare wasteStreamId: string | null;
   declare wasteContainerId: number | null;

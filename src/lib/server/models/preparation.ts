@@ -9,12 +9,12 @@ export class Batch extends Model<InferAttributes<Batch>, InferCreationAttributes
   declare recipeVersionId: number;
   /** The recipe specification as it was when the batch was made. */
   declare specSnapshot: unknown;
-  declare volumeMl: string;
-  declare remainingMl: string;
+  declare volumeMl: number;
+  declare remainingMl: number;
   declare bottles: number;
   declare bottleSizeMl: number;
-  declare temperatureC: CreationOptional<string>;
-  declare measuredPh: string | null;
+  declare temperatureC: CreationOptional<number>;
+  declare measuredPh: number | null;
   declare preparedBy: number;
   declare preparedAt: Date;
   declare expiresAt: Date;

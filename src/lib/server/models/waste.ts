@@ -10,7 +10,7 @@ export class WasteStream extends Model<InferAttributes<WasteStream>, InferCreati
   /** Higher is more restrictive: a mix goes to the most restrictive stream it reaches. */
   declare restrictiveness: number;
   /** Share of a mix from which it reaches this stream; null: the common-practice default. */
-  declare minSharePercent: string | null;
+  declare minSharePercent: number | null;
   /** Other streams a container of this stream may take; null: the common-practice default. */
   declare alsoAccepts: string[] | null;
   declare createdAt: CreationOptional<Date>;
@@ -24,7 +24,7 @@ export class WasteContainer extends Model<InferAttributes<WasteContainer>, Infer
   declare streamId: string;
   declare capacityMl: number;
   /** Cached estimate; the live figure is derived from readings and the ledger (services/waste.ts). */
-  declare estimatedVolumeMl: CreationOptional<string>;
+  declare estimatedVolumeMl: CreationOptional<number>;
   declare room: string;
   declare locationKind: CreationOptional<LocationKind>;
   declare locationNote: string | null;
@@ -42,9 +42,9 @@ export class WasteReading extends Model<InferAttributes<WasteReading>, InferCrea
   declare containerId: number;
   declare readAt: Date;
   /** The level read off the container. */
-  declare levelMl: string | number;
+  declare levelMl: number;
   /** Decant's estimate just before the reading: the difference is kept, not hidden. */
-  declare estimatedBeforeMl: string | number;
+  declare estimatedBeforeMl: number;
   declare readerId: number | null;
   declare note: string | null;
   declare createdAt: CreationOptional<Date>;
