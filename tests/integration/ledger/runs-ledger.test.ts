@@ -198,7 +198,7 @@ describe("corrections", () => {
   it("the ledger cannot be updated or deleted through the app's models either", async () => {
     const entry = await LedgerEntry.findOne({ order: [["id", "DESC"]] });
     expect(entry).not.toBeNull();
-    await expect(LedgerEntry.update({ volumeMl: "0" }, { where: { id: entry!.id } })).rejects.toThrow(/append-only/);
+    await expect(LedgerEntry.update({ volumeMl: 0 }, { where: { id: entry!.id } })).rejects.toThrow(/append-only/);
     await expect(entry!.destroy()).rejects.toThrow(/append-only/);
   });
 });

@@ -86,8 +86,8 @@ function toColumns(input: MethodInput) {
     name: input.name,
     description: input.description || null,
     program,
-    reEquilibrationMin: input.reEquilibration_min.toFixed(3),
-    runTimeMin: runTime.toFixed(3),
+    reEquilibrationMin: Number(input.reEquilibration_min.toFixed(3)),
+    runTimeMin: Number(runTime.toFixed(3)),
   };
 }
 

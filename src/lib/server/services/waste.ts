@@ -199,7 +199,7 @@ export async function createStream(input: StreamInput, ctx: Context): Promise<St
         name: input.name,
         description: input.description,
         restrictiveness: input.restrictiveness,
-        minSharePercent: input.minShare_percent === null ? null : String(input.minShare_percent),
+        minSharePercent: input.minShare_percent,
         alsoAccepts: input.alsoAccepts,
       },
       { transaction },
@@ -237,7 +237,7 @@ export async function updateStream(id: string, input: StreamUpdate, ctx: Context
         name: input.name,
         description: input.description,
         restrictiveness: input.restrictiveness,
-        minSharePercent: input.minShare_percent === null ? null : String(input.minShare_percent),
+        minSharePercent: input.minShare_percent,
         alsoAccepts: input.alsoAccepts,
       },
       { transaction },
@@ -621,7 +621,7 @@ export async function recordReading(
       { transaction },
     );
     const difference = Math.round((input.level_mL - before) * 10_000) / 10_000;
-    await container.update({ estimatedVolumeMl: String(await estimateAt(id, new Date(), transaction)) }, { transaction });
+    await container.update({ estimatedVolumeMl: await estimateAt(id, new Date(), transaction) }, { transaction });
     await recordAudit(
       {
         actorId: ctx.actor.id,
@@ -967,7 +967,7 @@ export async function recordCollection(pickupId: number, input: CollectionInput,
     const containers = await WasteContainer.findAll({ where: { pickupId }, transaction, lock: transaction.LOCK.UPDATE });
     for (const c of containers) {
       const estimate = await estimateAt(c.id, collectedAt, transaction);
-      await c.update({ status: "collected", collectedAt, estimatedVolumeMl: String(estimate) }, { transaction });
+      await c.update({ status: "collected", collectedAt, estimatedVolumeMl: estimate }, { transaction });
       await recordAudit(
         {
           actorId: ctx.actor.id,
