@@ -20,7 +20,7 @@ export interface UsageRow {
   /** Grade of the stock lot the batch was made from, when known. */
   grade: string | null;
   day: string;
-  /** Decimal strings as the database gives them; negative in corrections. */
+  /** Sums as the database gives them (numbers), or decimal strings; negative in corrections. */
   volume_mL: string | number;
   mass_g: string | number | null;
 }
