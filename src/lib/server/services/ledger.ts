@@ -11,7 +11,7 @@ import { getSequelize } from "../db";
 import type { SignedInUser } from "../guard";
 import { HttpError } from "../http";
 import type { LedgerKind, LedgerSource } from "../models/ledger";
-import { openDateForProject } from "./billing";
+import { openDateForProject } from "./billing/period-locks";
 import { inTransaction, multiRowInsert, pipelinedWrites } from "./sql";
 
 export interface NewLedgerEntry {
