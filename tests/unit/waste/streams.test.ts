@@ -1,14 +1,8 @@
 // Stream assignment. Source of the expected streams: common practice for laboratory waste
 // segregation (CPwaste in src/lib/chem/sources.ts) — the institution's rules decide in the end.
 import { describe, expect, it } from "vitest";
-import {
-  assignWasteStream,
-  DEFAULT_STREAMS,
-  streamAccepts,
-  WasteRuleError,
-  type MixPart,
-  type StreamRule,
-} from "../../../src/lib/waste/streams";
+import { assignWasteStream, DEFAULT_STREAMS, streamAccepts, WasteRuleError, type MixPart } from "../../../src/lib/waste/streams";
+import type { StreamRule } from "../../../src/lib/waste/types";
 
 const mL = (reagentId: string, volume_mL: number): MixPart => ({ reagentId, volume_mL });
 const g = (reagentId: string, mass_g: number): MixPart => ({ reagentId, mass_g });
