@@ -48,12 +48,11 @@ async function getPickup(id: number): Promise<PickupView> {
 /** PU-<year>-<nnn>: the year's pickups so far, plus one. */
 async function nextPickupReference(now: Date, transaction: Transaction): Promise<string> {
   const year = now.getUTCFullYear();
-  // COUNT(*) is a BIGINT, which the driver may hand over as a bigint.
-  const row = await selectOne<{ n: number | bigint }>("SELECT COUNT(*) AS n FROM pickups WHERE reference LIKE :prefix", {
+  const row = await selectOne<{ n: number }>("SELECT COUNT(*) AS n FROM pickups WHERE reference LIKE :prefix", {
     replacements: { prefix: `PU-${year}-%` },
     transaction,
   });
-  return `PU-${year}-${String(Number(row?.n ?? 0) + 1).padStart(3, "0")}`;
+  return `PU-${year}-${String((row?.n ?? 0) + 1).padStart(3, "0")}`;
 }
 
 /** Requests a pickup for containers that are full or in use: they wait for collection and take no more waste. */

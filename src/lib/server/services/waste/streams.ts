@@ -25,8 +25,7 @@ export async function listStreams(transaction?: Transaction): Promise<StreamView
     ],
     transaction,
   });
-  // COUNT(*) is a BIGINT, which the driver may hand over as a bigint.
-  const counts = await select<{ stream_id: string; n: number | bigint }>(
+  const counts = await select<{ stream_id: string; n: number }>(
     "SELECT stream_id, COUNT(*) AS n FROM waste_containers WHERE status <> 'collected' GROUP BY stream_id",
     { transaction },
   );
@@ -34,7 +33,7 @@ export async function listStreams(transaction?: Transaction): Promise<StreamView
     ...streamRuleOf(row),
     description: row.description,
     basis: DEFAULT_STREAM_BY_ID[row.id]?.basis ?? null,
-    containers: Number(counts.find((c) => c.stream_id === row.id)?.n ?? 0),
+    containers: counts.find((c) => c.stream_id === row.id)?.n ?? 0,
   }));
 }
 
