@@ -1,32 +1,32 @@
 // The period totals the safety officer reviews (/waste, /api/waste/summary) and the waste on hand now.
 import { periodBounds, type Period } from "../../../waste/period";
-import { onHandFrom, summaryFrom, wasteReportFrom, type StreamSum } from "../../../waste/totals";
+import { onHandFrom, summaryFrom, UNASSIGNED_STREAM, wasteReportFrom, type StreamSum } from "../../../waste/totals";
 import type { WasteOnHand, WasteReport, WasteSummary } from "../../../waste/types";
 import { WasteStream } from "../../models/waste";
 import { select } from "../../query";
 import { listContainers } from "./containers";
 
 // What reaches waste: runs, discards and draws, and the corrections that reverse one of them.
-// `joins` adds tables to group by (the container's room, the project).
 const wasteEntries = (joins = "") => `
   FROM ledger_entries l
   ${joins}
   LEFT JOIN ledger_entries rev ON rev.id = l.reverses_id
  WHERE l.occurred_at >= :start AND l.occurred_at < :end
    AND (l.kind IN ('run', 'discard', 'draw') OR (l.kind = 'correction' AND rev.kind IN ('run', 'discard', 'draw')))`;
-const STREAM_OF = "COALESCE(l.waste_stream_id, rev.waste_stream_id, 'unassigned')";
+const STREAM_OF = `COALESCE(l.waste_stream_id, rev.waste_stream_id, '${UNASSIGNED_STREAM}')`;
 
-/** The ledger's waste volume per stream in the period, grouped further by `key` (an SQL expression) when given. */
-async function streamSums<Key extends object>(period: Period, options: { key?: Record<keyof Key, string>; joins?: string } = {}) {
+/**
+ * The ledger's waste volume per stream in the period; `by` names further columns to group by
+ * (column → SQL expression), `joins` the tables they come from.
+ */
+async function streamSums<Key extends object = object>(period: Period, by: Record<string, string> = {}, joins = "") {
   const { start, end } = periodBounds(period);
-  const keys = Object.entries<string>(options.key ?? ({} as Record<string, string>));
-  const columns = keys.map(([name, sql]) => `${sql} AS ${name}, `).join("");
-  const groupBy = [...keys.map(([, sql]) => sql), STREAM_OF].join(", ");
-  const rows = await select<Key & { stream: string; v: number }>(
-    `SELECT ${columns}${STREAM_OF} AS stream, SUM(l.volume_ml) AS v ${wasteEntries(options.joins)} GROUP BY ${groupBy}`,
+  const columns = Object.entries(by).map(([name, sql]) => `${sql} AS ${name}, `);
+  const groupBy = [...Object.values(by), STREAM_OF].join(", ");
+  return select<Key & StreamSum>(
+    `SELECT ${columns.join("")}${STREAM_OF} AS stream, SUM(l.volume_ml) AS volume_mL ${wasteEntries(joins)} GROUP BY ${groupBy}`,
     { replacements: { start, end } },
   );
-  return rows.map(({ v, ...rest }) => ({ ...rest, volume_mL: v }) as Key & StreamSum);
 }
 
 /** The fixed contract of `GET /api/waste/summary`: every site stream (0 when nothing went to it), by volume. */
@@ -46,15 +46,17 @@ export async function wasteReport(period: Period): Promise<WasteReport> {
   const [summary, streams, byRoom, byProject, byMonth] = await Promise.all([
     wasteSummary(period),
     WasteStream.findAll({ attributes: ["id", "name"] }),
-    streamSums<{ room: string }>(period, {
-      key: { room: "COALESCE(c.room, 'not recorded')" },
-      joins: "LEFT JOIN waste_containers c ON c.id = l.waste_container_id",
-    }),
-    streamSums<{ code: string | null; name: string | null }>(period, {
-      key: { code: "p.code", name: "p.name" },
-      joins: "LEFT JOIN projects p ON p.id = l.project_id",
-    }),
-    streamSums<{ month: string }>(period, { key: { month: "DATE_FORMAT(l.occurred_at, '%Y-%m')" } }),
+    streamSums<{ room: string }>(
+      period,
+      { room: "COALESCE(c.room, 'not recorded')" },
+      "LEFT JOIN waste_containers c ON c.id = l.waste_container_id",
+    ),
+    streamSums<{ code: string | null; name: string | null }>(
+      period,
+      { code: "p.code", name: "p.name" },
+      "LEFT JOIN projects p ON p.id = l.project_id",
+    ),
+    streamSums<{ month: string }>(period, { month: "DATE_FORMAT(l.occurred_at, '%Y-%m')" }),
   ]);
   const streamNames = new Map(streams.map((s) => [s.id, s.name]));
   return wasteReportFrom({ period, summary, streamNames, byRoom, byProject, byMonth });
