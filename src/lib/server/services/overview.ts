@@ -1,6 +1,6 @@
 import { QueryTypes } from "sequelize";
 import { getSequelize } from "../db";
-import { listContainers } from "./waste";
+import { listContainers } from "./waste/containers";
 
 const DAY = 86_400_000;
 
@@ -65,6 +65,3 @@ export async function liveContainers(): Promise<ContainerFill[]> {
     }))
     .sort((a, b) => b.fillPercent - a.fillPercent);
 }
-
-/** Flammable liquids on hand per room (stock lots and waste) against the room limit. */
-export { flammablesByRoom, type FlammablesInRoom } from "./waste";

@@ -13,7 +13,7 @@ import { getSequelize } from "../db";
 import type { SignedInUser } from "../guard";
 import { HttpError } from "../http";
 import { appendEntries, ensureCatalogueRows, wasteStreamOf, type NewLedgerEntry } from "./ledger";
-import { checkContainerAccepts, wasteStreamForMix } from "./waste";
+import { checkContainerAccepts, wasteStreamForMix } from "./waste/route";
 import { inTransaction } from "./sql";
 
 /** A batch as a run needs it: state, dates, what is left and what is in it. */
