@@ -2,7 +2,7 @@ import { useId, useState, type FormEvent } from "react";
 import { parseMajorAmount } from "../../lib/billing/statement";
 import { rateInput } from "../../lib/schemas/billing";
 import { fieldErrors } from "../../lib/schemas/zod-error";
-import { postJson } from "../forms/post-json";
+import { errorMessage, postJson } from "../forms/post-json";
 import { IslandForm } from "../forms/island-form";
 
 export interface ReagentOption {
@@ -59,7 +59,7 @@ export default function RateForm({ reagents, currency, today }: Props) {
       await postJson("/api/rates", parsed.success ? parsed.data : candidate);
       window.location.reload();
     } catch (error) {
-      setProblem(error instanceof Error ? error.message : String(error));
+      setProblem(errorMessage(error));
       setBusy(false);
     }
   }

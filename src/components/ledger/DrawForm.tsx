@@ -2,9 +2,10 @@ import { useEffect, useState } from "react";
 import { formatVolume } from "../../lib/format";
 import { DRAW_PURPOSES, drawSchema, type DrawInput } from "../../lib/schemas/runs";
 import { Field, useZodForm } from "../forms/form";
+import { newKey } from "../forms/idempotency-key";
 import { IslandForm } from "../forms/island-form";
 import { postJson } from "../forms/post-json";
-import { newKey } from "./keys";
+import { useServerErrors } from "../forms/server-errors";
 
 interface Props {
   batches: { id: number; code: string; name: string; remaining_mL: number }[];
@@ -21,7 +22,9 @@ const PURPOSE_LABELS: Record<(typeof DRAW_PURPOSES)[number], string> = {
 
 /** A manual withdrawal from a batch, with its reason. */
 export default function DrawForm({ batches: initial, projects, containers }: Props) {
-  const { register, handleSubmit, formState, setValue, reset } = useZodForm<DrawInput>(drawSchema);
+  const form = useZodForm<DrawInput>(drawSchema);
+  const { register, handleSubmit, formState, setValue, reset } = form;
+  const showServerError = useServerErrors(form);
   const [batches, setBatches] = useState(initial);
   const [done, setDone] = useState<string | null>(null);
   const [problem, setProblem] = useState<string | null>(null);
@@ -36,7 +39,7 @@ export default function DrawForm({ batches: initial, projects, containers }: Pro
       setDone(`${formatVolume(r.volume_mL)} drawn from ${r.batchCode}; ${formatVolume(r.remaining_mL)} left.`);
       reset({ ...values, volume_mL: undefined as unknown as number, note: "", idempotencyKey: newKey("draw") });
     } catch (error) {
-      setProblem(error instanceof Error ? error.message : String(error));
+      setProblem(showServerError(error));
     }
   });
   const e = formState.errors;

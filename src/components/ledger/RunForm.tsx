@@ -6,9 +6,11 @@ import { programChannels } from "../../lib/ledger/program";
 import { CHANNELS } from "../../lib/schemas/fields";
 import { runSchema, type RunInput } from "../../lib/schemas/runs";
 import { Field, useZodForm } from "../forms/form";
+import { newKey } from "../forms/idempotency-key";
 import { IslandForm } from "../forms/island-form";
 import { postJson } from "../forms/post-json";
-import { newKey, utcInputValue } from "./keys";
+import { useServerErrors } from "../forms/server-errors";
+import { utcInputValue } from "./utc-input";
 
 interface Option {
   id: number;
@@ -78,6 +80,7 @@ function Select({
 export default function RunForm({ instruments, methods, projects, batches: initialBatches }: Props) {
   const form = useZodForm<RunInput>(runSchema);
   const { register, handleSubmit, formState, watch, setValue, reset } = form;
+  const showServerError = useServerErrors(form);
   const [batches, setBatches] = useState(initialBatches);
   const [answer, setAnswer] = useState<Answer | null>(null);
   const [problem, setProblem] = useState<string | null>(null);
@@ -116,7 +119,7 @@ export default function RunForm({ instruments, methods, projects, batches: initi
       );
       reset({ ...values, startedAt: utcInputValue() as unknown as Date, idempotencyKey: newKey("run") });
     } catch (error) {
-      setProblem(error instanceof Error ? error.message : String(error));
+      setProblem(showServerError(error));
     }
   });
 

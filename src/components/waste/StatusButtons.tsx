@@ -1,5 +1,5 @@
 import { useState } from "react";
-import { postJson } from "../forms/post-json";
+import { errorMessage, postJson } from "../forms/post-json";
 
 /** Marks a container full (it then takes no more runs) or back in use. */
 export default function StatusButtons({ containerId, status }: { containerId: number; status: "in_use" | "full" }) {
@@ -13,7 +13,7 @@ export default function StatusButtons({ containerId, status }: { containerId: nu
       await postJson(`/api/waste/containers/${containerId}/status`, { status: next });
       window.location.reload();
     } catch (error) {
-      setProblem(error instanceof Error ? error.message : String(error));
+      setProblem(errorMessage(error));
       setBusy(false);
     }
   };

@@ -1,5 +1,5 @@
 import { z } from "zod";
-import { id, idParam } from "./fields";
+import { id, idempotencyKey, idParam } from "./fields";
 import { MIXTURE_KINDS } from "../preparation/expiry";
 import { labelStockListSchema } from "./labels";
 
@@ -52,7 +52,7 @@ const amount = z.preprocess(
 export const batchCreateSchema = z
   .object({
     /** Made once per form; a second submit with the same key answers the batch already recorded. */
-    idempotencyKey: z.string().regex(/^[A-Za-z0-9_-]{8,80}$/, "idempotencyKey: 8–80 letters, digits, - or _"),
+    idempotencyKey,
     recipeVersionId: id("Pick a recipe"),
     volume_mL: z.coerce
       .number({ invalid_type_error: "Give the batch volume" })
