@@ -58,6 +58,7 @@ export function AmountsTable({ lines, lots, form, units, texts, onText, rowKey, 
                     className="input w-full min-w-44 py-1"
                     aria-label={`Lot of ${c.name}`}
                     aria-invalid={lotError ? true : undefined}
+                    aria-describedby={lotError ? `lot-${i}-error` : undefined}
                     {...form.register(`components.${i}.stockLotId` as const, { valueAsNumber: true })}
                   >
                     <option value={0}>Choose a lot…</option>
@@ -72,8 +73,8 @@ export function AmountsTable({ lines, lots, form, units, texts, onText, rowKey, 
                   </select>
                   {options.length === 0 && <p className="field-error">No lot of {c.name} is recorded: add it under Stock lots.</p>}
                   {lotError && (
-                    <p className="field-error" role="alert">
-                      {lotError === "Pick the lot used" || lotError.startsWith("Expected") ? "Pick the lot used" : lotError}
+                    <p id={`lot-${i}-error`} className="field-error" role="alert">
+                      {lotError}
                     </p>
                   )}
                 </td>
