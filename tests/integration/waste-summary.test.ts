@@ -63,7 +63,7 @@ describe("GET /api/waste/summary", () => {
     ["", /from/],
     [`from=${from}`, /to/],
     [`from=2026-13-01&to=2026-12-31`, /from: /],
-    [`from=2026-02-30&to=2026-03-31`, /from: not a calendar date/],
+    [`from=2026-02-30&to=2026-03-31`, /from: is not a calendar day/],
     [`from=${to}&to=${from}`, /to: must be on or after from/],
     [`from=${from}&to=${to}&groupBy=room`, /groupBy|Unrecognized/],
   ])("answers 400 naming the field for ?%s", async (query, message) => {

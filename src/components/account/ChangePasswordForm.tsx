@@ -3,9 +3,12 @@ import { changePasswordSchema, type ChangePasswordInput } from "../../lib/schema
 import { Field, useZodForm } from "../forms/form";
 import { IslandForm } from "../forms/island-form";
 import { postJson } from "../forms/post-json";
+import { useServerErrors } from "../forms/server-errors";
 
 export default function ChangePasswordForm({ email }: { email: string }) {
-  const { register, handleSubmit, formState, reset, setError } = useZodForm<ChangePasswordInput>(changePasswordSchema);
+  const form = useZodForm<ChangePasswordInput>(changePasswordSchema);
+  const { register, handleSubmit, formState, reset } = form;
+  const showServerError = useServerErrors(form);
   const [done, setDone] = useState(false);
   const [problem, setProblem] = useState<string | null>(null);
 
@@ -17,10 +20,7 @@ export default function ChangePasswordForm({ email }: { email: string }) {
       reset({ currentPassword: "", newPassword: "", confirmPassword: "" });
       setDone(true);
     } catch (error) {
-      const message = error instanceof Error ? error.message : String(error);
-      const field = /^(currentPassword|newPassword|confirmPassword): (.*)$/.exec(message);
-      if (field) setError(field[1] as keyof ChangePasswordInput, { message: field[2] });
-      else setProblem(message);
+      setProblem(showServerError(error));
     }
   });
 

@@ -3,9 +3,12 @@ import { forgotPasswordSchema, type ForgotPasswordInput } from "../../lib/schema
 import { Field, useZodForm } from "../forms/form";
 import { IslandForm } from "../forms/island-form";
 import { postJson } from "../forms/post-json";
+import { useServerErrors } from "../forms/server-errors";
 
 export default function ForgotPasswordForm() {
-  const { register, handleSubmit, formState } = useZodForm<ForgotPasswordInput>(forgotPasswordSchema);
+  const form = useZodForm<ForgotPasswordInput>(forgotPasswordSchema);
+  const { register, handleSubmit, formState } = form;
+  const showServerError = useServerErrors(form);
   const [answer, setAnswer] = useState<string | null>(null);
   const [problem, setProblem] = useState<string | null>(null);
 
@@ -15,7 +18,7 @@ export default function ForgotPasswordForm() {
       const { message } = await postJson<{ message: string }>("/api/auth/forgot-password", values);
       setAnswer(message);
     } catch (error) {
-      setProblem(error instanceof Error ? error.message : String(error));
+      setProblem(showServerError(error));
     }
   });
 

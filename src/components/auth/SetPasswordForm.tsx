@@ -3,9 +3,12 @@ import { setPasswordSchema, type SetPasswordInput } from "../../lib/schemas/auth
 import { Field, useZodForm } from "../forms/form";
 import { IslandForm } from "../forms/island-form";
 import { postJson } from "../forms/post-json";
+import { useServerErrors } from "../forms/server-errors";
 
 export default function SetPasswordForm({ token, email }: { token: string; email: string }) {
-  const { register, handleSubmit, formState } = useZodForm<SetPasswordInput>(setPasswordSchema, { defaultValues: { token } });
+  const form = useZodForm<SetPasswordInput>(setPasswordSchema, { defaultValues: { token } });
+  const { register, handleSubmit, formState } = form;
+  const showServerError = useServerErrors(form);
   const [problem, setProblem] = useState<string | null>(null);
 
   const onSubmit = handleSubmit(async (values) => {
@@ -14,7 +17,7 @@ export default function SetPasswordForm({ token, email }: { token: string; email
       await postJson("/api/auth/set-password", values);
       window.location.assign(`/sign-in?password-set=1&email=${encodeURIComponent(email)}`);
     } catch (error) {
-      setProblem(error instanceof Error ? error.message.replace(/^token: /, "") : String(error));
+      setProblem(showServerError(error));
     }
   });
 

@@ -3,10 +3,13 @@ import { signInSchema, type SignInInput } from "../../lib/schemas/auth";
 import { Field, useZodForm } from "../forms/form";
 import { IslandForm } from "../forms/island-form";
 import { postJson } from "../forms/post-json";
+import { useServerErrors } from "../forms/server-errors";
 
 export default function SignInForm({ next, email = "" }: { next: string; email?: string }) {
   // No defaultValues: react-hook-form would then overwrite what was typed before hydration.
-  const { register, handleSubmit, formState } = useZodForm<SignInInput>(signInSchema);
+  const form = useZodForm<SignInInput>(signInSchema);
+  const { register, handleSubmit, formState } = form;
+  const showServerError = useServerErrors(form);
   const [problem, setProblem] = useState<string | null>(null);
 
   const onSubmit = handleSubmit(async (values) => {
@@ -15,7 +18,7 @@ export default function SignInForm({ next, email = "" }: { next: string; email?:
       await postJson("/api/auth/sign-in", values);
       window.location.assign(next);
     } catch (error) {
-      setProblem(error instanceof Error ? error.message : String(error));
+      setProblem(showServerError(error));
     }
   });
 

@@ -1,6 +1,7 @@
 import { useState } from "react";
 import type { InvoiceStatus } from "../../lib/billing/types";
 import { postJson } from "../forms/post-json";
+import { errorMessage, postJson } from "../forms/post-json";
 
 interface Props {
   invoiceId: number;
@@ -20,7 +21,7 @@ export default function InvoiceActions({ invoiceId, number, status }: Props) {
       await postJson(`/api/invoices/${invoiceId}/${action}`, {});
       window.location.reload();
     } catch (error) {
-      setProblem(error instanceof Error ? error.message : String(error));
+      setProblem(errorMessage(error));
       setBusy(null);
     }
   }

@@ -1,5 +1,5 @@
 import { useState } from "react";
-import { postJson } from "../forms/post-json";
+import { errorMessage, postJson } from "../forms/post-json";
 
 interface Props {
   clientId: number;
@@ -19,7 +19,7 @@ export default function OpenStatementButton({ clientId, clientName, periodStart,
       const { id } = await postJson<{ id: number }>("/api/statements", { clientId, periodStart, periodEnd });
       window.location.assign(`/statements/${id}`);
     } catch (error) {
-      setProblem(error instanceof Error ? error.message : String(error));
+      setProblem(errorMessage(error));
       setBusy(false);
     }
   }

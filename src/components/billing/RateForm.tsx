@@ -4,7 +4,7 @@ import { parseMajorAmount } from "../../lib/billing/statement";
 import type { RateReagent } from "../../lib/billing/types";
 import { rateInput } from "../../lib/schemas/billing";
 import { fieldErrors } from "../../lib/schemas/zod-error";
-import { postJson } from "../forms/post-json";
+import { errorMessage, postJson } from "../forms/post-json";
 import { IslandForm } from "../forms/island-form";
 
 interface Props {
@@ -52,7 +52,7 @@ export default function RateForm({ reagents, currency, today }: Props) {
       await postJson("/api/rates", parsed.success ? parsed.data : candidate);
       window.location.reload();
     } catch (error) {
-      setProblem(error instanceof Error ? error.message : String(error));
+      setProblem(errorMessage(error));
       setBusy(false);
     }
   }

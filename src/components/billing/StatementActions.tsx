@@ -1,5 +1,5 @@
 import { useState } from "react";
-import { postJson } from "../forms/post-json";
+import { errorMessage, postJson } from "../forms/post-json";
 
 interface Props {
   statementId: number;
@@ -25,7 +25,7 @@ export default function StatementActions({ statementId, kind, total_minor, total
       await postJson(`/api/statements/${statementId}/${kind === "external" ? "invoice" : "issue"}`, { expectedTotal_minor: total_minor });
       window.location.reload();
     } catch (error) {
-      setProblem(error instanceof Error ? error.message : String(error));
+      setProblem(errorMessage(error));
       setBusy(false);
       setConfirming(false);
     }

@@ -70,10 +70,17 @@ export function Field({ label, registration, error, hint, ...input }: FieldProps
   );
 }
 
+export interface SelectOption {
+  value: string | number;
+  label: string;
+  /** Written on the option as data-* attributes (e.g. `{ ml: 250 }` → data-ml="250"), for scripts and tests. */
+  data?: Record<string, string | number>;
+}
+
 interface SelectFieldProps extends SelectHTMLAttributes<HTMLSelectElement> {
   label: string;
   registration: UseFormRegisterReturn;
-  options: { value: string | number; label: string }[];
+  options: SelectOption[];
   error?: string | undefined;
   /** A first, empty choice such as "Choose…". */
   placeholder?: string;
@@ -95,7 +102,7 @@ export function SelectField({ label, registration, options, error, placeholder, 
       >
         {placeholder !== undefined && <option value="">{placeholder}</option>}
         {options.map((o) => (
-          <option key={o.value} value={o.value}>
+          <option key={o.value} value={o.value} {...Object.fromEntries(Object.entries(o.data ?? {}).map(([k, v]) => [`data-${k}`, v]))}>
             {o.label}
           </option>
         ))}

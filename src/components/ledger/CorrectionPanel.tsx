@@ -1,5 +1,5 @@
 import { useState } from "react";
-import { postJson } from "../forms/post-json";
+import { errorMessage, postJson } from "../forms/post-json";
 import { IslandForm } from "../forms/island-form";
 
 /** Reverses a run's entries (never edits them): the reason and your name stay with the correction. */
@@ -20,7 +20,7 @@ export default function CorrectionPanel({ runId, open }: { runId: number; open: 
       await postJson("/api/ledger/corrections", { runId, reason });
       window.location.reload();
     } catch (error) {
-      setProblem(error instanceof Error ? error.message : String(error));
+      setProblem(errorMessage(error));
       setBusy(false);
     }
   }

@@ -1,10 +1,11 @@
 import { useEffect, useState } from "react";
 import { formatVolume } from "../../lib/format";
 import { DRAW_PURPOSES, drawSchema, type DrawInput } from "../../lib/schemas/runs";
-import { Field, useZodForm } from "../forms/form";
+import { Field, SelectField, useZodForm } from "../forms/form";
+import { newKey } from "../forms/idempotency-key";
 import { IslandForm } from "../forms/island-form";
 import { postJson } from "../forms/post-json";
-import { newKey } from "./keys";
+import { useServerErrors } from "../forms/server-errors";
 
 interface Props {
   batches: { id: number; code: string; name: string; remaining_mL: number }[];
@@ -21,7 +22,9 @@ const PURPOSE_LABELS: Record<(typeof DRAW_PURPOSES)[number], string> = {
 
 /** A manual withdrawal from a batch, with its reason. */
 export default function DrawForm({ batches: initial, projects, containers }: Props) {
-  const { register, handleSubmit, formState, setValue, reset } = useZodForm<DrawInput>(drawSchema);
+  const form = useZodForm<DrawInput>(drawSchema);
+  const { register, handleSubmit, formState, setValue, reset } = form;
+  const showServerError = useServerErrors(form);
   const [batches, setBatches] = useState(initial);
   const [done, setDone] = useState<string | null>(null);
   const [problem, setProblem] = useState<string | null>(null);
@@ -36,53 +39,29 @@ export default function DrawForm({ batches: initial, projects, containers }: Pro
       setDone(`${formatVolume(r.volume_mL)} drawn from ${r.batchCode}; ${formatVolume(r.remaining_mL)} left.`);
       reset({ ...values, volume_mL: undefined as unknown as number, note: "", idempotencyKey: newKey("draw") });
     } catch (error) {
-      setProblem(error instanceof Error ? error.message : String(error));
+      setProblem(showServerError(error));
     }
   });
   const e = formState.errors;
-  const select = (
-    name: "batchId" | "projectId" | "wasteContainerId" | "purpose",
-    label: string,
-    options: { value: string | number; label: string }[],
-    placeholder: string,
-    error?: string,
-  ) => (
-    <div className="field">
-      <label htmlFor={`draw-${name}`}>{label}</label>
-      <select id={`draw-${name}`} className="input" aria-invalid={error ? true : undefined} {...register(name)}>
-        <option value="">{placeholder}</option>
-        {options.map((o) => (
-          <option key={o.value} value={o.value}>
-            {o.label}
-          </option>
-        ))}
-      </select>
-      {error && (
-        <p className="field-error" role="alert">
-          {error}
-        </p>
-      )}
-    </div>
-  );
   return (
     <IslandForm method="post" onSubmit={onSubmit} noValidate className="card flex max-w-2xl flex-col gap-4 p-5" aria-label="Log a draw">
       <input type="hidden" {...register("idempotencyKey")} />
-      {select(
-        "batchId",
-        "Batch",
-        batches.map((b) => ({ value: b.id, label: `${b.code} · ${b.name} · ${formatVolume(b.remaining_mL)} left` })),
-        "Choose…",
-        e.batchId?.message,
-      )}
+      <SelectField
+        label="Batch"
+        registration={register("batchId")}
+        options={batches.map((b) => ({ value: b.id, label: `${b.code} · ${b.name} · ${formatVolume(b.remaining_mL)} left` }))}
+        placeholder="Choose…"
+        error={e.batchId?.message}
+      />
       <div className="grid gap-4 md:grid-cols-2">
         <Field label="Volume, mL" inputMode="decimal" registration={register("volume_mL")} error={e.volume_mL?.message} />
-        {select(
-          "purpose",
-          "What for",
-          DRAW_PURPOSES.map((p) => ({ value: p, label: PURPOSE_LABELS[p] })),
-          "Choose…",
-          e.purpose?.message,
-        )}
+        <SelectField
+          label="What for"
+          registration={register("purpose")}
+          options={DRAW_PURPOSES.map((p) => ({ value: p, label: PURPOSE_LABELS[p] }))}
+          placeholder="Choose…"
+          error={e.purpose?.message}
+        />
       </div>
       <Field
         label="Note"
@@ -91,20 +70,20 @@ export default function DrawForm({ batches: initial, projects, containers }: Pro
         hint="Kept with the ledger entry, e.g. which column was flushed."
       />
       <div className="grid gap-4 md:grid-cols-2">
-        {select(
-          "projectId",
-          "Charged to project",
-          projects.map((p) => ({ value: p.id, label: `${p.code} · ${p.name}` })),
-          "No project (facility)",
-          e.projectId?.message,
-        )}
-        {select(
-          "wasteContainerId",
-          "Went to waste container",
-          containers.map((c) => ({ value: c.id, label: `${c.code} · ${c.stream} · ${c.room}` })),
-          "None (e.g. absorbed spill)",
-          e.wasteContainerId?.message,
-        )}
+        <SelectField
+          label="Charged to project"
+          registration={register("projectId")}
+          options={projects.map((p) => ({ value: p.id, label: `${p.code} · ${p.name}` }))}
+          placeholder="No project (facility)"
+          error={e.projectId?.message}
+        />
+        <SelectField
+          label="Went to waste container"
+          registration={register("wasteContainerId")}
+          options={containers.map((c) => ({ value: c.id, label: `${c.code} · ${c.stream} · ${c.room}` }))}
+          placeholder="None (e.g. absorbed spill)"
+          error={e.wasteContainerId?.message}
+        />
       </div>
       {problem && (
         <p className="notice notice-danger" role="alert">

@@ -1,8 +1,9 @@
 import { useRef, useState } from "react";
 import { formatDateTime, formatVolume } from "../../lib/format";
 import { readRunLog, RUN_LOG_MAX_BYTES, type RowIssue, type RunLogRow } from "../../lib/imports/run-log";
-import type { ImportReport } from "../../lib/server/services/imports";
+import type { ImportReport } from "../../lib/imports/types";
 import { HydratedControls } from "../forms/island-form";
+import { errorMessage } from "../forms/post-json";
 
 type Report = Omit<ImportReport, "fileName" | "checksum">;
 
@@ -86,7 +87,7 @@ export default function ImportWizard() {
       reader.onload = () => resolve(String(reader.result ?? ""));
       reader.readAsText(chosen);
     }).catch((error: unknown) => {
-      setProblem(error instanceof Error ? error.message : String(error));
+      setProblem(errorMessage(error));
       return null;
     });
     if (content === null) return setStage({ step: "idle" });
@@ -110,7 +111,7 @@ export default function ImportWizard() {
       if (status !== 200) throw new Error(body.error ?? `The check failed (${status}).`);
       setStage({ step: "checked", rows: parsed.rows, rowCount: parsed.rowCount, issues: body.issues, report: body });
     } catch (error) {
-      setProblem(error instanceof Error ? error.message : String(error));
+      setProblem(errorMessage(error));
       setStage({ step: "checked", rows: parsed.rows, rowCount: parsed.rowCount, issues: [], report: null });
     }
   }

@@ -4,6 +4,7 @@ import { instrumentSchema, type InstrumentInput } from "../../lib/schemas/instru
 import { Field, useZodForm } from "../forms/form";
 import { IslandForm } from "../forms/island-form";
 import { postJson } from "../forms/post-json";
+import { useServerErrors } from "../forms/server-errors";
 
 interface Props {
   instrument?: {
@@ -20,11 +21,13 @@ interface Props {
 
 /** Adds an instrument or changes one (the waste container it drains to, its channels). */
 export default function InstrumentForm({ instrument, containers }: Props) {
-  const { register, handleSubmit, formState } = useZodForm<InstrumentInput>(instrumentSchema, {
+  const form = useZodForm<InstrumentInput>(instrumentSchema, {
     defaultValues: instrument
       ? { ...instrument, channels: instrument.channels as InstrumentInput["channels"] }
       : { channels: ["A", "B"], active: true, wasteContainerId: null },
   });
+  const { register, handleSubmit, formState } = form;
+  const showServerError = useServerErrors(form);
   const [problem, setProblem] = useState<string | null>(null);
   const [saved, setSaved] = useState(false);
   const onSubmit = handleSubmit(async (values) => {
@@ -39,7 +42,7 @@ export default function InstrumentForm({ instrument, containers }: Props) {
         window.location.assign("/instruments");
       }
     } catch (error) {
-      setProblem(error instanceof Error ? error.message : String(error));
+      setProblem(showServerError(error));
     }
   });
   const e = formState.errors;

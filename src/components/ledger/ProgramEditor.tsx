@@ -4,7 +4,7 @@ import { formatVolume } from "../../lib/format";
 import { programChannels, rowsToProgram } from "../../lib/ledger/program";
 import { fieldErrors } from "../../lib/schemas/zod-error";
 import { methodSchema, programRowSchema, type ProgramRow } from "../../lib/schemas/methods";
-import { postJson } from "../forms/post-json";
+import { errorMessage, postJson } from "../forms/post-json";
 import ProgramChart from "./ProgramChart";
 import { IslandForm } from "../forms/island-form";
 
@@ -85,7 +85,7 @@ export default function ProgramEditor({ method, canEdit }: Props) {
       if (!method) window.location.assign(`/methods/${result.id}`);
       else setStatus({ kind: "ok", text: "Saved. Runs already logged keep the volumes they were recorded with." });
     } catch (error) {
-      setStatus({ kind: "error", text: error instanceof Error ? error.message : String(error) });
+      setStatus({ kind: "error", text: errorMessage(error) });
     } finally {
       setSaving(false);
     }

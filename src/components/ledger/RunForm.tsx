@@ -5,16 +5,13 @@ import { formatVolume } from "../../lib/format";
 import { programChannels } from "../../lib/ledger/program";
 import { CHANNELS } from "../../lib/schemas/fields";
 import { runSchema, type RunInput } from "../../lib/schemas/runs";
-import { Field, useZodForm } from "../forms/form";
+import { Field, SelectField, useZodForm } from "../forms/form";
+import { newKey } from "../forms/idempotency-key";
 import { IslandForm } from "../forms/island-form";
 import { postJson } from "../forms/post-json";
-import { newKey, utcInputValue } from "./keys";
+import { useServerErrors } from "../forms/server-errors";
+import { utcInputValue } from "./utc-input";
 
-interface Option {
-  id: number;
-  label: string;
-  /** exact mL left, for tests and screen readers' titles */ ml?: number;
-}
 interface Props {
   instruments: { id: number; name: string; channels: string[]; wasteContainerCode: string | null }[];
   methods: { id: number; name: string; program: ProgramPoint[] }[];
@@ -34,50 +31,11 @@ interface Answer {
   batches: { id: number; code: string; remaining_mL: number }[];
 }
 
-function Select({
-  label,
-  options,
-  registration,
-  error,
-  placeholder = "Choose…",
-}: {
-  label: string;
-  options: Option[];
-  registration: ReturnType<ReturnType<typeof useZodForm<RunInput>>["register"]>;
-  error?: string | undefined;
-  placeholder?: string;
-}) {
-  const id = `run-${registration.name.replace(/\W/g, "-")}`;
-  return (
-    <div className="field">
-      <label htmlFor={id}>{label}</label>
-      <select
-        id={id}
-        className="input"
-        aria-invalid={error ? true : undefined}
-        aria-describedby={error ? `${id}-error` : undefined}
-        {...registration}
-      >
-        <option value="">{placeholder}</option>
-        {options.map((o) => (
-          <option key={o.id} value={o.id} data-ml={o.ml}>
-            {o.label}
-          </option>
-        ))}
-      </select>
-      {error && (
-        <p id={`${id}-error`} className="field-error" role="alert">
-          {error}
-        </p>
-      )}
-    </div>
-  );
-}
-
 /** Log a sequence: the volumes follow from the method's program, live, before anything is sent. */
 export default function RunForm({ instruments, methods, projects, batches: initialBatches }: Props) {
   const form = useZodForm<RunInput>(runSchema);
   const { register, handleSubmit, formState, watch, setValue, reset } = form;
+  const showServerError = useServerErrors(form);
   const [batches, setBatches] = useState(initialBatches);
   const [answer, setAnswer] = useState<Answer | null>(null);
   const [problem, setProblem] = useState<string | null>(null);
@@ -116,7 +74,7 @@ export default function RunForm({ instruments, methods, projects, batches: initi
       );
       reset({ ...values, startedAt: utcInputValue() as unknown as Date, idempotencyKey: newKey("run") });
     } catch (error) {
-      setProblem(error instanceof Error ? error.message : String(error));
+      setProblem(showServerError(error));
     }
   });
 
@@ -126,21 +84,24 @@ export default function RunForm({ instruments, methods, projects, batches: initi
       <IslandForm method="post" onSubmit={onSubmit} noValidate className="card flex flex-col gap-4 p-5" aria-label="Log a run">
         <input type="hidden" {...register("idempotencyKey")} />
         <div className="grid gap-4 md:grid-cols-2">
-          <Select
+          <SelectField
             label="Instrument"
-            options={instruments.map((i) => ({ id: i.id, label: i.name }))}
+            placeholder="Choose…"
+            options={instruments.map((i) => ({ value: i.id, label: i.name }))}
             registration={register("instrumentId")}
             error={e.instrumentId?.message}
           />
-          <Select
+          <SelectField
             label="Method"
-            options={methods.map((m) => ({ id: m.id, label: m.name }))}
+            placeholder="Choose…"
+            options={methods.map((m) => ({ value: m.id, label: m.name }))}
             registration={register("methodId")}
             error={e.methodId?.message}
           />
-          <Select
+          <SelectField
             label="Project"
-            options={projects.map((p) => ({ id: p.id, label: `${p.code} · ${p.name}` }))}
+            placeholder="Choose…"
+            options={projects.map((p) => ({ value: p.id, label: `${p.code} · ${p.name}` }))}
             registration={register("projectId")}
             error={e.projectId?.message}
           />
@@ -166,14 +127,15 @@ export default function RunForm({ instruments, methods, projects, batches: initi
           {channels.length === 0 && <p className="text-sm text-[var(--color-muted)]">Choose the instrument first.</p>}
           <div className="grid gap-4 md:grid-cols-2">
             {CHANNELS.filter((ch) => channels.includes(ch)).map((ch) => (
-              <Select
+              <SelectField
                 key={ch}
                 label={`Channel ${ch}${preview?.[ch] !== undefined ? ` · needs ${formatVolume(preview[ch]!)}` : ""}`}
                 placeholder="Not used"
                 options={batches.map((b) => ({
-                  id: b.id,
+                  value: b.id,
                   label: `${b.code} · ${b.name} · ${formatVolume(b.remaining_mL)} left`,
-                  ml: b.remaining_mL,
+                  // The exact mL left, for tests.
+                  data: { ml: b.remaining_mL },
                 }))}
                 registration={register(`channelBatches.${ch}`)}
                 error={(e.channelBatches as Record<string, { message?: string }> | undefined)?.[ch]?.message}

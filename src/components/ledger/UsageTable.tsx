@@ -8,15 +8,15 @@ import {
   type SortingState,
 } from "@tanstack/react-table";
 import { lazy, Suspense, useEffect, useMemo, useState } from "react";
-import type { UsageRow } from "../../lib/server/services/usage";
-import type { GroupedUsageRow } from "../../lib/server/services/usage-groups";
 import { USAGE_GROUPINGS, type UsageGrouping } from "../../lib/ledger/usage-groupings";
 import { formatMoney } from "../../lib/billing/money";
 import { csvField } from "../../lib/imports/csv";
 import { formatVolume } from "../../lib/format";
+import type { GroupedUsageRow, UsageRow } from "../../lib/ledger/types";
 import { usageChartSeries } from "../../lib/ledger/usage-chart";
 import { LoadBoundary } from "../common/LoadBoundary";
 import { IslandForm } from "../forms/island-form";
+import { errorMessage } from "../forms/post-json";
 
 // Chart.js is about as heavy as the rest of the page together: it is fetched only once there is
 // usage to draw, so the page itself stays inside its JavaScript budget (DEVELOPERS.md, Usage).
@@ -138,7 +138,7 @@ function UsageView({
   const state: { kind: "loading" } | { kind: "error"; message: string } | ({ kind: "ready" } & Loaded) = query.isPending
     ? { kind: "loading" }
     : query.isError
-      ? { kind: "error", message: query.error instanceof Error ? query.error.message : String(query.error) }
+      ? { kind: "error", message: errorMessage(query.error) }
       : { kind: "ready", ...query.data };
 
   const table = useReactTable({

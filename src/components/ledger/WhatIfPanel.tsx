@@ -4,6 +4,7 @@ import { ChemInputError } from "../../lib/chem/warnings";
 import { formatNumber, formatVolume } from "../../lib/format";
 import { whatIf, type WhatIfResult } from "../../lib/ledger/what-if";
 import { HydratedControls } from "../forms/island-form";
+import { errorMessage } from "../forms/post-json";
 
 interface Props {
   /** The method's saved program. */
@@ -111,7 +112,7 @@ export default function WhatIfPanel({ program, reEquilibration_min }: Props) {
         const where = m ? `Scouting run ${Number(m[1]) + 1}, ${m[2] === "percentB" ? "%B" : "last peak"}: ` : "";
         return { error: `${where}${error.message.replace(/^runs\[\d+\]\.\w+ /, "")}`, ...(error.field ? { field: error.field } : {}) };
       }
-      return { error: error instanceof Error ? error.message : String(error) };
+      return { error: errorMessage(error) };
     }
   }, [JSON.stringify(runs), t0, dwell, target, margin, program]);
 

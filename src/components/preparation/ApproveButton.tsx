@@ -1,5 +1,5 @@
 import { useState } from "react";
-import { postJson } from "../forms/post-json";
+import { errorMessage, postJson } from "../forms/post-json";
 
 export default function ApproveButton({ recipeId, version }: { recipeId: number; version: number }) {
   const [error, setError] = useState<string | null>(null);
@@ -11,7 +11,7 @@ export default function ApproveButton({ recipeId, version }: { recipeId: number;
       await postJson(`/api/recipes/${recipeId}/approve`, { version });
       window.location.assign(`/recipes/${recipeId}?approved=1`);
     } catch (e) {
-      setError(e instanceof Error ? e.message : String(e));
+      setError(errorMessage(e));
       setBusy(false);
     }
   }

@@ -1,5 +1,5 @@
 import { useState } from "react";
-import { postJson } from "../forms/post-json";
+import { errorMessage, postJson } from "../forms/post-json";
 import { HydratedControls } from "../forms/island-form";
 
 interface Bottle {
@@ -40,7 +40,7 @@ export default function BottleActions({
       const result = await postJson<{ batch: { bottleList: Bottle[] } }>(`/api/batches/${batchId}/bottles/${number}`, body);
       setList(result.batch.bottleList);
     } catch (e) {
-      setError(e instanceof Error ? e.message : String(e));
+      setError(errorMessage(e));
     } finally {
       setBusy(null);
     }

@@ -4,25 +4,16 @@ import { ChemInputError } from "../../lib/chem/warnings";
 import { findDeviations, type Tolerances } from "../../lib/preparation/deviations";
 import { batchExpiry, lotExpired, type ExpiryRule } from "../../lib/preparation/expiry";
 import { preparationPlan, type PreparationPlan } from "../../lib/preparation/plan";
+import type { FormLot, FormRecipe } from "../../lib/preparation/types";
 import type { BatchCreateInput } from "../../lib/schemas/preparation";
-import type { PreparableRecipe } from "../../lib/server/services/recipes";
 import { useZodForm } from "../forms/form";
+import { newKey } from "../forms/idempotency-key";
 import { IslandForm } from "../forms/island-form";
 import { postJson } from "../forms/post-json";
-
-/** The recipe as the page hands it to the form (the service's shape, without the recipe id). */
-export type FormRecipe = Omit<PreparableRecipe, "recipeId">;
-
-export interface FormLot {
-  id: number;
-  reagent: string;
-  lotNumber: string;
-  grade: string;
-  expiresOn: string;
-  remaining: number;
-  unit: "mL" | "g";
-  low: boolean;
-}
+import { useServerErrors } from "../forms/server-errors";
+import { fmt, type MassUnit, type VolumeUnit } from "./amounts";
+import { AmountsTable } from "./AmountsTable";
+import { PreparationChecks } from "./PreparationChecks";
 
 interface Props {
   recipes: FormRecipe[];
@@ -34,30 +25,12 @@ interface Props {
   rooms?: string[];
 }
 
-type VolumeUnit = "ml" | "l";
-type MassUnit = "g" | "mg";
-
 // With zod and the schema the page would pass its JavaScript budget: they load at the form's first
 // check (a field left, or a submit) instead; the chemistry, which the first view needs, comes first.
 const loadBatchSchema = () => import("../../lib/schemas/preparation").then((m) => m.batchCreateSchema);
 
-const ROLE_LABEL: Record<string, string> = { solvent: "solvent", buffer: "buffer", titrant: "to pH", additive: "additive" };
-
-function newKey(): string {
-  return typeof crypto !== "undefined" && "randomUUID" in crypto
-    ? crypto.randomUUID()
-    : `k${Date.now()}${Math.random().toString(36).slice(2)}`;
-}
-
-function fmt(n: number, digits = 4): string {
-  if (!Number.isFinite(n)) return "–";
-  const abs = Math.abs(n);
-  const d = abs >= 1000 ? 0 : abs >= 100 ? 1 : abs >= 10 ? 2 : abs >= 1 ? 3 : digits;
-  return n.toFixed(d);
-}
-
 export default function PreparationForm({ recipes, lots, tolerances, expiryRules, initialRecipeVersionId, rooms = [] }: Props) {
-  const key = useRef(newKey());
+  const key = useRef(newKey("batch"));
   const first = recipes.find((r) => r.versionId === initialRecipeVersionId) ?? recipes[0];
   const form = useZodForm<BatchCreateInput>(loadBatchSchema, {
     defaultValues: {
@@ -75,6 +48,7 @@ export default function PreparationForm({ recipes, lots, tolerances, expiryRules
     },
   });
   const { register, watch, setValue, handleSubmit, formState } = form;
+  const showServerError = useServerErrors(form);
   const [volumeUnit, setVolumeUnit] = useState<VolumeUnit>("ml");
   const [liquidUnit, setLiquidUnit] = useState<VolumeUnit>("ml");
   const [massUnit, setMassUnit] = useState<MassUnit>("g");
@@ -112,11 +86,6 @@ export default function PreparationForm({ recipes, lots, tolerances, expiryRules
   const plan = computed.plan;
 
   const rowKey = (i: number) => `${versionId}:${i}`;
-  const display = (amount: number, unit: "mL" | "g") =>
-    unit === "mL" ? convert(amount).from("ml").to(liquidUnit) : convert(amount).from("g").to(massUnit);
-  const canonical = (value: number, unit: "mL" | "g") =>
-    unit === "mL" ? convert(value).from(liquidUnit).to("ml") : convert(value).from(massUnit).to("g");
-  const unitLabel = (unit: "mL" | "g") => (unit === "mL" ? (liquidUnit === "ml" ? "mL" : "L") : massUnit);
 
   // Keep the form's component lines in step with the plan (one line per planned component).
   const lines = plan?.components ?? [];
@@ -162,7 +131,7 @@ export default function PreparationForm({ recipes, lots, tolerances, expiryRules
       const result = await postJson<{ batch: { id: number } }>("/api/batches", { ...values, idempotencyKey: key.current });
       window.location.assign(`/batches/${result.batch.id}?recorded=1`);
     } catch (error) {
-      setServerError(error instanceof Error ? error.message : String(error));
+      setServerError(showServerError(error));
       setSaving(false);
     }
   });
@@ -317,78 +286,16 @@ export default function PreparationForm({ recipes, lots, tolerances, expiryRules
             </p>
           )}
           {plan && (
-            <div className="overflow-x-auto">
-              <table className="table" data-testid="amounts">
-                <thead>
-                  <tr>
-                    <th>Component</th>
-                    <th className="num">Target</th>
-                    <th>Lot used</th>
-                    <th className="num">Actual</th>
-                  </tr>
-                </thead>
-                <tbody>
-                  {lines.map((c, i) => {
-                    const options = lots.filter((l) => l.reagent === c.reagent);
-                    const field = `components.${i}.actualAmount`;
-                    const lotError = errors.components?.[i]?.stockLotId?.message;
-                    const text = actualText[rowKey(i)] ?? "";
-                    return (
-                      <tr key={rowKey(i)} data-reagent={c.reagent}>
-                        <td>
-                          <span className="font-medium">{c.name}</span> <span className="tag tag-muted ml-1">{ROLE_LABEL[c.role]}</span>
-                        </td>
-                        <td className="num whitespace-nowrap" data-testid={`target-${c.reagent}`}>
-                          {fmt(display(c.target, c.unit))} {unitLabel(c.unit)}
-                        </td>
-                        <td>
-                          <select
-                            className="input w-full min-w-44 py-1"
-                            aria-label={`Lot of ${c.name}`}
-                            aria-invalid={lotError ? true : undefined}
-                            {...register(`components.${i}.stockLotId` as const, { valueAsNumber: true })}
-                          >
-                            <option value={0}>Choose a lot…</option>
-                            {options.map((l) => {
-                              const expired = lotExpired(l.expiresOn);
-                              return (
-                                <option key={l.id} value={l.id} disabled={expired}>
-                                  {`${l.lotNumber} · ${l.grade} · exp. ${l.expiresOn}${expired ? " · EXPIRED" : l.low ? " · low" : ""}`}
-                                </option>
-                              );
-                            })}
-                          </select>
-                          {options.length === 0 && <p className="field-error">No lot of {c.name} is recorded: add it under Stock lots.</p>}
-                          {lotError && (
-                            <p className="field-error" role="alert">
-                              {lotError === "Pick the lot used" || lotError.startsWith("Expected") ? "Pick the lot used" : lotError}
-                            </p>
-                          )}
-                        </td>
-                        <td className="num">
-                          <input
-                            className="input w-28 py-1 text-right"
-                            inputMode="decimal"
-                            aria-label={`Actual amount of ${c.name} (${unitLabel(c.unit)})`}
-                            value={text}
-                            placeholder={fmt(display(c.target, c.unit))}
-                            aria-invalid={deviantFields.has(field) ? true : undefined}
-                            onChange={(e) => {
-                              setActualText({ ...actualText, [rowKey(i)]: e.target.value });
-                              const n = Number(e.target.value.replace(",", "."));
-                              setValue(
-                                `components.${i}.actualAmount` as const,
-                                e.target.value.trim() !== "" && Number.isFinite(n) ? canonical(n, c.unit) : null,
-                              );
-                            }}
-                          />
-                        </td>
-                      </tr>
-                    );
-                  })}
-                </tbody>
-              </table>
-            </div>
+            <AmountsTable
+              lines={lines}
+              lots={lots}
+              form={form}
+              units={{ liquid: liquidUnit, mass: massUnit }}
+              texts={actualText}
+              onText={(row, text) => setActualText({ ...actualText, [row]: text })}
+              rowKey={rowKey}
+              deviantFields={deviantFields}
+            />
           )}
           {recipe?.spec.buffer && (
             <div className="mt-4 grid gap-4 sm:grid-cols-2">
@@ -430,7 +337,18 @@ export default function PreparationForm({ recipes, lots, tolerances, expiryRules
               </ul>
               <div className="field mt-3">
                 <label htmlFor="prep-reason">Reason for the deviation (printed on the label)</label>
-                <input id="prep-reason" className="input" {...register("deviationReason")} />
+                <input
+                  id="prep-reason"
+                  className="input"
+                  aria-invalid={errors.deviationReason ? true : undefined}
+                  aria-describedby={errors.deviationReason ? "prep-reason-error" : undefined}
+                  {...register("deviationReason")}
+                />
+                {errors.deviationReason && (
+                  <p id="prep-reason-error" className="field-error" role="alert">
+                    {errors.deviationReason.message}
+                  </p>
+                )}
               </div>
             </div>
           )}
@@ -449,72 +367,7 @@ export default function PreparationForm({ recipes, lots, tolerances, expiryRules
       </div>
 
       <aside className="grid content-start gap-4" aria-label="Checks">
-        {plan && (
-          <section className="card p-4 text-sm" aria-labelledby="props-heading">
-            <h2 id="props-heading" className="text-base">
-              The mix
-            </h2>
-            <dl className="mt-2 grid grid-cols-[auto_1fr] gap-x-3 gap-y-1">
-              <dt className="text-[var(--color-muted)]">Final volume</dt>
-              <dd className="num" data-testid="final-volume">
-                {fmt(plan.finalVolume_mL)} mL
-              </dd>
-              <dt className="text-[var(--color-muted)]">Polarity index P′</dt>
-              <dd className="num">{plan.properties.polarityIndex.toFixed(2)}</dd>
-              <dt className="text-[var(--color-muted)]">UV cutoff</dt>
-              <dd className="num">
-                {plan.properties.uvCutoff_nm} nm{recipe?.detection_nm ? ` (detect at ${recipe.detection_nm} nm)` : ""}
-              </dd>
-              {plan.properties.viscosity_cP !== undefined && (
-                <>
-                  <dt className="text-[var(--color-muted)]">Viscosity</dt>
-                  <dd className="num">{plan.properties.viscosity_cP.toFixed(2)} cP at 25 °C</dd>
-                </>
-              )}
-              {plan.buffer && (
-                <>
-                  <dt className="text-[var(--color-muted)]">Buffer pH</dt>
-                  <dd className="num">
-                    {plan.buffer.pH.toFixed(3)} (I = {plan.buffer.ionicStrength_mol_L.toFixed(3)} mol/L)
-                  </dd>
-                </>
-              )}
-              {expiry && (
-                <>
-                  <dt className="text-[var(--color-muted)]">Expires</dt>
-                  <dd className="num" data-testid="expiry-preview">
-                    {expiry.expiresAt.toISOString().slice(0, 16).replace("T", " ")} UTC
-                  </dd>
-                </>
-              )}
-            </dl>
-            {expiry && <p className="mt-2 text-xs text-[var(--color-muted)]">{expiry.reason}</p>}
-          </section>
-        )}
-        {plan && plan.warnings.length > 0 && (
-          <section className="notice text-sm" aria-labelledby="warn-heading">
-            <h2 id="warn-heading" className="text-base">
-              Warnings
-            </h2>
-            <ul className="ml-4 mt-1 list-disc space-y-1" data-testid="chem-warnings">
-              {plan.warnings.map((w) => (
-                <li key={`${w.code}:${w.reagent ?? ""}`}>{w.message}</li>
-              ))}
-            </ul>
-          </section>
-        )}
-        {plan && (
-          <section className="notice notice-danger text-sm" aria-labelledby="caution-heading">
-            <h2 id="caution-heading" className="text-base">
-              Cautions
-            </h2>
-            <ul className="ml-4 mt-1 list-disc space-y-1">
-              {plan.cautions.map((c) => (
-                <li key={c}>{c}</li>
-              ))}
-            </ul>
-          </section>
-        )}
+        {plan && <PreparationChecks plan={plan} detection_nm={recipe?.detection_nm ?? null} expiry={expiry} />}
         <div id="prep-status" aria-live="polite">
           {serverError && (
             <p className="notice notice-danger" role="alert">

@@ -2,7 +2,7 @@ import { useState } from "react";
 import type { PreparationSettings } from "../../lib/schemas/preparation";
 import { preparationSettingsSchema } from "../../lib/schemas/preparation";
 import { formatZodError } from "../../lib/schemas/zod-error";
-import { postJson } from "../forms/post-json";
+import { errorMessage, postJson } from "../forms/post-json";
 import { IslandForm } from "../forms/island-form";
 
 /** Expiry rules, deviation tolerances and label stocks, for a manager. */
@@ -30,7 +30,7 @@ export default function PreparationSettingsForm({ initial }: { initial: Preparat
       await postJson("/api/settings/preparation", parsed.data, "PUT");
       setMessage({ ok: true, text: "Saved. New batches use these settings; batches already made keep their expiry." });
     } catch (e) {
-      setMessage({ ok: false, text: e instanceof Error ? e.message : String(e) });
+      setMessage({ ok: false, text: errorMessage(e) });
     }
   }
 

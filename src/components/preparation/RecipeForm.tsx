@@ -6,6 +6,7 @@ import { LoadBoundary } from "../common/LoadBoundary";
 import { Field, useZodForm } from "../forms/form";
 import { IslandForm } from "../forms/island-form";
 import { postJson } from "../forms/post-json";
+import { useServerErrors } from "../forms/server-errors";
 
 // The chemistry behind the preview, the reagent catalogue and zod would take the page past its
 // JavaScript budget: they load after the form is up (the preview) or at its first check (the schema).
@@ -34,16 +35,17 @@ const EMPTY: RecipeInput = {
 export default function RecipeForm({ choices, recipeId, initial, makesNewVersion = false }: Props) {
   const form = useZodForm<RecipeInput>(loadRecipeSchema, { defaultValues: initial ?? EMPTY });
   const { register, control, handleSubmit, watch, setValue, formState } = form;
+  const showServerError = useServerErrors(form);
   const solvents = useFieldArray({ control, name: "spec.solvents" });
   const additives = useFieldArray({ control, name: "spec.additives" });
-  const [error, setError] = useState<string | null>(null);
+  const [problem, setProblem] = useState<string | null>(null);
   const [saving, setSaving] = useState(false);
   const spec = watch("spec");
   const hasBuffer = Boolean(spec.buffer);
   const errors = formState.errors;
 
   const onSubmit = handleSubmit(async (values) => {
-    setError(null);
+    setProblem(null);
     setSaving(true);
     try {
       const result = recipeId
@@ -51,7 +53,7 @@ export default function RecipeForm({ choices, recipeId, initial, makesNewVersion
         : await postJson<{ recipe: { id: number } }>("/api/recipes", values);
       window.location.assign(`/recipes/${result.recipe.id}?saved=1`);
     } catch (e) {
-      setError(e instanceof Error ? e.message : String(e));
+      setProblem(showServerError(e));
       setSaving(false);
     }
   });
@@ -300,9 +302,9 @@ export default function RecipeForm({ choices, recipeId, initial, makesNewVersion
             from it. Batches already made keep their version.
           </p>
         )}
-        {error && (
+        {problem && (
           <p className="notice notice-danger" role="alert">
-            {error}
+            {problem}
           </p>
         )}
         <button type="submit" className="btn justify-center" disabled={saving}>

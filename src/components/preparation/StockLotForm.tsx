@@ -1,15 +1,20 @@
 import { useState } from "react";
-import { reagents } from "../../lib/chem";
-import { stockLotInputSchema, type StockLotInput } from "../../lib/schemas/stock-lots";
+import type { LotReagentChoice } from "../../lib/preparation/recipe-choices";
+import type { StockLotInput } from "../../lib/schemas/stock-lots";
 import { Field, useZodForm } from "../forms/form";
 import { IslandForm } from "../forms/island-form";
+import { readAnswer } from "../forms/post-json";
+import { useServerErrors } from "../forms/server-errors";
 
 const MAX_MB = 10;
 
+// The schema checks the reagent against the catalogue: both load at the form's first check, not with the page.
+const loadLotSchema = () => import("../../lib/schemas/stock-lots").then((m) => m.stockLotInputSchema);
+
 /** Records a lot as received, with its certificate of analysis (PDF or image). */
-export default function StockLotForm() {
+export default function StockLotForm({ reagents }: { reagents: LotReagentChoice[] }) {
   const today = new Date().toISOString().slice(0, 10);
-  const form = useZodForm<StockLotInput>(stockLotInputSchema, {
+  const form = useZodForm<StockLotInput>(loadLotSchema, {
     defaultValues: {
       reagent: "acetonitrile",
       lotNumber: "",
@@ -21,24 +26,25 @@ export default function StockLotForm() {
     },
   });
   const { register, handleSubmit, formState, watch } = form;
+  const showServerError = useServerErrors(form);
   const [file, setFile] = useState<File | null>(null);
-  const [error, setError] = useState<string | null>(null);
+  const [problem, setProblem] = useState<string | null>(null);
   const [saving, setSaving] = useState(false);
   const reagent = reagents.find((r) => r.id === watch("reagent"));
   const errors = formState.errors;
 
   const onSubmit = handleSubmit(async (values) => {
-    setError(null);
-    if (file && file.size > MAX_MB * 1048576) return setError(`certificate: the file is over ${MAX_MB} MB`);
+    setProblem(null);
+    if (file && file.size > MAX_MB * 1048576) return setProblem(`certificate: the file is over ${MAX_MB} MB`);
     setSaving(true);
     const body = new FormData();
     for (const [k, v] of Object.entries(values)) if (v !== undefined && v !== null) body.set(k, String(v));
     if (file) body.set("certificate", file);
-    const response = await fetch("/api/stock-lots", { method: "POST", body });
-    const data = (await response.json().catch(() => ({}))) as { error?: string };
-    if (response.ok) window.location.assign("/stock-lots?added=1");
-    else {
-      setError(data.error ?? `The request failed (${response.status}).`);
+    try {
+      await readAnswer(await fetch("/api/stock-lots", { method: "POST", body }));
+      window.location.assign("/stock-lots?added=1");
+    } catch (error) {
+      setProblem(showServerError(error));
       setSaving(false);
     }
   });
@@ -90,9 +96,9 @@ export default function StockLotForm() {
         <button type="submit" className="btn" disabled={saving}>
           {saving ? "Saving…" : "Record the lot"}
         </button>
-        {error && (
+        {problem && (
           <p className="field-error" role="alert">
-            {error}
+            {problem}
           </p>
         )}
       </div>

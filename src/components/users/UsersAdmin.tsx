@@ -1,11 +1,11 @@
 import { useMemo, useState } from "react";
 import { formatDateTime } from "../../lib/format";
 import { ROLE_LABELS, ROLES, type Role } from "../../lib/permissions";
-import { inviteUserSchema, type InviteUserInput } from "../../lib/schemas/auth";
-import type { ClientOption, UserRow } from "../../lib/server/services/users";
-import { Field, SelectField, useZodForm } from "../forms/form";
-import { HydratedControls, IslandForm } from "../forms/island-form";
-import { postJson } from "../forms/post-json";
+import type { ClientOption, UserRow } from "../../lib/users/types";
+import { HydratedControls } from "../forms/island-form";
+import { errorMessage, postJson } from "../forms/post-json";
+import { InviteForm } from "./InviteForm";
+import { RoleEditor } from "./RoleEditor";
 
 interface Props {
   users: UserRow[];
@@ -47,162 +47,6 @@ async function refreshUsers(): Promise<UserRow[]> {
   return ((await response.json()) as { items: UserRow[] }).items;
 }
 
-function roleOptions(actorRole: Role) {
-  return ROLES.filter((r) => actorRole === "admin" || r !== "admin").map((r) => ({ value: r, label: ROLE_LABELS[r] }));
-}
-
-function InviteForm({
-  clients,
-  actorRole,
-  onInvited,
-}: {
-  clients: ClientOption[];
-  actorRole: Role;
-  onInvited: (message: string, warning: boolean) => Promise<void>;
-}) {
-  const { register, handleSubmit, formState, watch, reset } = useZodForm<InviteUserInput>(inviteUserSchema, {
-    defaultValues: { role: "technician" },
-  });
-  const [problem, setProblem] = useState<string | null>(null);
-  const role = watch("role");
-
-  const onSubmit = handleSubmit(async (values) => {
-    setProblem(null);
-    try {
-      const result = await postJson<{ user: UserRow; mailSent: boolean }>("/api/users", values);
-      reset({ email: "", name: "", role: values.role });
-      await onInvited(
-        result.mailSent
-          ? `Invitation sent to ${result.user.email}.`
-          : `${result.user.email} was added, but the invitation could not be mailed. Use "Send link" once mail works.`,
-        !result.mailSent,
-      );
-    } catch (error) {
-      setProblem(error instanceof Error ? error.message : String(error));
-    }
-  });
-
-  return (
-    <IslandForm
-      method="post"
-      onSubmit={onSubmit}
-      noValidate
-      aria-label="Invite a person"
-      className="card grid gap-4 p-5 sm:grid-cols-2 [&>fieldset>*]:min-w-0 [&_.input]:w-full [&_.input]:min-w-0"
-    >
-      <Field label="Name" autoComplete="off" registration={register("name")} error={formState.errors.name?.message} />
-      <Field
-        label="E-mail address"
-        type="email"
-        autoComplete="off"
-        registration={register("email")}
-        error={formState.errors.email?.message}
-      />
-      <SelectField label="Role" registration={register("role")} options={roleOptions(actorRole)} error={formState.errors.role?.message} />
-      {role === "client" ? (
-        <SelectField
-          label="Client organisation"
-          registration={register("clientId")}
-          placeholder="Choose…"
-          options={clients.map((c) => ({ value: c.id, label: `${c.name}${c.kind === "internal" ? " (internal)" : ""}` }))}
-          error={formState.errors.clientId?.message}
-        />
-      ) : (
-        <p className="self-end text-sm text-[var(--color-muted)]">Only client contacts belong to a client organisation.</p>
-      )}
-      {problem && (
-        <p className="notice notice-danger sm:col-span-2" role="alert">
-          {problem}
-        </p>
-      )}
-      <div className="sm:col-span-2">
-        <button className="btn" type="submit" disabled={formState.isSubmitting}>
-          {formState.isSubmitting ? "Sending…" : "Send invitation"}
-        </button>
-        <span className="ml-3 text-sm text-[var(--color-muted)]">The link in the e-mail works once, for 48 hours.</span>
-      </div>
-    </IslandForm>
-  );
-}
-
-function RoleEditor({
-  user,
-  clients,
-  actorRole,
-  onDone,
-  onCancel,
-}: {
-  user: UserRow;
-  clients: ClientOption[];
-  actorRole: Role;
-  onDone: (u: UserRow) => Promise<void>;
-  onCancel: () => void;
-}) {
-  const [role, setRole] = useState<Role>(user.role);
-  const [clientId, setClientId] = useState<string>(user.clientId ? String(user.clientId) : "");
-  const [problem, setProblem] = useState<string | null>(null);
-  const [busy, setBusy] = useState(false);
-
-  async function save() {
-    setProblem(null);
-    setBusy(true);
-    try {
-      const { user: updated } = await postJson<{ user: UserRow }>(
-        `/api/users/${user.id}`,
-        { role, clientId: role === "client" ? clientId : null },
-        "PATCH",
-      );
-      await onDone(updated);
-    } catch (error) {
-      setProblem(error instanceof Error ? error.message : String(error));
-    } finally {
-      setBusy(false);
-    }
-  }
-
-  return (
-    <div className="flex flex-wrap items-end gap-3" role="group" aria-label={`Change the role of ${user.name}`}>
-      <div className="field">
-        <label htmlFor={`role-${user.id}`}>New role</label>
-        <select id={`role-${user.id}`} className="input" value={role} onChange={(e) => setRole(e.target.value as Role)}>
-          {roleOptions(actorRole).map((o) => (
-            <option key={o.value} value={o.value}>
-              {o.label}
-            </option>
-          ))}
-        </select>
-      </div>
-      {role === "client" && (
-        <div className="field">
-          <label htmlFor={`client-${user.id}`}>Client organisation</label>
-          <select id={`client-${user.id}`} className="input" value={clientId} onChange={(e) => setClientId(e.target.value)}>
-            <option value="">Choose…</option>
-            {clients.map((c) => (
-              <option key={c.id} value={c.id}>
-                {c.name}
-              </option>
-            ))}
-          </select>
-        </div>
-      )}
-      <button className="btn" type="button" onClick={save} disabled={busy}>
-        Save role
-      </button>
-      <button className="btn btn-quiet" type="button" onClick={onCancel}>
-        Cancel
-      </button>
-      <p className="w-full text-xs text-[var(--color-muted)]">
-        Changing the role signs {user.name} out everywhere, so the new role applies at once.
-      </p>
-      {problem && (
-        <p className="notice notice-danger w-full" role="alert">
-          {problem}
-        </p>
-      )}
-    </div>
-  );
-}
-
 export default function UsersAdmin({ users: initial, clients, actor }: Props) {
   const [users, setUsers] = useState(initial);
   const [sort, setSort] = useState<{ key: SortKey; ascending: boolean }>({ key: "name", ascending: true });
@@ -221,17 +65,17 @@ export default function UsersAdmin({ users: initial, clients, actor }: Props) {
     try {
       setUsers(await refreshUsers());
     } catch (error) {
-      setNotice({ text: error instanceof Error ? error.message : String(error), warning: true });
+      setNotice({ text: errorMessage(error), warning: true });
     }
   }
 
-  async function act(user: UserRow, request: () => Promise<unknown>, success: string) {
+  async function act(request: () => Promise<unknown>, success: string) {
     setNotice(null);
     try {
       await request();
       await reload(success);
     } catch (error) {
-      setNotice({ text: error instanceof Error ? error.message : String(error), warning: true });
+      setNotice({ text: errorMessage(error), warning: true });
     }
   }
 
@@ -319,7 +163,6 @@ export default function UsersAdmin({ users: initial, clients, actor }: Props) {
                           onClick={() => {
                             setConfirming(null);
                             void act(
-                              u,
                               () => postJson(`/api/users/${u.id}`, { active: false }, "PATCH"),
                               `${u.name} is deactivated and signed out.`,
                             );
@@ -363,7 +206,7 @@ export default function UsersAdmin({ users: initial, clients, actor }: Props) {
                             className={SMALL}
                             type="button"
                             onClick={() =>
-                              void act(u, () => postJson(`/api/users/${u.id}`, { active: true }, "PATCH"), `${u.name} is active again.`)
+                              void act(() => postJson(`/api/users/${u.id}`, { active: true }, "PATCH"), `${u.name} is active again.`)
                             }
                             aria-label={`Reactivate ${u.name}`}
                           >
@@ -376,7 +219,6 @@ export default function UsersAdmin({ users: initial, clients, actor }: Props) {
                             type="button"
                             onClick={() =>
                               void act(
-                                u,
                                 () => postJson(`/api/users/${u.id}/link`, {}),
                                 u.invited ? `A new invitation is on its way to ${u.email}.` : `A reset link is on its way to ${u.email}.`,
                               )

@@ -3,10 +3,13 @@ import { collectionSchema, type CollectionInput } from "../../lib/schemas/waste"
 import { Field, useZodForm } from "../forms/form";
 import { IslandForm } from "../forms/island-form";
 import { postJson } from "../forms/post-json";
+import { useServerErrors } from "../forms/server-errors";
 
 /** Records that a requested pickup was collected, with the manifest or reference number. */
 export default function CollectionForm({ pickupId, reference }: { pickupId: number; reference: string }) {
-  const { register, handleSubmit, formState } = useZodForm<CollectionInput>(collectionSchema, { defaultValues: { note: null } });
+  const form = useZodForm<CollectionInput>(collectionSchema, { defaultValues: { note: null } });
+  const { register, handleSubmit, formState } = form;
+  const showServerError = useServerErrors(form);
   const [problem, setProblem] = useState<string | null>(null);
   const onSubmit = handleSubmit(async (values) => {
     setProblem(null);
@@ -14,7 +17,7 @@ export default function CollectionForm({ pickupId, reference }: { pickupId: numb
       await postJson(`/api/waste/pickups/${pickupId}/collection`, { ...values, note: values.note || null });
       window.location.reload();
     } catch (error) {
-      setProblem(error instanceof Error ? error.message : String(error));
+      setProblem(showServerError(error));
     }
   });
   return (

@@ -4,6 +4,7 @@ import { Field, SelectField, useZodForm } from "../forms/form";
 import { IslandForm } from "../forms/island-form";
 import { postJson } from "../forms/post-json";
 import type { ContainerView, InstrumentChoice, StreamView } from "../../lib/waste/types";
+import { useServerErrors } from "../forms/server-errors";
 
 interface Props {
   /** Editing this container; creating a new one when absent. */
@@ -17,9 +18,11 @@ const LOCATION_LABELS = { room: "In the room", satellite_area: "Satellite accumu
 const orNull = (v: unknown) => (typeof v === "string" && v.trim() === "" ? null : v);
 
 export default function ContainerForm({ containerId, initial = {}, streams, instruments }: Props) {
-  const { register, handleSubmit, formState } = useZodForm<ContainerInput>(containerSchema, {
+  const form = useZodForm<ContainerInput>(containerSchema, {
     defaultValues: { locationKind: "instrument", locationNote: null, instrumentId: null, ...initial },
   });
+  const { register, handleSubmit, formState } = form;
+  const showServerError = useServerErrors(form);
   const [problem, setProblem] = useState<string | null>(null);
   const onSubmit = handleSubmit(async (values) => {
     setProblem(null);
@@ -31,7 +34,7 @@ export default function ContainerForm({ containerId, initial = {}, streams, inst
       );
       window.location.assign(`/waste/containers/${container.id}`);
     } catch (error) {
-      setProblem(error instanceof Error ? error.message : String(error));
+      setProblem(showServerError(error));
     }
   });
   const e = formState.errors;

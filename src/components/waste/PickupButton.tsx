@@ -1,6 +1,7 @@
 import { useState } from "react";
 import { postJson } from "../forms/post-json";
 import type { PickupView } from "../../lib/waste/types";
+import { errorMessage, postJson } from "../forms/post-json";
 
 /** Requests a pickup for one or more containers, after a confirmation step with an optional note. */
 export default function PickupButton({
@@ -42,7 +43,7 @@ export default function PickupButton({
       setDone(`Pickup ${pickup.reference} requested for ${codes.join(", ")}.`);
       window.setTimeout(() => window.location.reload(), 1200);
     } catch (error) {
-      setProblem(error instanceof Error ? error.message : String(error));
+      setProblem(errorMessage(error));
     } finally {
       setBusy(false);
     }

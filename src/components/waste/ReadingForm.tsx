@@ -4,10 +4,13 @@ import { Field, useZodForm } from "../forms/form";
 import { IslandForm } from "../forms/island-form";
 import { postJson } from "../forms/post-json";
 import type { ReadingResult } from "../../lib/waste/types";
+import { useServerErrors } from "../forms/server-errors";
 
 /** A manual level reading. The answer shows the difference from Decant's estimate, which is kept. */
 export default function ReadingForm({ containerId, estimated_mL }: { containerId: number; estimated_mL: number }) {
-  const { register, handleSubmit, formState, reset } = useZodForm<ReadingInput>(readingSchema, { defaultValues: { note: null } });
+  const form = useZodForm<ReadingInput>(readingSchema, { defaultValues: { note: null } });
+  const { register, handleSubmit, formState, reset } = form;
+  const showServerError = useServerErrors(form);
   const [problem, setProblem] = useState<string | null>(null);
   const [result, setResult] = useState<string | null>(null);
   const onSubmit = handleSubmit(async (values) => {
@@ -22,7 +25,7 @@ export default function ReadingForm({ containerId, estimated_mL }: { containerId
       reset({ note: null });
       window.setTimeout(() => window.location.reload(), 1500);
     } catch (error) {
-      setProblem(error instanceof Error ? error.message : String(error));
+      setProblem(showServerError(error));
     }
   });
   return (

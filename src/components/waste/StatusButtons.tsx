@@ -1,6 +1,7 @@
 import { useState } from "react";
 import { postJson } from "../forms/post-json";
 import type { ContainerStatus } from "../../lib/waste/types";
+import { errorMessage, postJson } from "../forms/post-json";
 
 /** Marks a container full (it then takes no more runs) or back in use. */
 export default function StatusButtons({
@@ -20,7 +21,7 @@ export default function StatusButtons({
       await postJson(`/api/waste/containers/${containerId}/status`, { status: next });
       window.location.reload();
     } catch (error) {
-      setProblem(error instanceof Error ? error.message : String(error));
+      setProblem(errorMessage(error));
       setBusy(false);
     }
   };

@@ -5,6 +5,7 @@ import { Field, useZodForm } from "../forms/form";
 import { IslandForm } from "../forms/island-form";
 import { postJson } from "../forms/post-json";
 import type { StreamRule } from "../../lib/waste/types";
+import { useServerErrors } from "../forms/server-errors";
 
 // The form edits "also accepts" as a comma-separated list; the API takes an array.
 const formSchema = streamSchema.extend({ alsoAccepts: z.string().max(400).default("") });
@@ -20,11 +21,13 @@ interface Props {
 const orNull = (v: unknown) => (v === "" || v === null || v === undefined ? null : v);
 
 export default function StreamForm({ stream, defaults = null }: Props) {
-  const { register, handleSubmit, formState } = useZodForm<FormValues>(formSchema, {
+  const form = useZodForm<FormValues>(formSchema, {
     defaultValues: stream
       ? { ...stream, alsoAccepts: stream.alsoAccepts?.join(", ") ?? "" }
       : { id: "", name: "", description: null, restrictiveness: 1, minShare_percent: null, alsoAccepts: "" },
   });
+  const { register, handleSubmit, formState } = form;
+  const showServerError = useServerErrors(form);
   const [problem, setProblem] = useState<string | null>(null);
   const [saved, setSaved] = useState(false);
   const onSubmit = handleSubmit(async (values) => {
@@ -47,7 +50,7 @@ export default function StreamForm({ stream, defaults = null }: Props) {
       setSaved(true);
       window.setTimeout(() => window.location.reload(), 600);
     } catch (error) {
-      setProblem(error instanceof Error ? error.message : String(error));
+      setProblem(showServerError(error));
     }
   });
   const e = formState.errors;

@@ -5,6 +5,7 @@ import { Field, useZodForm } from "../forms/form";
 import { IslandForm } from "../forms/island-form";
 import { postJson } from "../forms/post-json";
 import type { WasteSettings } from "../../lib/waste/types";
+import { useServerErrors } from "../forms/server-errors";
 
 // Room limits and reagent overrides are edited as "key = value" lines; the API takes objects.
 const lines = z.string().max(4000).default("");
@@ -39,7 +40,7 @@ interface Props {
 }
 
 export default function WasteSettingsForm({ settings }: Props) {
-  const { register, handleSubmit, formState } = useZodForm<FormValues>(formSchema, {
+  const form = useZodForm<FormValues>(formSchema, {
     defaultValues: {
       ...settings,
       roomLimits: Object.entries(settings.roomLimits_L)
@@ -50,6 +51,8 @@ export default function WasteSettingsForm({ settings }: Props) {
         .join("\n"),
     },
   });
+  const { register, handleSubmit, formState } = form;
+  const showServerError = useServerErrors(form);
   const [problem, setProblem] = useState<string | null>(null);
   const [saved, setSaved] = useState(false);
   const onSubmit = handleSubmit(async (values) => {
@@ -66,13 +69,8 @@ export default function WasteSettingsForm({ settings }: Props) {
       await postJson("/api/waste/settings", body, "PUT");
       setSaved(true);
     } catch (error) {
-      const message =
-        error instanceof z.ZodError
-          ? error.issues.map((i) => `${i.path.join(".")}: ${i.message}`).join("; ")
-          : error instanceof Error
-            ? error.message
-            : String(error);
-      setProblem(message);
+      // A refusal from the server, a line that does not parse, or the API schema's complaint.
+      setProblem(showServerError(error));
     }
   });
   const e = formState.errors;

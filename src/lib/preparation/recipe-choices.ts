@@ -3,7 +3,7 @@
  * handed to the island as props, so the island's first load needs ids and names, not the catalogue.
  */
 import { ADDITIVE_UNITS, type AdditiveUnit } from "../chem/additive-units";
-import { reagents } from "../chem/reagents";
+import { reagents, type PhysicalForm } from "../chem/reagents";
 
 export interface ReagentChoice {
   id: string;
@@ -26,4 +26,13 @@ export function recipeChoices(): RecipeChoices {
     solutes: reagents.filter((r) => r.role !== "solvent").map(choice),
     additiveUnits: ADDITIVE_UNITS,
   };
+}
+
+/** A reagent the stock-lot form offers: any reagent of the catalogue, as received. */
+export interface LotReagentChoice extends ReagentChoice {
+  form: PhysicalForm;
+}
+
+export function lotReagentChoices(): LotReagentChoice[] {
+  return reagents.map((r) => ({ id: r.id, name: r.name, form: r.form }));
 }

@@ -1,5 +1,6 @@
 import { z } from "zod";
 import { ROLES } from "../permissions";
+import { id, optionalId } from "./fields";
 
 export const email = z
   .string({ required_error: "Enter your e-mail address", invalid_type_error: "must be text" })
@@ -52,12 +53,6 @@ export type SetPasswordInput = z.infer<typeof setPasswordSchema>;
 export const forgotPasswordSchema = z.object({ email });
 export type ForgotPasswordInput = z.infer<typeof forgotPasswordSchema>;
 
-/** A form's empty choice ("" or null) means "none". */
-const optionalId = z.preprocess(
-  (v) => (v === "" || v === null ? undefined : v),
-  z.coerce.number({ invalid_type_error: "must be a number" }).int("must be a whole number").positive("must be a positive id").optional(),
-);
-
 const role = z.enum(ROLES, { errorMap: () => ({ message: `Choose one of ${ROLES.join(", ")}` }) });
 
 /** `POST /api/users`: invite a person by e-mail. */
@@ -68,7 +63,7 @@ export const inviteUserSchema = z
     name: z.string({ required_error: "Enter a name" }).trim().min(1, "Enter a name").max(120, "is too long"),
     role,
     /** Required for client contacts (and ignored for other roles): the organisation they belong to. */
-    clientId: optionalId,
+    clientId: optionalId("must be a positive id"),
   })
   .refine((v) => v.role !== "client" || v.clientId !== undefined, {
     path: ["clientId"],
@@ -81,7 +76,7 @@ export const updateUserSchema = z
   .object({
     role: role.optional(),
     /** The organisation of a client contact; required when the role becomes `client`. */
-    clientId: z.preprocess((v) => (v === "" ? null : v), z.coerce.number().int().positive("must be a positive id").nullable().optional()),
+    clientId: z.preprocess((v) => (v === "" ? null : v), id("must be a positive id").nullable().optional()),
     /** false deactivates the account and ends its sessions at once; true reactivates it. */
     active: z.boolean({ invalid_type_error: "must be true or false" }).optional(),
   })
@@ -91,12 +86,3 @@ export const updateUserSchema = z
     message: "Say what to change: role, clientId or active",
   });
 export type UpdateUserInput = z.infer<typeof updateUserSchema>;
-
-/** A numeric id in a route such as `/api/users/{id}`. */
-export const idParam = z.coerce
-  .number({ invalid_type_error: "must be a number" })
-  .int("must be a whole number")
-  .positive("must be a positive id");
-
-/** Route parameters of `/api/users/{id}` and the like. */
-export const idParams = z.object({ id: idParam });

@@ -1,13 +1,5 @@
 import { z } from "zod";
-
-const day = (name: string) =>
-  z
-    .string({ required_error: "is required" })
-    .regex(/^\d{4}-\d{2}-\d{2}$/, `${name} must be a date YYYY-MM-DD`)
-    .refine(
-      (s) => !Number.isNaN(Date.parse(`${s}T00:00:00Z`)) && new Date(`${s}T00:00:00Z`).toISOString().startsWith(s),
-      `${name} is not a real date`,
-    );
+import { day, id } from "./fields";
 
 /** A new rate. Rates are never edited; a later effective-from supersedes the old price. */
 export const rateInput = z
@@ -33,7 +25,7 @@ export const rateInput = z
     /** ISO 4217 code. */
     currency: z.string().regex(/^[A-Z]{3}$/, "Use a three-letter currency code such as EUR"),
     /** First day the price applies (UTC). */
-    effectiveFrom: day("effectiveFrom"),
+    effectiveFrom: day(),
   })
   .strict()
   .superRefine((rate, ctx) => {
@@ -51,9 +43,9 @@ export type RateInput = z.infer<typeof rateInput>;
 /** A client's period; months by default. */
 export const statementOpenInput = z
   .object({
-    clientId: z.number({ invalid_type_error: "Choose a client" }).int().positive(),
-    periodStart: day("periodStart"),
-    periodEnd: day("periodEnd"),
+    clientId: id("Choose a client"),
+    periodStart: day(),
+    periodEnd: day(),
   })
   .strict()
   .refine((p) => p.periodEnd >= p.periodStart, { path: ["periodEnd"], message: "periodEnd must be on or after periodStart" });
@@ -76,7 +68,5 @@ export const monthQuery = z.object({
 
 /** `?from=&to=` for the chargeback journal. */
 export const journalQuery = z
-  .object({ from: day("from"), to: day("to") })
+  .object({ from: day(), to: day() })
   .refine((q) => q.to >= q.from, { path: ["to"], message: "to must be on or after from" });
-
-export const idParam = z.coerce.number({ invalid_type_error: "id must be a number" }).int().positive("id must be a positive number");

@@ -7,8 +7,15 @@ export const id = (label = "Choose one") =>
     z.coerce.number({ required_error: label, invalid_type_error: label }).int(label).positive(label),
   );
 
-export const optionalId = () =>
-  z.preprocess((v) => (v === "" || v === null ? undefined : v), z.coerce.number().int().positive().optional());
+/** `{id}` in a route path, e.g. `/api/batches/{id}`: `validate(params, idParam)`, `idParam.safeParse(Astro.params)`. */
+export const idParam = z.object({ id: id("must be a positive whole number") });
+
+/** Like `id`, but "" and null leave it out. */
+export const optionalId = (label = "must be a positive whole number") =>
+  z.preprocess(
+    (v) => (v === "" || v === null ? undefined : v),
+    z.coerce.number({ invalid_type_error: label }).int(label).positive(label).optional(),
+  );
 
 /** A number typed into a field (forms send text). */
 export const amount = (options: { min?: number; max?: number; label?: string } = {}) =>
@@ -52,10 +59,13 @@ export const instant = (label = "Enter a date and time") =>
       .max(new Date(Date.UTC(LAST_YEAR + 1, 0, 1) - 1), `must be in ${LAST_YEAR} or earlier`),
   );
 
-/** A day, YYYY-MM-DD, that exists in the calendar, in FIRST_YEAR…LAST_YEAR. */
-export const day = (label: string) =>
+/**
+ * A day, YYYY-MM-DD, that exists in the calendar, in FIRST_YEAR…LAST_YEAR. `label` is the message
+ * when the day is missing (like `id` and `instant`); the API prefixes every message with the field.
+ */
+export const day = (label = "give a day as YYYY-MM-DD") =>
   z
-    .string({ required_error: `${label}: give a day as YYYY-MM-DD` })
+    .string({ required_error: label })
     .regex(/^\d{4}-\d{2}-\d{2}$/, "give a day as YYYY-MM-DD")
     .refine(
       (v) => !Number.isNaN(Date.parse(`${v}T00:00:00Z`)) && new Date(`${v}T00:00:00Z`).toISOString().startsWith(v),

@@ -1,12 +1,12 @@
 import { z } from "zod";
-import { optionalId } from "./fields";
+import { id, optionalId } from "./fields";
 
 /** `POST /api/ledger/corrections`: reverse entries (never edit them). */
 export const correctionSchema = z
   .object({
     /** The entries to reverse. */
     entryIds: z
-      .array(z.coerce.number().int().positive(), { invalid_type_error: "must be a list of entry ids" })
+      .array(id("must be an entry id"), { invalid_type_error: "must be a list of entry ids" })
       .max(500, "at most 500 entries at once")
       .default([]),
     /** Or every entry a run wrote that is not yet reversed. */

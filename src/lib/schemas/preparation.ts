@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { id, idempotencyKey, idParam } from "./fields";
 import { MIXTURE_KINDS } from "../preparation/expiry";
 import { labelStockListSchema } from "./labels";
 
@@ -51,8 +52,8 @@ const amount = z.preprocess(
 export const batchCreateSchema = z
   .object({
     /** Made once per form; a second submit with the same key answers the batch already recorded. */
-    idempotencyKey: z.string().regex(/^[A-Za-z0-9_-]{8,80}$/, "idempotencyKey: 8–80 letters, digits, - or _"),
-    recipeVersionId: z.coerce.number({ invalid_type_error: "Pick a recipe" }).int().positive("Pick a recipe"),
+    idempotencyKey,
+    recipeVersionId: id("Pick a recipe"),
     volume_mL: z.coerce
       .number({ invalid_type_error: "Give the batch volume" })
       .positive("The batch volume must be more than 0")
@@ -86,7 +87,7 @@ export const batchCreateSchema = z
         z.object({
           reagent: z.string().min(1).max(64),
           /** The stock lot it came from; required for every component. */
-          stockLotId: z.coerce.number({ invalid_type_error: "Pick the lot used" }).int().positive("Pick the lot used"),
+          stockLotId: id("Pick the lot used"),
           /** What was actually weighed or measured, in mL (liquids) or g (solids). */
           actualAmount: amount.optional(),
         }),
@@ -123,9 +124,6 @@ export const bottleUpdateSchema = z
 
 export const batchLookupQuery = z.object({ code: z.string().trim().min(2, "Type or scan a batch code").max(40) }).strict();
 
-/** A numeric id in a route, e.g. `/api/batches/{id}`. */
-export const idParam = z.coerce
-  .number({ invalid_type_error: "id must be a number" })
-  .int("id must be a whole number")
-  .positive("id must be positive");
+/** `/api/batches/{id}/bottles/{number}`. */
+export const bottleParams = idParam.extend({ number: id("must be a positive whole number") });
 export const approveSchema = z.object({ version: z.coerce.number().int().positive("version: give the version you reviewed") }).strict();

@@ -1,11 +1,6 @@
 import { z } from "zod";
-import { getReagent } from "../chem";
-
-const isoDate = (what: string) =>
-  z
-    .string({ required_error: `Give the ${what} date` })
-    .regex(/^\d{4}-\d{2}-\d{2}$/, `${what}: a date as YYYY-MM-DD`)
-    .refine((d) => !Number.isNaN(Date.parse(`${d}T00:00:00Z`)), `${what}: not a real date`);
+import { getReagent } from "../chem/reagents";
+import { day } from "./fields";
 const blankToUndefined = (v: unknown) => (v === "" || v === null ? undefined : v);
 
 /** A stock lot as received (multipart form fields of `POST /api/stock-lots`). */
@@ -19,9 +14,9 @@ export const stockLotInputSchema = z
     lotNumber: z.string({ required_error: "Give the lot number" }).trim().min(1, "Give the lot number").max(64, "At most 64 characters"),
     supplier: z.string({ required_error: "Name the supplier" }).trim().min(1, "Name the supplier").max(120),
     grade: z.string({ required_error: "Give the grade" }).trim().min(1, "Give the grade, e.g. HPLC or LC-MS").max(40),
-    receivedOn: isoDate("received"),
-    openedOn: z.preprocess(blankToUndefined, isoDate("opened").optional()),
-    expiresOn: isoDate("expiry"),
+    receivedOn: day("Give the date received"),
+    openedOn: z.preprocess(blankToUndefined, day().optional()),
+    expiresOn: day("Give the expiry date"),
     /** In mL for liquids, g for solids. */
     quantity: z.coerce.number({ invalid_type_error: "Quantity must be a number" }).positive("Quantity must be more than 0").max(10_000_000),
     remaining: z.preprocess(

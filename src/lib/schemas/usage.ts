@@ -9,8 +9,8 @@ export { USAGE_GROUPINGS, type UsageGrouping };
 /** `GET /api/usage`: a period (both days included, UTC) and a grouping. */
 export const usageQuery = z
   .object({
-    from: day("from"),
-    to: day("to"),
+    from: day(),
+    to: day(),
     groupBy: z.enum(USAGE_GROUPINGS, { errorMap: () => ({ message: `must be one of ${USAGE_GROUPINGS.join(", ")}` }) }).default("project"),
     /** "1": add each project's mobile-phase volumes to the project grouping (the other groupings always have them). */
     phases: z.enum(["0", "1"], { errorMap: () => ({ message: "must be 0 or 1" }) }).optional(),

@@ -1,21 +1,13 @@
 import { z } from "zod";
-
-const isoDay = (field: string) =>
-  z
-    .string({ required_error: `give ${field} as YYYY-MM-DD` })
-    .regex(/^\d{4}-\d{2}-\d{2}$/, `use YYYY-MM-DD`)
-    .refine(
-      (s) => !Number.isNaN(Date.parse(`${s}T00:00:00Z`)) && new Date(`${s}T00:00:00Z`).toISOString().startsWith(s),
-      "not a calendar date",
-    );
+import { day, id, instant } from "./fields";
 
 /** `GET /api/waste/summary` and the waste page's period. Both ends inclusive, UTC days. */
 export const wastePeriodQuery = z
   .object({
     /** First day of the period. */
-    from: isoDay("from"),
+    from: day(),
     /** Last day of the period (inclusive). */
-    to: isoDay("to"),
+    to: day(),
   })
   .strict()
   .refine((p) => p.from <= p.to, { path: ["to"], message: "must be on or after from" })
@@ -27,7 +19,7 @@ export type WastePeriodQuery = z.infer<typeof wastePeriodQuery>;
 
 /** `GET /api/waste/report` (CSV or PDF of a period). */
 export const wasteReportQuery = z
-  .object({ from: isoDay("from"), to: isoDay("to"), format: z.enum(["csv", "pdf", "json"]).default("json") })
+  .object({ from: day(), to: day(), format: z.enum(["csv", "pdf", "json"]).default("json") })
   .strict()
   .refine((p) => p.from <= p.to, { path: ["to"], message: "must be on or after from" });
 
@@ -79,7 +71,7 @@ export const containerSchema = z
     locationKind: z.enum(LOCATION_KINDS, { errorMap: () => ({ message: "choose room, satellite_area or instrument" }) }),
     locationNote: z.string().trim().max(120).nullable().default(null),
     /** The instrument that drains into this container (it then drains to no other). */
-    instrumentId: z.coerce.number().int().positive().nullable().default(null),
+    instrumentId: id("choose an instrument, or none").nullable().default(null),
   })
   .strict();
 export type ContainerInput = z.infer<typeof containerSchema>;
@@ -89,7 +81,7 @@ export const readingSchema = z
   .object({
     level_mL: z.coerce.number({ invalid_type_error: "must be a number" }).min(0, "cannot be negative").max(1_000_000),
     /** When it was read; now when omitted. */
-    readAt: z.string().datetime({ offset: true, message: "use an ISO date and time" }).optional(),
+    readAt: instant("use an ISO date and time").optional(),
     note: z.string().trim().max(255).nullable().default(null),
   })
   .strict();
@@ -105,7 +97,7 @@ export const statusSchema = z
 /** Request a pickup for one or more containers. */
 export const pickupRequestSchema = z
   .object({
-    containerIds: z.array(z.coerce.number().int().positive()).min(1, "choose at least one container").max(50),
+    containerIds: z.array(id("must be a container id")).min(1, "choose at least one container").max(50),
     note: z.string().trim().max(255).nullable().default(null),
   })
   .strict();
@@ -115,7 +107,7 @@ export type PickupRequest = z.infer<typeof pickupRequestSchema>;
 export const collectionSchema = z
   .object({
     manifestRef: z.string().trim().min(2, "give the manifest or reference number").max(64),
-    collectedAt: z.string().datetime({ offset: true, message: "use an ISO date and time" }).optional(),
+    collectedAt: instant("use an ISO date and time").optional(),
     note: z.string().trim().max(255).nullable().default(null),
   })
   .strict();
@@ -143,9 +135,6 @@ export const wasteSettingsSchema = z
   });
 export type WasteSettingsInput = z.infer<typeof wasteSettingsSchema>;
 
-export const idParam = z.object({
-  id: z.coerce.number({ invalid_type_error: "id must be a number" }).int().positive("id must be positive"),
-});
 export const streamIdParam = z.object({ id: streamId });
 
 /** `GET /api/waste/containers`. */
@@ -162,7 +151,7 @@ export const containerListQuery = z
 export const routeCheckSchema = z
   .object({
     /** The container the mix would go to. */
-    containerId: z.coerce.number().int().positive(),
+    containerId: id("choose the container"),
     /** The mix: liquids in mL, solids in g. */
     parts: z
       .array(

@@ -1,4 +1,4 @@
-import { ZodError, type ZodType, type ZodTypeDef } from "zod";
+import type { ZodType, ZodTypeDef } from "zod";
 import { formatZodError, fieldErrors } from "../schemas/zod-error";
 
 /** An error that maps to an HTTP answer with a JSON message. */
@@ -105,15 +105,12 @@ function brokenTextAt(root: unknown): string | null {
 }
 
 /**
- * Validates a value against a schema; bad input is a 400 naming the field. `field` names a value
- * that is not an object, e.g. a route parameter: `validate(params.id, idParam, "id")`.
+ * Validates a value against a schema; bad input is a 400 naming the field. Route parameters are
+ * validated as the object they are, so the message names them: `validate(params, idParam)`.
  */
-export function validate<T>(raw: unknown, schema: ZodType<T, ZodTypeDef, unknown>, field?: string): T {
+export function validate<T>(raw: unknown, schema: ZodType<T, ZodTypeDef, unknown>): T {
   const result = schema.safeParse(raw);
-  if (!result.success) {
-    const error = field ? new ZodError(result.error.issues.map((issue) => ({ ...issue, path: [field, ...issue.path] }))) : result.error;
-    throw new HttpError(400, formatZodError(error), { fields: fieldErrors(error) });
-  }
+  if (!result.success) throw new HttpError(400, formatZodError(result.error), { fields: fieldErrors(result.error) });
   return result.data;
 }
 

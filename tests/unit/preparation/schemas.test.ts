@@ -97,7 +97,7 @@ describe("stock lot schema", () => {
   it("accepts form fields as strings", () => expect(stockLotInputSchema.parse(ok).quantity).toBe(4000));
   it.each([
     ["an expiry before receipt", { ...ok, expiresOn: "2026-10-01" }, /expiresOn: The expiry date is before/],
-    ["a date in another format", { ...ok, receivedOn: "01/11/2026" }, /receivedOn: received: a date as YYYY-MM-DD/],
+    ["a date in another format", { ...ok, receivedOn: "01/11/2026" }, /receivedOn: give a day as YYYY-MM-DD/],
     ["more remaining than received", { ...ok, remaining: "5000" }, /remaining: More remaining/],
   ])("refuses %s", (_n, input, pattern) => expect(message(stockLotInputSchema.safeParse(input))).toMatch(pattern));
 });

@@ -1,7 +1,7 @@
 // Moments and days are refused outside the years the database's DATETIME can hold and a lab
 // would mean (1970–2199), with a message, instead of failing in the database.
 import { describe, expect, it } from "vitest";
-import { day, instant } from "../../../src/lib/schemas/fields";
+import { day, idParam, instant } from "../../../src/lib/schemas/fields";
 
 describe("instant", () => {
   const schema = instant("Enter the time");
@@ -41,5 +41,19 @@ describe("day", () => {
     const result = schema.safeParse(text);
     expect(result.success).toBe(false);
     expect(result.error?.issues.map((i) => i.message)).toContain(message);
+  });
+});
+
+describe("idParam", () => {
+  it.each([
+    ["12", 12],
+    ["1", 1],
+  ])("accepts {id: %s}", (text, value) => {
+    expect(idParam.parse({ id: text })).toEqual({ id: value });
+  });
+  it.each(["0", "-3", "1.5", "abc", ""])("refuses {id: %j}, naming the field", (text) => {
+    const result = idParam.safeParse({ id: text });
+    expect(result.success).toBe(false);
+    expect(result.error?.issues[0]).toMatchObject({ path: ["id"], message: "must be a positive whole number" });
   });
 });

@@ -7,7 +7,8 @@
 import { createHash } from "node:crypto";
 import { QueryTypes, UniqueConstraintError, type Transaction } from "sequelize";
 import type { ProgramPoint } from "../../chem";
-import { readRunLog, type RowIssue, type RunLogRow } from "../../imports/run-log";
+import { readRunLog, type RunLogRow } from "../../imports/run-log";
+import type { ImportReport, ImportSummary } from "../../imports/types";
 import { recordAudit } from "../audit";
 import { getSequelize } from "../db";
 import type { SignedInUser } from "../guard";
@@ -15,24 +16,6 @@ import { HttpError } from "../http";
 import { appendEntries, ensureCatalogueRows, type NewLedgerEntry } from "./ledger";
 import { inTransaction, lastInsertId, multiRowInsert, pipelinedWrites } from "./sql";
 import { drawFromBatches, loadBatches, planRun, wasteProblem, type InstrumentForUse, type MethodForUse, type RunPlan } from "./runs";
-
-export interface ImportReport {
-  fileName: string;
-  checksum: string;
-  /** Data rows in the file. */
-  rowCount: number;
-  /** Rows that would be (or were) written. */
-  newRuns: number;
-  /** Rows whose instrument and run reference are already recorded: skipped. */
-  alreadyRecorded: number;
-  /** Ledger entries that would be (or were) written. */
-  entries: number;
-  volume_mL: number;
-  issues: RowIssue[];
-  /** A committed import of the very same file, if there was one. */
-  previousImport: { id: number; at: string } | null;
-  importId: number | null;
-}
 
 const FIELD_TO_COLUMN: Record<string, string> = {
   instrumentId: "instrument",
@@ -341,15 +324,6 @@ export async function commitRunLog(
       });
     throw error;
   }
-}
-
-export interface ImportSummary {
-  id: number;
-  fileName: string;
-  rowCount: number;
-  status: string;
-  uploadedBy: string | null;
-  createdAt: string;
 }
 
 export async function listImports(limit = 20): Promise<ImportSummary[]> {

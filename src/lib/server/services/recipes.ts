@@ -6,59 +6,13 @@
  */
 import { QueryTypes, UniqueConstraintError } from "sequelize";
 import { describeSpec } from "../../preparation/plan";
+import type { PreparableRecipe, RecipeDetail, RecipeState, RecipeSummary } from "../../preparation/types";
 import { recipeSpecSchema, type RecipeInput, type RecipeSpec } from "../../schemas/recipes";
 import { recordAudit } from "../audit";
 import { getSequelize } from "../db";
 import type { SignedInUser } from "../guard";
 import { HttpError } from "../http";
 import { inTransaction, lastInsertId } from "./sql";
-
-export type RecipeState = "approved" | "pending" | "retired";
-
-export interface RecipeSummary {
-  id: number;
-  code: string;
-  name: string;
-  channel: string | null;
-  state: RecipeState;
-  latestVersion: number;
-  approvedVersion: number | null;
-  description: string;
-  updatedAt: string;
-  author: string | null;
-}
-
-export interface RecipeVersionDetail {
-  id: number;
-  version: number;
-  spec: RecipeSpec;
-  detection_nm: number | null;
-  storage: string | null;
-  notes: string | null;
-  createdAt: string;
-  createdBy: string | null;
-  createdById: number | null;
-  approvedAt: string | null;
-  approvedBy: string | null;
-  batches: number;
-}
-
-export interface RecipeDetail extends RecipeSummary {
-  versions: RecipeVersionDetail[];
-}
-
-/** A recipe that can be prepared, with its latest approved version (for the preparation form). */
-export interface PreparableRecipe {
-  recipeId: number;
-  versionId: number;
-  version: number;
-  code: string;
-  name: string;
-  channel: string | null;
-  detection_nm: number | null;
-  storage: string | null;
-  spec: RecipeSpec;
-}
 
 function parseSpec(raw: unknown): RecipeSpec {
   const value = typeof raw === "string" ? JSON.parse(raw) : raw;

@@ -10,44 +10,10 @@
  */
 import { QueryTypes } from "sequelize";
 import { costLines, toMicro, type CostLine, type PriceList, type Rate } from "../../billing/rates";
-import type { UsageGrouping, UsageQuery } from "../../schemas/usage";
+import type { GroupedBy, GroupedUsageAnswer, GroupedUsageRow } from "../../ledger/types";
+import type { UsageQuery } from "../../schemas/usage";
 import { getSequelize } from "../db";
 import { loadRates, periodBounds } from "./usage";
-
-export type GroupedBy = Exclude<UsageGrouping, "project">;
-
-export interface Money {
-  amount: number;
-  currency: string;
-}
-
-export interface GroupedUsageRow {
-  /** The group: client id, instrument id, reagent id or YYYY-MM; "none" for entries outside any instrument run. */
-  key: string;
-  label: string;
-  /** mL per reagent id. */
-  volumes_mL: Record<string, number>;
-  /** g per solid reagent id. */
-  masses_g: Record<string, number>;
-  /** mL per mobile phase (recipe code); "none" for entries not drawn from a batch. */
-  mobilePhases_mL: Record<string, number>;
-  /** Runs and injections started in the period; null for the reagent grouping (a run is not a reagent's). */
-  runs: number | null;
-  injections: number | null;
-  /** The cost in the group's currency; null when its projects are billed in more than one (see `costs`). */
-  cost: Money | null;
-  costs: Money[];
-  uncosted: string[];
-}
-
-export interface GroupedUsageAnswer {
-  from: string;
-  to: string;
-  groupBy: GroupedBy;
-  rows: GroupedUsageRow[];
-  /** Recipe code → name, for the mobile phases in the rows. */
-  mobilePhases: Record<string, string>;
-}
 
 export const NONE = "none";
 

@@ -5,30 +5,9 @@
  */
 import { QueryTypes } from "sequelize";
 import { costLines, toMicro, type CostLine, type PriceList, type Rate } from "../../billing/rates";
+import type { UsageAnswer, UsageRow } from "../../ledger/types";
 import type { UsageQuery } from "../../schemas/usage";
 import { getSequelize } from "../db";
-
-export interface UsageRow {
-  projectCode: string;
-  projectName: string;
-  clientName: string;
-  /** mL per reagent id over the period (corrections included, so a reversed entry counts 0). */
-  volumes_mL: Record<string, number>;
-  /** g per solid reagent id. */
-  masses_g: Record<string, number>;
-  runs: number;
-  injections: number;
-  cost: { amount: number; currency: string };
-  /** Reagents used but without a rate in force: not in the cost. */
-  uncosted: string[];
-}
-
-export interface UsageAnswer {
-  from: string;
-  to: string;
-  groupBy: "project";
-  rows: UsageRow[];
-}
 
 const round = (v: number, digits: number) => Math.round(v * 10 ** digits) / 10 ** digits;
 

@@ -2,6 +2,7 @@
 import { UniqueConstraintError } from "sequelize";
 import type { InviteUserInput, UpdateUserInput } from "../../schemas/auth";
 import type { Role } from "../../permissions";
+import type { ClientOption, UserRow } from "../../users/types";
 import { invitationMail, resetMail } from "../account-mail";
 import { recordAudit } from "../audit";
 import { lucia } from "../auth/lucia";
@@ -17,26 +18,6 @@ export interface ActorContext {
   actor: { id: number; name: string; role: Role };
   ip: string | null;
   origin: string;
-}
-
-export interface UserRow {
-  id: number;
-  email: string;
-  name: string;
-  role: Role;
-  clientId: number | null;
-  clientName: string | null;
-  active: boolean;
-  /** Invited and has not chosen a password yet. */
-  invited: boolean;
-  lastSignInAt: string | null;
-  createdAt: string;
-}
-
-export interface ClientOption {
-  id: number;
-  name: string;
-  kind: "internal" | "external";
 }
 
 export async function listClientOptions(): Promise<ClientOption[]> {

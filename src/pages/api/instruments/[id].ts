@@ -1,5 +1,5 @@
 import { instrumentSchema } from "../../../lib/schemas/instruments";
-import { idParam } from "../../../lib/schemas/params";
+import { idParam } from "../../../lib/schemas/fields";
 import { endpoint, requirePermission } from "../../../lib/server/guard";
 import { json, readJson, validate } from "../../../lib/server/http";
 import { updateInstrument } from "../../../lib/server/services/instruments";

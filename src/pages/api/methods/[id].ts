@@ -1,5 +1,5 @@
 import { methodSchema } from "../../../lib/schemas/methods";
-import { idParam } from "../../../lib/schemas/params";
+import { idParam } from "../../../lib/schemas/fields";
 import { endpoint, requirePermission } from "../../../lib/server/guard";
 import { HttpError, json, readJson, validate } from "../../../lib/server/http";
 import { getMethod, updateMethod } from "../../../lib/server/services/methods";

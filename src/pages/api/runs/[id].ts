@@ -1,4 +1,4 @@
-import { idParam } from "../../../lib/schemas/params";
+import { idParam } from "../../../lib/schemas/fields";
 import { endpoint, requirePermission } from "../../../lib/server/guard";
 import { HttpError, json, validate } from "../../../lib/server/http";
 import { listEntries } from "../../../lib/server/services/ledger";

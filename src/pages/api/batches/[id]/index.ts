@@ -1,9 +1,9 @@
-import { idParam } from "../../../../lib/schemas/preparation";
+import { idParam } from "../../../../lib/schemas/fields";
 import { endpoint, requirePermission } from "../../../../lib/server/guard";
 import { json, validate } from "../../../../lib/server/http";
 import { getBatch } from "../../../../lib/server/services/preparation";
 
 export const GET = endpoint(async ({ locals, params }) => {
   requirePermission(locals, "read:batch");
-  return json({ batch: await getBatch(validate(params.id, idParam, "id")) });
+  return json({ batch: await getBatch(validate(params, idParam).id) });
 });

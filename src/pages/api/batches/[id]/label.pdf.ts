@@ -1,5 +1,5 @@
 import { labelQuery } from "../../../../lib/schemas/labels";
-import { idParam } from "../../../../lib/schemas/preparation";
+import { idParam } from "../../../../lib/schemas/fields";
 import { endpoint, requirePermission } from "../../../../lib/server/guard";
 import { queryOf, validate } from "../../../../lib/server/http";
 import { batchLabels } from "../../../../lib/server/services/labels";
@@ -7,7 +7,7 @@ import { batchLabels } from "../../../../lib/server/services/labels";
 /** Fixed contract: `application/pdf` with `copies` labels (default: one per bottle). */
 export const GET = endpoint(async ({ locals, params, url }) => {
   requirePermission(locals, "read:batch");
-  const id = validate(params.id, idParam, "id");
+  const { id } = validate(params, idParam);
   const query = validate(queryOf(url), labelQuery);
   const { bytes, fileName, labels } = await batchLabels(id, query);
   return new Response(new Uint8Array(bytes), {

@@ -1,9 +1,9 @@
-import { idParam } from "../../../../lib/schemas/billing";
+import { idParam } from "../../../../lib/schemas/fields";
 import { endpoint, requirePermission } from "../../../../lib/server/guard";
 import { json, validate } from "../../../../lib/server/http";
 import { voidInvoice } from "../../../../lib/server/services/billing/invoices";
 
 export const POST = endpoint(async ({ locals, params, clientAddress }) => {
   const actor = requirePermission(locals, "manage:invoice");
-  return json({ invoice: await voidInvoice(validate(params.id, idParam, "id"), actor, clientAddress) });
+  return json({ invoice: await voidInvoice(validate(params, idParam).id, actor, clientAddress) });
 });

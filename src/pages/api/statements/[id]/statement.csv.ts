@@ -1,11 +1,11 @@
-import { idParam } from "../../../../lib/schemas/billing";
+import { idParam } from "../../../../lib/schemas/fields";
 import { endpoint, requirePermission } from "../../../../lib/server/guard";
 import { validate } from "../../../../lib/server/http";
 import { statementCsvFile } from "../../../../lib/server/services/billing/documents";
 
 export const GET = endpoint(async ({ locals, params }) => {
   const user = requirePermission(locals, "read:statement", { own: true });
-  const { text, fileName } = await statementCsvFile(validate(params.id, idParam, "id"), user);
+  const { text, fileName } = await statementCsvFile(validate(params, idParam).id, user);
   return new Response(text, {
     headers: {
       "content-type": "text/csv; charset=utf-8",

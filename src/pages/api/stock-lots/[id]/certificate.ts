@@ -1,4 +1,4 @@
-import { idParam } from "../../../../lib/schemas/preparation";
+import { idParam } from "../../../../lib/schemas/fields";
 import { endpoint, requirePermission } from "../../../../lib/server/guard";
 import { validate } from "../../../../lib/server/http";
 import { getCertificate } from "../../../../lib/server/services/stock-lots";
@@ -11,7 +11,7 @@ import { detectType } from "../../../../lib/server/storage";
  */
 export const GET = endpoint(async ({ locals, params }) => {
   requirePermission(locals, "read:stock-lot");
-  const { bytes, name } = await getCertificate(validate(params.id, idParam, "id"));
+  const { bytes, name } = await getCertificate(validate(params, idParam).id);
   const sniffed = detectType(bytes);
   const safeName = name.replace(/[^\w.\- ]+/g, "_");
   return new Response(new Uint8Array(bytes), {

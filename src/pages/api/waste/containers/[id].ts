@@ -1,4 +1,5 @@
-import { containerSchema, idParam } from "../../../../lib/schemas/waste";
+import { idParam } from "../../../../lib/schemas/fields";
+import { containerSchema } from "../../../../lib/schemas/waste";
 import { endpoint, requirePermission } from "../../../../lib/server/guard";
 import { json, readJson, validate } from "../../../../lib/server/http";
 import { getContainer, updateContainer } from "../../../../lib/server/services/waste/containers";

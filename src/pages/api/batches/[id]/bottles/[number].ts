@@ -1,4 +1,4 @@
-import { bottleUpdateSchema, idParam } from "../../../../../lib/schemas/preparation";
+import { bottleParams, bottleUpdateSchema } from "../../../../../lib/schemas/preparation";
 import { endpoint, requirePermission } from "../../../../../lib/server/guard";
 import { json, readJson, validate } from "../../../../../lib/server/http";
 import { updateBottle } from "../../../../../lib/server/services/preparation";
@@ -6,8 +6,7 @@ import { updateBottle } from "../../../../../lib/server/services/preparation";
 /** Marks one bottle in use, empty or discarded. */
 export const POST = endpoint(async ({ locals, params, request, clientAddress }) => {
   const user = requirePermission(locals, "update:batch");
-  const id = validate(params.id, idParam, "id");
-  const number = validate(params.number, idParam, "number");
+  const { id, number } = validate(params, bottleParams);
   const change = await readJson(request, bottleUpdateSchema);
   return json({ batch: await updateBottle(id, number, change, user, clientAddress) });
 });

@@ -1,4 +1,5 @@
-import { idParam, labelQuery } from "../../../../../lib/schemas/waste";
+import { idParam } from "../../../../../lib/schemas/fields";
+import { labelQuery } from "../../../../../lib/schemas/waste";
 import { endpoint, requirePermission } from "../../../../../lib/server/guard";
 import { queryOf, validate } from "../../../../../lib/server/http";
 import { containerLabelContent } from "../../../../../lib/server/services/waste/documents";

@@ -1,4 +1,5 @@
-import { idParam, readingSchema } from "../../../../../lib/schemas/waste";
+import { idParam } from "../../../../../lib/schemas/fields";
+import { readingSchema } from "../../../../../lib/schemas/waste";
 import { endpoint, requirePermission } from "../../../../../lib/server/guard";
 import { json, readJson, validate } from "../../../../../lib/server/http";
 import { recordReading } from "../../../../../lib/server/services/waste/readings";

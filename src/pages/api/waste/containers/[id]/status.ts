@@ -1,4 +1,5 @@
-import { idParam, statusSchema } from "../../../../../lib/schemas/waste";
+import { idParam } from "../../../../../lib/schemas/fields";
+import { statusSchema } from "../../../../../lib/schemas/waste";
 import { endpoint, requirePermission } from "../../../../../lib/server/guard";
 import { json, readJson, validate } from "../../../../../lib/server/http";
 import { setContainerStatus } from "../../../../../lib/server/services/waste/containers";

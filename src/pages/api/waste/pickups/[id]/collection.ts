@@ -1,4 +1,5 @@
-import { collectionSchema, idParam } from "../../../../../lib/schemas/waste";
+import { idParam } from "../../../../../lib/schemas/fields";
+import { collectionSchema } from "../../../../../lib/schemas/waste";
 import { endpoint, requirePermission } from "../../../../../lib/server/guard";
 import { json, readJson, validate } from "../../../../../lib/server/http";
 import { recordCollection } from "../../../../../lib/server/services/waste/pickups";
