@@ -219,12 +219,7 @@ function importCycles(graph: Graph): { files: string[]; loop: string }[] {
  * Cycles known and scheduled to go, each with why it is still here. The test fails when one of
  * them is gone, so that the entry is deleted with the cycle.
  */
-const KNOWN_CYCLES: { files: string[]; why: string }[] = [
-  {
-    files: ["lib/server/services/billing.ts", "lib/server/services/statement-pdf.ts"],
-    why: "the statement PDF renderer moves to lib/billing/statement-pdf.ts as a pure module (issue #14, the billing rooms); delete this entry then",
-  },
-];
+const KNOWN_CYCLES: { files: string[]; why: string }[] = [];
 
 const SRC = resolve("src");
 
