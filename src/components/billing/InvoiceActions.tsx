@@ -1,6 +1,5 @@
 import { useState } from "react";
 import type { InvoiceStatus } from "../../lib/billing/types";
-import { postJson } from "../forms/post-json";
 import { errorMessage, postJson } from "../forms/post-json";
 
 interface Props {

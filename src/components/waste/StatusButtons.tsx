@@ -1,5 +1,4 @@
 import { useState } from "react";
-import { postJson } from "../forms/post-json";
 import type { ContainerStatus } from "../../lib/waste/types";
 import { errorMessage, postJson } from "../forms/post-json";
 
