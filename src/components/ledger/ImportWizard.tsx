@@ -1,7 +1,7 @@
 import { useRef, useState } from "react";
 import { formatDateTime, formatVolume } from "../../lib/format";
 import { readRunLog, RUN_LOG_MAX_BYTES, type RowIssue, type RunLogRow } from "../../lib/imports/run-log";
-import type { ImportReport } from "../../lib/server/services/imports";
+import type { ImportReport } from "../../lib/imports/types";
 import { HydratedControls } from "../forms/island-form";
 
 type Report = Omit<ImportReport, "fileName" | "checksum">;

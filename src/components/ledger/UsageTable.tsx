@@ -8,8 +8,7 @@ import {
   type SortingState,
 } from "@tanstack/react-table";
 import { lazy, Suspense, useEffect, useMemo, useState } from "react";
-import type { UsageRow } from "../../lib/server/services/usage";
-import type { GroupedUsageRow } from "../../lib/server/services/usage-groups";
+import type { GroupedUsageRow, UsageRow } from "../../lib/ledger/types";
 import { USAGE_GROUPINGS, type UsageGrouping } from "../../lib/ledger/usage-groupings";
 import { formatMoney } from "../../lib/billing/money";
 import { csvField } from "../../lib/imports/csv";

@@ -5,7 +5,7 @@ import { findDeviations, type Tolerances } from "../../lib/preparation/deviation
 import { batchExpiry, lotExpired, type ExpiryRule } from "../../lib/preparation/expiry";
 import { preparationPlan, type PreparationPlan } from "../../lib/preparation/plan";
 import type { BatchCreateInput } from "../../lib/schemas/preparation";
-import type { PreparableRecipe } from "../../lib/server/services/recipes";
+import type { PreparableRecipe, RecordedBatch } from "../../lib/preparation/types";
 import { useZodForm } from "../forms/form";
 import { IslandForm } from "../forms/island-form";
 import { postJson } from "../forms/post-json";
@@ -159,7 +159,7 @@ export default function PreparationForm({ recipes, lots, tolerances, expiryRules
     setServerError(null);
     setSaving(true);
     try {
-      const result = await postJson<{ batch: { id: number } }>("/api/batches", { ...values, idempotencyKey: key.current });
+      const result = await postJson<RecordedBatch>("/api/batches", { ...values, idempotencyKey: key.current });
       window.location.assign(`/batches/${result.batch.id}?recorded=1`);
     } catch (error) {
       setServerError(error instanceof Error ? error.message : String(error));

@@ -2,7 +2,7 @@ import { useMemo, useState } from "react";
 import { formatDateTime } from "../../lib/format";
 import { ROLE_LABELS, ROLES, type Role } from "../../lib/permissions";
 import { inviteUserSchema, type InviteUserInput } from "../../lib/schemas/auth";
-import type { ClientOption, UserRow } from "../../lib/server/services/users";
+import type { ClientOption, UserRow } from "../../lib/users/types";
 import { Field, SelectField, useZodForm } from "../forms/form";
 import { HydratedControls, IslandForm } from "../forms/island-form";
 import { postJson } from "../forms/post-json";

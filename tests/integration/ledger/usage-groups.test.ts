@@ -3,7 +3,8 @@
 import { QueryTypes } from "sequelize";
 import { describe, expect, it } from "vitest";
 import { usageByProject } from "../../../src/lib/server/services/usage";
-import { mobilePhasesByProject, usageGrouped, type GroupedBy } from "../../../src/lib/server/services/usage-groups";
+import type { GroupedBy } from "../../../src/lib/ledger/types";
+import { mobilePhasesByProject, usageGrouped } from "../../../src/lib/server/services/usage-groups";
 import { useServiceDatabase } from "../../support/service-database";
 
 const db = useServiceDatabase();

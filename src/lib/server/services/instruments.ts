@@ -1,29 +1,17 @@
-import { QueryTypes, UniqueConstraintError } from "sequelize";
+/** Instruments (`/instruments`, `/api/instruments`): their pump channels and the waste container each drains to. */
+import { UniqueConstraintError } from "sequelize";
+import type { InstrumentSummary } from "../../ledger/types";
 import type { InstrumentInput } from "../../schemas/instruments";
 import { recordAudit } from "../audit";
 import { getSequelize } from "../db";
 import type { SignedInUser } from "../guard";
 import { HttpError } from "../http";
 import { Instrument } from "../models/ledger";
+import { jsonColumn, select, selectOne } from "../query";
 import { inTransaction } from "./sql";
 
-export interface InstrumentSummary {
-  id: number;
-  name: string;
-  kind: string;
-  room: string;
-  channels: string[];
-  wasteContainerId: number | null;
-  wasteContainerCode: string | null;
-  wasteStream: string | null;
-  active: boolean;
-  runs: number;
-}
-
-const parse = (v: unknown) => (typeof v === "string" ? (JSON.parse(v) as string[]) : (v as string[]));
-
 export async function listInstruments(): Promise<InstrumentSummary[]> {
-  const rows = await getSequelize().query<{
+  const rows = await select<{
     id: number;
     name: string;
     kind: string;
@@ -39,14 +27,13 @@ export async function listInstruments(): Promise<InstrumentSummary[]> {
             (SELECT COUNT(*) FROM runs r WHERE r.instrument_id = i.id) AS runs
        FROM instruments i LEFT JOIN waste_containers c ON c.id = i.waste_container_id LEFT JOIN waste_streams s ON s.id = c.stream_id
       ORDER BY i.name`,
-    { type: QueryTypes.SELECT },
   );
   return rows.map((r) => ({
     id: r.id,
     name: r.name,
     kind: r.kind,
     room: r.room,
-    channels: parse(r.channels),
+    channels: jsonColumn<string[]>(r.channels),
     wasteContainerId: r.waste_container_id,
     wasteContainerCode: r.code,
     wasteStream: r.stream,
@@ -57,18 +44,14 @@ export async function listInstruments(): Promise<InstrumentSummary[]> {
 
 /** Containers an instrument can drain to (not yet collected). */
 export async function openWasteContainers() {
-  return getSequelize().query<{ id: number; code: string; room: string; stream: string }>(
+  return select<{ id: number; code: string; room: string; stream: string }>(
     "SELECT c.id, c.code, c.room, s.name AS stream FROM waste_containers c JOIN waste_streams s ON s.id = c.stream_id WHERE c.status <> 'collected' ORDER BY c.code",
-    { type: QueryTypes.SELECT },
   );
 }
 
 async function checkContainer(id: number | null) {
   if (id === null) return;
-  const [row] = await getSequelize().query<{ id: number }>("SELECT id FROM waste_containers WHERE id = ? AND status <> 'collected'", {
-    type: QueryTypes.SELECT,
-    replacements: [id],
-  });
+  const row = await selectOne("SELECT id FROM waste_containers WHERE id = ? AND status <> 'collected'", { replacements: [id] });
   if (!row)
     throw new HttpError(400, "wasteContainerId: no waste container in use with this id", {
       fields: { wasteContainerId: "no waste container in use with this id" },

@@ -4,65 +4,19 @@
  * the next version, which waits for approval while batches go on being made from the last
  * approved one.
  */
-import { QueryTypes, UniqueConstraintError } from "sequelize";
+import { UniqueConstraintError, type Transaction } from "sequelize";
 import { describeSpec } from "../../preparation/plan";
+import type { PreparableRecipe, RecipeDetail, RecipeState, RecipeSummary } from "../../preparation/types";
 import { recipeSpecSchema, type RecipeInput, type RecipeSpec } from "../../schemas/recipes";
 import { recordAudit } from "../audit";
 import { getSequelize } from "../db";
 import type { SignedInUser } from "../guard";
 import { HttpError } from "../http";
-import { inTransaction, lastInsertId } from "./sql";
-
-export type RecipeState = "approved" | "pending" | "retired";
-
-export interface RecipeSummary {
-  id: number;
-  code: string;
-  name: string;
-  channel: string | null;
-  state: RecipeState;
-  latestVersion: number;
-  approvedVersion: number | null;
-  description: string;
-  updatedAt: string;
-  author: string | null;
-}
-
-export interface RecipeVersionDetail {
-  id: number;
-  version: number;
-  spec: RecipeSpec;
-  detection_nm: number | null;
-  storage: string | null;
-  notes: string | null;
-  createdAt: string;
-  createdBy: string | null;
-  createdById: number | null;
-  approvedAt: string | null;
-  approvedBy: string | null;
-  batches: number;
-}
-
-export interface RecipeDetail extends RecipeSummary {
-  versions: RecipeVersionDetail[];
-}
-
-/** A recipe that can be prepared, with its latest approved version (for the preparation form). */
-export interface PreparableRecipe {
-  recipeId: number;
-  versionId: number;
-  version: number;
-  code: string;
-  name: string;
-  channel: string | null;
-  detection_nm: number | null;
-  storage: string | null;
-  spec: RecipeSpec;
-}
+import { execute, jsonColumn, select, selectOne } from "../query";
+import { inTransaction } from "./sql";
 
 function parseSpec(raw: unknown): RecipeSpec {
-  const value = typeof raw === "string" ? JSON.parse(raw) : raw;
-  return recipeSpecSchema.parse(value);
+  return recipeSpecSchema.parse(jsonColumn(raw));
 }
 
 interface SummaryRow {
@@ -97,7 +51,7 @@ export async function listRecipes(
 ): Promise<RecipeSummary[]> {
   const sort = SORT_COLUMNS[query.sort ?? "code"] ?? "r.code";
   const dir = query.dir === "desc" ? "DESC" : "ASC";
-  const rows = await getSequelize().query<SummaryRow>(
+  const rows = await select<SummaryRow>(
     `SELECT r.id, r.code, r.name, r.channel, r.status, r.updated_at, u.name AS author,
             (SELECT MAX(v.version) FROM recipe_versions v WHERE v.recipe_id = r.id) AS latest,
             (SELECT MAX(v.version) FROM recipe_versions v WHERE v.recipe_id = r.id AND v.approved_at IS NOT NULL) AS approved,
@@ -106,7 +60,7 @@ export async function listRecipes(
       WHERE (:q IS NULL OR r.code LIKE :like OR r.name LIKE :like)
         AND (:channel IS NULL OR r.channel = :channel)
       ORDER BY ${sort} ${dir}, r.id ${dir}`,
-    { type: QueryTypes.SELECT, replacements: { q: query.q || null, like: `%${query.q ?? ""}%`, channel: query.channel ?? null } },
+    { replacements: { q: query.q || null, like: `%${query.q ?? ""}%`, channel: query.channel ?? null } },
   );
   const out = rows.map((r): RecipeSummary => {
     const state: RecipeState =
@@ -136,7 +90,7 @@ export async function listRecipes(
 export async function getRecipe(id: number): Promise<RecipeDetail> {
   const [summary] = (await listRecipes()).filter((r) => r.id === id);
   if (!summary) throw new HttpError(404, `No recipe with id ${id}.`);
-  const rows = await getSequelize().query<{
+  const rows = await select<{
     id: number;
     version: number;
     spec: unknown;
@@ -154,7 +108,7 @@ export async function getRecipe(id: number): Promise<RecipeDetail> {
             (SELECT COUNT(*) FROM batches b WHERE b.recipe_version_id = v.id) AS batches
        FROM recipe_versions v LEFT JOIN users a ON a.id = v.created_by LEFT JOIN users p ON p.id = v.approved_by
       WHERE v.recipe_id = ? ORDER BY v.version DESC`,
-    { type: QueryTypes.SELECT, replacements: [id] },
+    { replacements: [id] },
   );
   return {
     ...summary,
@@ -189,32 +143,25 @@ function codeFrom(name: string): string {
 
 async function uniqueCode(base: string): Promise<string> {
   const taken = new Set(
-    (
-      await getSequelize().query<{ code: string }>("SELECT code FROM recipes WHERE code LIKE ?", {
-        type: QueryTypes.SELECT,
-        replacements: [`${base}%`],
-      })
-    ).map((r) => r.code),
+    (await select<{ code: string }>("SELECT code FROM recipes WHERE code LIKE ?", { replacements: [`${base}%`] })).map((r) => r.code),
   );
   if (!taken.has(base)) return base;
   for (let n = 2; ; n++) if (!taken.has(`${base}-${n}`)) return `${base}-${n}`;
 }
 
 export async function createRecipe(input: RecipeInput, actor: SignedInUser, ip: string | null = null): Promise<RecipeDetail> {
-  const sequelize = getSequelize();
   const code = input.code ?? (await uniqueCode(codeFrom(input.name)));
   let id = 0;
   try {
-    await inTransaction(sequelize, async (transaction) => {
-      await sequelize.query(
+    await inTransaction(getSequelize(), async (transaction) => {
+      ({ insertId: id } = await execute(
         "INSERT INTO recipes (code, name, channel, status, created_by, created_at, updated_at) VALUES (?, ?, ?, 'draft', ?, NOW(3), NOW(3))",
         {
           replacements: [code, input.name, input.channel ?? null, actor.id],
           transaction,
         },
-      );
-      id = await lastInsertId(transaction);
-      await sequelize.query(
+      ));
+      await execute(
         "INSERT INTO recipe_versions (recipe_id, version, spec, detection_nm, storage, notes, created_by, created_at) VALUES (?, 1, ?, ?, ?, ?, ?, NOW(3))",
         {
           replacements: [id, JSON.stringify(input.spec), input.detection_nm ?? null, input.storage ?? null, input.notes ?? null, actor.id],
@@ -244,14 +191,13 @@ export async function updateRecipe(
   if (before.state === "retired") throw new HttpError(409, "This recipe is retired; it can no longer be changed.");
   const latest = before.versions[0]!;
   const frozen = latest.approvedAt !== null || latest.batches > 0;
-  const sequelize = getSequelize();
-  await inTransaction(sequelize, async (transaction) => {
-    await sequelize.query("UPDATE recipes SET name = ?, channel = ?, updated_at = NOW(3) WHERE id = ?", {
+  await inTransaction(getSequelize(), async (transaction) => {
+    await execute("UPDATE recipes SET name = ?, channel = ?, updated_at = NOW(3) WHERE id = ?", {
       replacements: [input.name, input.channel ?? null, id],
       transaction,
     });
     if (frozen) {
-      await sequelize.query(
+      await execute(
         "INSERT INTO recipe_versions (recipe_id, version, spec, detection_nm, storage, notes, created_by, created_at) VALUES (?, ?, ?, ?, ?, ?, ?, NOW(3))",
         {
           replacements: [
@@ -267,7 +213,7 @@ export async function updateRecipe(
         },
       );
     } else {
-      await sequelize.query("UPDATE recipe_versions SET spec = ?, detection_nm = ?, storage = ?, notes = ? WHERE id = ?", {
+      await execute("UPDATE recipe_versions SET spec = ?, detection_nm = ?, storage = ?, notes = ? WHERE id = ?", {
         replacements: [JSON.stringify(input.spec), input.detection_nm ?? null, input.storage ?? null, input.notes ?? null, latest.id],
         transaction,
       });
@@ -296,20 +242,19 @@ export async function approveRecipe(id: number, version: number, actor: SignedIn
     throw new HttpError(409, `version: version ${version} is not the latest (v${latest.version}); reload and review the latest.`);
   if (latest.approvedAt) throw new HttpError(409, `Version ${version} is approved already.`);
   if (latest.createdById === actor.id) throw new HttpError(403, "A recipe version is approved by someone other than its author.");
-  const sequelize = getSequelize();
-  await inTransaction(sequelize, async (transaction) => {
-    await sequelize.query("UPDATE recipe_versions SET approved_by = ?, approved_at = NOW(3) WHERE id = ? AND approved_at IS NULL", {
+  await inTransaction(getSequelize(), async (transaction) => {
+    await execute("UPDATE recipe_versions SET approved_by = ?, approved_at = NOW(3) WHERE id = ? AND approved_at IS NULL", {
       replacements: [actor.id, latest.id],
       transaction,
     });
-    await sequelize.query("UPDATE recipes SET status = 'approved', updated_at = NOW(3) WHERE id = ?", { replacements: [id], transaction });
+    await execute("UPDATE recipes SET status = 'approved', updated_at = NOW(3) WHERE id = ?", { replacements: [id], transaction });
     await recordAudit({ actorId: actor.id, action: "approve", entity: "recipe", entityId: id, ip, after: { version } }, transaction);
   });
   return getRecipe(id);
 }
 
 export async function preparableRecipes(): Promise<PreparableRecipe[]> {
-  const rows = await getSequelize().query<{
+  const rows = await select<{
     recipe_id: number;
     id: number;
     version: number;
@@ -325,7 +270,6 @@ export async function preparableRecipes(): Promise<PreparableRecipe[]> {
       WHERE r.status <> 'retired' AND v.approved_at IS NOT NULL
         AND v.version = (SELECT MAX(w.version) FROM recipe_versions w WHERE w.recipe_id = v.recipe_id AND w.approved_at IS NOT NULL)
       ORDER BY r.code`,
-    { type: QueryTypes.SELECT },
   );
   const out: PreparableRecipe[] = [];
   for (const r of rows) {
@@ -348,8 +292,11 @@ export async function preparableRecipes(): Promise<PreparableRecipe[]> {
   return out;
 }
 
-export async function getRecipeVersion(versionId: number): Promise<PreparableRecipe & { approved: boolean; retired: boolean }> {
-  const [r] = await getSequelize().query<{
+export async function getRecipeVersion(
+  versionId: number,
+  transaction?: Transaction,
+): Promise<PreparableRecipe & { approved: boolean; retired: boolean }> {
+  const r = await selectOne<{
     recipe_id: number;
     id: number;
     version: number;
@@ -364,7 +311,7 @@ export async function getRecipeVersion(versionId: number): Promise<PreparableRec
   }>(
     `SELECT v.recipe_id, v.id, v.version, r.code, r.name, r.channel, v.detection_nm, v.storage, v.spec, v.approved_at, r.status
        FROM recipe_versions v JOIN recipes r ON r.id = v.recipe_id WHERE v.id = ?`,
-    { type: QueryTypes.SELECT, replacements: [versionId] },
+    { replacements: [versionId], transaction },
   );
   if (!r) throw new HttpError(400, `recipeVersionId: no recipe version ${versionId}`);
   return {
@@ -381,5 +328,3 @@ export async function getRecipeVersion(versionId: number): Promise<PreparableRec
     retired: r.status === "retired",
   };
 }
-
-export { describeSpec };

@@ -8,46 +8,11 @@
  * `source_id = 'run:<id>'`. The sums are grouped per project and rate segment too, so each
  * project is costed at its own client's price list exactly as usage.ts does it.
  */
-import { QueryTypes } from "sequelize";
 import { costLines, toMicro, type CostLine, type PriceList, type Rate } from "../../billing/rates";
-import type { UsageGrouping, UsageQuery } from "../../schemas/usage";
-import { getSequelize } from "../db";
+import type { GroupedBy, GroupedUsageAnswer, GroupedUsageRow } from "../../ledger/types";
+import type { UsageQuery } from "../../schemas/usage";
+import { select } from "../query";
 import { loadRates, periodBounds } from "./usage";
-
-export type GroupedBy = Exclude<UsageGrouping, "project">;
-
-export interface Money {
-  amount: number;
-  currency: string;
-}
-
-export interface GroupedUsageRow {
-  /** The group: client id, instrument id, reagent id or YYYY-MM; "none" for entries outside any instrument run. */
-  key: string;
-  label: string;
-  /** mL per reagent id. */
-  volumes_mL: Record<string, number>;
-  /** g per solid reagent id. */
-  masses_g: Record<string, number>;
-  /** mL per mobile phase (recipe code); "none" for entries not drawn from a batch. */
-  mobilePhases_mL: Record<string, number>;
-  /** Runs and injections started in the period; null for the reagent grouping (a run is not a reagent's). */
-  runs: number | null;
-  injections: number | null;
-  /** The cost in the group's currency; null when its projects are billed in more than one (see `costs`). */
-  cost: Money | null;
-  costs: Money[];
-  uncosted: string[];
-}
-
-export interface GroupedUsageAnswer {
-  from: string;
-  to: string;
-  groupBy: GroupedBy;
-  rows: GroupedUsageRow[];
-  /** Recipe code → name, for the mobile phases in the rows. */
-  mobilePhases: Record<string, string>;
-}
 
 export const NONE = "none";
 
@@ -101,21 +66,18 @@ interface SumRow {
   recipe_code: string | null;
   recipe_name: string | null;
   at: string | Date;
-  volume: string;
-  mass: string | null;
+  volume: number;
+  mass: number | null;
 }
 
 async function sums(groupBy: GroupedBy | "project", query: UsageQuery, clientId: number | null, rates: readonly Rate[]): Promise<SumRow[]> {
   const [start, end] = periodBounds(query.from, query.to);
   const segment = segmentSql(rates, query.from, query.to);
-  return getSequelize().query<SumRow>(groupedSumsSql(groupBy, segment.sql), {
-    type: QueryTypes.SELECT,
-    replacements: { ...segment.replacements, start, end, clientId },
-  });
+  return select<SumRow>(groupedSumsSql(groupBy, segment.sql), { replacements: { ...segment.replacements, start, end, clientId } });
 }
 
 /** Adds exactly (in 10⁻⁶ units) into a map of totals. */
-function add(totals: Map<string, bigint>, key: string, value: string | null) {
+function add(totals: Map<string, bigint>, key: string, value: number | null) {
   if (value === null) return;
   totals.set(key, (totals.get(key) ?? 0n) + toMicro(value));
 }
@@ -127,7 +89,6 @@ export async function usageGrouped(
   query: UsageQuery & { groupBy: GroupedBy },
   scope: { clientId: number | null },
 ): Promise<GroupedUsageAnswer> {
-  const sequelize = getSequelize();
   const groupBy = query.groupBy;
   const [start, end] = periodBounds(query.from, query.to);
   const runKey: Record<GroupedBy, string | null> = {
@@ -140,18 +101,18 @@ export async function usageGrouped(
   const rates = await loadRates();
   const [rows, projects, runs] = await Promise.all([
     sums(groupBy, query, scope.clientId, rates),
-    sequelize.query<{ id: number; kind: PriceList; currency: string }>(
+    select<{ id: number; kind: PriceList; currency: string }>(
       "SELECT p.id, c.kind, c.currency FROM projects p JOIN clients c ON c.id = p.client_id WHERE (:clientId IS NULL OR p.client_id = :clientId)",
-      { type: QueryTypes.SELECT, replacements: { clientId: scope.clientId } },
+      { replacements: { clientId: scope.clientId } },
     ),
     runSql === null
       ? Promise.resolve([])
-      : sequelize.query<{ group_key: string | number; runs: number; injections: string }>(
+      : select<{ group_key: string | number; runs: number; injections: number }>(
           `SELECT ${runSql} AS group_key, COUNT(*) AS runs, SUM(r.injections) AS injections
              FROM runs r JOIN projects p ON p.id = r.project_id
             WHERE r.started_at >= :start AND r.started_at < :end AND (:clientId IS NULL OR p.client_id = :clientId)
             GROUP BY group_key`,
-          { type: QueryTypes.SELECT, replacements: { start, end, clientId: scope.clientId } },
+          { replacements: { start, end, clientId: scope.clientId } },
         ),
   ]);
   const projectById = new Map(projects.map((p) => [p.id, p]));
