@@ -58,7 +58,8 @@ async function checkContainer(id: number | null) {
     });
 }
 
-const snapshot = (i: Instrument) => ({
+/** What a form sets on an instrument, and what the audit line keeps of it. */
+const fields = (i: InstrumentInput | Instrument) => ({
   name: i.name,
   kind: i.kind,
   room: i.room,
@@ -76,19 +77,9 @@ function duplicateName(error: unknown, name: string): never {
 export async function createInstrument(input: InstrumentInput, actor: SignedInUser): Promise<{ id: number }> {
   await checkContainer(input.wasteContainerId);
   return inTransaction(getSequelize(), async (transaction) => {
-    const created = await Instrument.create(
-      {
-        name: input.name,
-        kind: input.kind,
-        room: input.room,
-        channels: input.channels,
-        wasteContainerId: input.wasteContainerId,
-        active: input.active,
-      },
-      { transaction },
-    ).catch((e: unknown) => duplicateName(e, input.name));
+    const created = await Instrument.create(fields(input), { transaction }).catch((e: unknown) => duplicateName(e, input.name));
     await recordAudit(
-      { actorId: actor.id, action: "instrument.create", entity: "instrument", entityId: created.id, after: snapshot(created) },
+      { actorId: actor.id, action: "instrument.create", entity: "instrument", entityId: created.id, after: fields(created) },
       transaction,
     );
     return { id: created.id };
@@ -100,18 +91,11 @@ export async function updateInstrument(id: number, input: InstrumentInput, actor
   return inTransaction(getSequelize(), async (transaction) => {
     const instrument = await Instrument.findByPk(id, { transaction, lock: transaction.LOCK.UPDATE });
     if (!instrument) throw new HttpError(404, `id: no instrument ${id}`);
-    const before = snapshot(instrument);
-    instrument.set({
-      name: input.name,
-      kind: input.kind,
-      room: input.room,
-      channels: input.channels,
-      wasteContainerId: input.wasteContainerId,
-      active: input.active,
-    });
+    const before = fields(instrument);
+    instrument.set(fields(input));
     await instrument.save({ transaction }).catch((e: unknown) => duplicateName(e, input.name));
     await recordAudit(
-      { actorId: actor.id, action: "instrument.update", entity: "instrument", entityId: id, before, after: snapshot(instrument) },
+      { actorId: actor.id, action: "instrument.update", entity: "instrument", entityId: id, before, after: fields(instrument) },
       transaction,
     );
     return { id };

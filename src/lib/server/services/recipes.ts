@@ -253,20 +253,40 @@ export async function approveRecipe(id: number, version: number, actor: SignedIn
   return getRecipe(id);
 }
 
+/** A recipe version with its recipe, as preparation uses it. */
+interface VersionRow {
+  recipe_id: number;
+  id: number;
+  version: number;
+  code: string;
+  name: string;
+  channel: string | null;
+  detection_nm: number | null;
+  storage: string | null;
+  spec: unknown;
+  approved_at: Date | null;
+  status: string;
+}
+
+const SELECT_VERSIONS = `SELECT v.recipe_id, v.id, v.version, r.code, r.name, r.channel, v.detection_nm, v.storage, v.spec, v.approved_at, r.status
+                           FROM recipe_versions v JOIN recipes r ON r.id = v.recipe_id`;
+
+/** Throws when the stored specification no longer parses. */
+const preparable = (r: VersionRow): PreparableRecipe => ({
+  recipeId: r.recipe_id,
+  versionId: r.id,
+  version: r.version,
+  code: r.code,
+  name: r.name,
+  channel: r.channel,
+  detection_nm: r.detection_nm,
+  storage: r.storage,
+  spec: parseSpec(r.spec),
+});
+
 export async function preparableRecipes(): Promise<PreparableRecipe[]> {
-  const rows = await select<{
-    recipe_id: number;
-    id: number;
-    version: number;
-    code: string;
-    name: string;
-    channel: string | null;
-    detection_nm: number | null;
-    storage: string | null;
-    spec: unknown;
-  }>(
-    `SELECT v.recipe_id, v.id, v.version, r.code, r.name, r.channel, v.detection_nm, v.storage, v.spec
-       FROM recipe_versions v JOIN recipes r ON r.id = v.recipe_id
+  const rows = await select<VersionRow>(
+    `${SELECT_VERSIONS}
       WHERE r.status <> 'retired' AND v.approved_at IS NOT NULL
         AND v.version = (SELECT MAX(w.version) FROM recipe_versions w WHERE w.recipe_id = v.recipe_id AND w.approved_at IS NOT NULL)
       ORDER BY r.code`,
@@ -274,17 +294,7 @@ export async function preparableRecipes(): Promise<PreparableRecipe[]> {
   const out: PreparableRecipe[] = [];
   for (const r of rows) {
     try {
-      out.push({
-        recipeId: r.recipe_id,
-        versionId: r.id,
-        version: r.version,
-        code: r.code,
-        name: r.name,
-        channel: r.channel,
-        detection_nm: r.detection_nm,
-        storage: r.storage,
-        spec: parseSpec(r.spec),
-      });
+      out.push(preparable(r));
     } catch {
       // A version whose stored specification no longer parses is not offered for preparation.
     }
@@ -296,35 +306,7 @@ export async function getRecipeVersion(
   versionId: number,
   transaction?: Transaction,
 ): Promise<PreparableRecipe & { approved: boolean; retired: boolean }> {
-  const r = await selectOne<{
-    recipe_id: number;
-    id: number;
-    version: number;
-    code: string;
-    name: string;
-    channel: string | null;
-    detection_nm: number | null;
-    storage: string | null;
-    spec: unknown;
-    approved_at: Date | null;
-    status: string;
-  }>(
-    `SELECT v.recipe_id, v.id, v.version, r.code, r.name, r.channel, v.detection_nm, v.storage, v.spec, v.approved_at, r.status
-       FROM recipe_versions v JOIN recipes r ON r.id = v.recipe_id WHERE v.id = ?`,
-    { replacements: [versionId], transaction },
-  );
+  const r = await selectOne<VersionRow>(`${SELECT_VERSIONS} WHERE v.id = ?`, { replacements: [versionId], transaction });
   if (!r) throw new HttpError(400, `recipeVersionId: no recipe version ${versionId}`);
-  return {
-    recipeId: r.recipe_id,
-    versionId: r.id,
-    version: r.version,
-    code: r.code,
-    name: r.name,
-    channel: r.channel,
-    detection_nm: r.detection_nm,
-    storage: r.storage,
-    spec: parseSpec(r.spec),
-    approved: r.approved_at !== null,
-    retired: r.status === "retired",
-  };
+  return { ...preparable(r), approved: r.approved_at !== null, retired: r.status === "retired" };
 }
