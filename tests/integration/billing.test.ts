@@ -11,24 +11,19 @@ import { AuditEntry } from "../../src/lib/server/models/audit";
 import { Invoice, ProcessedEvent } from "../../src/lib/server/models/billing";
 import { Client } from "../../src/lib/server/models/organisation";
 import { createPaymentsClient } from "../../src/lib/server/payments";
-import {
-  addRate,
-  chargebackJournal,
-  computeStatement,
-  getStatement,
-  handlePaymentsWebhook,
-  invoiceStatement,
-  isPeriodLocked,
-  issueStatement,
-  listInvoices,
-  listStatements,
-  openDateFor,
-  openStatement,
-} from "../../src/lib/server/services/billing";
-import { useTestDatabase } from "../support/database";
+import { chargebackJournal } from "../../src/lib/server/services/billing/documents";
+import { listInvoices } from "../../src/lib/server/services/billing/invoices";
+import { isPeriodLocked, openDateFor } from "../../src/lib/server/services/billing/period-locks";
+import { addRate } from "../../src/lib/server/services/billing/rates";
+import { invoiceStatement } from "../../src/lib/server/services/billing/statement-invoice";
+import { issueStatement } from "../../src/lib/server/services/billing/statement-issue";
+import { computeStatement } from "../../src/lib/server/services/billing/statement-lines";
+import { getStatement, listStatements, openStatement } from "../../src/lib/server/services/billing/statements";
+import { handlePaymentsWebhook } from "../../src/lib/server/services/billing/webhooks";
 import { client as httpClient } from "../support/http";
+import { useServiceDatabase } from "../support/service-database";
 
-const db = useTestDatabase();
+const db = useServiceDatabase();
 const manager = { id: 2, email: "manager@demo.test", name: "Priya Castellan", role: "manager", clientId: null } as SignedInUser;
 const contact = { id: 5, email: "client@demo.test", name: "Jun Okabe", role: "client", clientId: 4 } as SignedInUser;
 const QUILLFEATHER = 4;

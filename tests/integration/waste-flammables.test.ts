@@ -7,7 +7,7 @@ import { beforeAll, describe, expect, it } from "vitest";
 import { preparationPlan } from "../../src/lib/preparation/plan";
 import { knownRooms, recordBatch } from "../../src/lib/server/services/preparation";
 import { getRecipeVersion } from "../../src/lib/server/services/recipes";
-import { flammablesByRoom } from "../../src/lib/server/services/waste";
+import { flammablesByRoom } from "../../src/lib/server/services/waste/flammables";
 import { actor, useServiceDatabase } from "../support/service-database";
 
 const handle = useServiceDatabase();

@@ -1,6 +1,6 @@
 // Property: for any ledger, the waste summary of a period equals, stream by stream, the sum of the
 // entries that reach waste in that period — runs, discards and draws (the summary's definition in
-// services/waste.ts), and the corrections that reverse one of them, under the original's stream
+// services/waste/totals.ts), and the corrections that reverse one of them, under the original's stream
 // when the correction carries none. Preparation entries, and corrections reversing them, never count.
 // Each generated ledger lives in a year of its own far ahead, in a database of this file's own, so
 // the demo data and earlier runs (the ledger is append-only) cannot move the figures.
@@ -9,7 +9,7 @@ import { QueryTypes, type Sequelize } from "sequelize";
 import { beforeAll, describe, expect, it } from "vitest";
 import type { LedgerKind, NewLedgerEntry } from "../../src/lib/ledger/types";
 import { appendEntries } from "../../src/lib/server/services/ledger";
-import { wasteSummary } from "../../src/lib/server/services/waste";
+import { wasteSummary } from "../../src/lib/server/services/waste/totals";
 import { useServiceDatabase } from "../support/service-database";
 
 const handle = useServiceDatabase();

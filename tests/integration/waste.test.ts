@@ -6,19 +6,12 @@ import { join } from "node:path";
 import { QueryTypes, type Sequelize } from "sequelize";
 import { beforeAll, describe, expect, it } from "vitest";
 import { acquireJobLock, releaseJobLock } from "../../src/lib/server/job-lock";
-import {
-  checkContainerAccepts,
-  getContainer,
-  listContainers,
-  recordCollection,
-  recordReading,
-  requestPickup,
-  runWasteAlertCheck,
-  setContainerStatus,
-  wasteOnHand,
-  wasteStreamForMix,
-  wasteSummary,
-} from "../../src/lib/server/services/waste";
+import { runWasteAlertCheck } from "../../src/lib/server/services/waste/alerts";
+import { getContainer, listContainers, setContainerStatus } from "../../src/lib/server/services/waste/containers";
+import { recordCollection, requestPickup } from "../../src/lib/server/services/waste/pickups";
+import { recordReading } from "../../src/lib/server/services/waste/readings";
+import { checkContainerAccepts, wasteStreamForMix } from "../../src/lib/server/services/waste/route";
+import { wasteOnHand, wasteSummary } from "../../src/lib/server/services/waste/totals";
 import { useServiceDatabase } from "../support/service-database";
 
 const actor = { id: 4 }; // the demo safety officer

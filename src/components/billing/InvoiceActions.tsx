@@ -1,10 +1,11 @@
 import { useState } from "react";
+import type { InvoiceStatus } from "../../lib/billing/types";
 import { postJson } from "../forms/post-json";
 
 interface Props {
   invoiceId: number;
   number: string | null;
-  status: "draft" | "open" | "paid" | "void" | "uncollectible";
+  status: InvoiceStatus;
 }
 
 /** The manager's follow-up on a sent invoice: cancel it, or write it off. */

@@ -1,33 +1,26 @@
 import { useId, useState, type FormEvent } from "react";
+import type { PriceList, RateKind } from "../../lib/billing/rates";
 import { parseMajorAmount } from "../../lib/billing/statement";
+import type { RateReagent } from "../../lib/billing/types";
 import { rateInput } from "../../lib/schemas/billing";
 import { fieldErrors } from "../../lib/schemas/zod-error";
 import { postJson } from "../forms/post-json";
 import { IslandForm } from "../forms/island-form";
 
-export interface ReagentOption {
-  id: string;
-  name: string;
-  unit: "mL" | "g";
-  grades: string[];
-}
-
 interface Props {
-  reagents: ReagentOption[];
+  reagents: RateReagent[];
   currency: string;
   /** Today, YYYY-MM-DD: the default effective-from. */
   today: string;
 }
 
-type Kind = "reagent" | "preparation_fee" | "injection_fee";
-
 /** Adds a price. Nothing is edited in place: the new price supersedes the old one from its first day. */
 export default function RateForm({ reagents, currency, today }: Props) {
   const id = useId();
-  const [kind, setKind] = useState<Kind>("reagent");
+  const [kind, setKind] = useState<RateKind>("reagent");
   const [reagentId, setReagentId] = useState(reagents[0]?.id ?? "");
   const [grade, setGrade] = useState("");
-  const [priceList, setPriceList] = useState<"internal" | "external">("internal");
+  const [priceList, setPriceList] = useState<PriceList>("internal");
   const [price, setPrice] = useState("");
   const [effectiveFrom, setEffectiveFrom] = useState(today);
   const [errors, setErrors] = useState<Record<string, string>>({});
@@ -75,7 +68,7 @@ export default function RateForm({ reagents, currency, today }: Props) {
     <IslandForm onSubmit={submit} className="card grid gap-4 p-5 sm:grid-cols-2 lg:grid-cols-3" noValidate aria-label="Add a rate">
       <div className="field">
         <label htmlFor={`${id}-kind`}>Priced item</label>
-        <select id={`${id}-kind`} className="input" value={kind} onChange={(e) => setKind(e.target.value as Kind)}>
+        <select id={`${id}-kind`} className="input" value={kind} onChange={(e) => setKind(e.target.value as RateKind)}>
           <option value="reagent">Reagent (per litre or gram)</option>
           <option value="preparation_fee">Preparation fee (per batch)</option>
           <option value="injection_fee">Injection fee (per injection)</option>
@@ -125,12 +118,7 @@ export default function RateForm({ reagents, currency, today }: Props) {
       )}
       <div className="field">
         <label htmlFor={`${id}-list`}>Price list</label>
-        <select
-          id={`${id}-list`}
-          className="input"
-          value={priceList}
-          onChange={(e) => setPriceList(e.target.value as "internal" | "external")}
-        >
+        <select id={`${id}-list`} className="input" value={priceList} onChange={(e) => setPriceList(e.target.value as PriceList)}>
           <option value="internal">Internal research groups</option>
           <option value="external">External clients</option>
         </select>

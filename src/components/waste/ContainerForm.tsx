@@ -3,13 +3,14 @@ import { containerSchema, type ContainerInput } from "../../lib/schemas/waste";
 import { Field, SelectField, useZodForm } from "../forms/form";
 import { IslandForm } from "../forms/island-form";
 import { postJson } from "../forms/post-json";
+import type { ContainerView, InstrumentChoice, StreamView } from "../../lib/waste/types";
 
 interface Props {
   /** Editing this container; creating a new one when absent. */
   containerId?: number;
   initial?: Partial<ContainerInput>;
-  streams: { id: string; name: string }[];
-  instruments: { id: number; name: string; room: string; containerCode: string | null }[];
+  streams: Pick<StreamView, "id" | "name">[];
+  instruments: Pick<InstrumentChoice, "id" | "name" | "room" | "containerCode">[];
 }
 
 const LOCATION_LABELS = { room: "In the room", satellite_area: "Satellite accumulation area", instrument: "At an instrument" } as const;
@@ -23,7 +24,7 @@ export default function ContainerForm({ containerId, initial = {}, streams, inst
   const onSubmit = handleSubmit(async (values) => {
     setProblem(null);
     try {
-      const { container } = await postJson<{ container: { id: number } }>(
+      const { container } = await postJson<{ container: ContainerView }>(
         containerId ? `/api/waste/containers/${containerId}` : "/api/waste/containers",
         values,
         containerId ? "PUT" : "POST",

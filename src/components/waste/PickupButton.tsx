@@ -1,5 +1,6 @@
 import { useState } from "react";
 import { postJson } from "../forms/post-json";
+import type { PickupView } from "../../lib/waste/types";
 
 /** Requests a pickup for one or more containers, after a confirmation step with an optional note. */
 export default function PickupButton({
@@ -34,7 +35,7 @@ export default function PickupButton({
     setBusy(true);
     setProblem(null);
     try {
-      const { pickup } = await postJson<{ pickup: { reference: string } }>("/api/waste/pickups", {
+      const { pickup } = await postJson<{ pickup: PickupView }>("/api/waste/pickups", {
         containerIds,
         note: note.trim() || null,
       });

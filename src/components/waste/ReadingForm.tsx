@@ -3,6 +3,7 @@ import { readingSchema, type ReadingInput } from "../../lib/schemas/waste";
 import { Field, useZodForm } from "../forms/form";
 import { IslandForm } from "../forms/island-form";
 import { postJson } from "../forms/post-json";
+import type { ReadingResult } from "../../lib/waste/types";
 
 /** A manual level reading. The answer shows the difference from Decant's estimate, which is kept. */
 export default function ReadingForm({ containerId, estimated_mL }: { containerId: number; estimated_mL: number }) {
@@ -12,7 +13,7 @@ export default function ReadingForm({ containerId, estimated_mL }: { containerId
   const onSubmit = handleSubmit(async (values) => {
     setProblem(null);
     try {
-      const r = await postJson<{ estimatedBefore_mL: number; difference_mL: number }>(`/api/waste/containers/${containerId}/readings`, {
+      const r = await postJson<ReadingResult>(`/api/waste/containers/${containerId}/readings`, {
         ...values,
         note: values.note || null,
       });

@@ -1,8 +1,15 @@
 import { useState } from "react";
 import { postJson } from "../forms/post-json";
+import type { ContainerStatus } from "../../lib/waste/types";
 
 /** Marks a container full (it then takes no more runs) or back in use. */
-export default function StatusButtons({ containerId, status }: { containerId: number; status: "in_use" | "full" }) {
+export default function StatusButtons({
+  containerId,
+  status,
+}: {
+  containerId: number;
+  status: Extract<ContainerStatus, "in_use" | "full">;
+}) {
   const [busy, setBusy] = useState(false);
   const [problem, setProblem] = useState<string | null>(null);
   const next = status === "in_use" ? "full" : "in_use";

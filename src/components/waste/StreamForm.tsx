@@ -1,9 +1,10 @@
 import { useState } from "react";
 import { z } from "zod";
-import { streamSchema } from "../../lib/schemas/waste";
+import { streamSchema, type StreamInput } from "../../lib/schemas/waste";
 import { Field, useZodForm } from "../forms/form";
 import { IslandForm } from "../forms/island-form";
 import { postJson } from "../forms/post-json";
+import type { StreamRule } from "../../lib/waste/types";
 
 // The form edits "also accepts" as a comma-separated list; the API takes an array.
 const formSchema = streamSchema.extend({ alsoAccepts: z.string().max(400).default("") });
@@ -11,15 +12,9 @@ type FormValues = z.infer<typeof formSchema>;
 
 interface Props {
   /** Editing this stream; creating one when absent. */
-  stream?: {
-    id: string;
-    name: string;
-    description: string | null;
-    restrictiveness: number;
-    minShare_percent: number | null;
-    alsoAccepts: readonly string[] | null;
-  };
-  defaults?: { minShare_percent: number; alsoAccepts: readonly string[] } | null;
+  /** As stored: null where the stream keeps the common-practice default. */
+  stream?: Omit<StreamInput, "alsoAccepts"> & { alsoAccepts: readonly string[] | null };
+  defaults?: Pick<StreamRule, "minShare_percent" | "alsoAccepts"> | null;
 }
 
 const orNull = (v: unknown) => (v === "" || v === null || v === undefined ? null : v);

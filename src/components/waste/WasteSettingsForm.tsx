@@ -4,6 +4,7 @@ import { wasteSettingsSchema } from "../../lib/schemas/waste";
 import { Field, useZodForm } from "../forms/form";
 import { IslandForm } from "../forms/island-form";
 import { postJson } from "../forms/post-json";
+import type { WasteSettings } from "../../lib/waste/types";
 
 // Room limits and reagent overrides are edited as "key = value" lines; the API takes objects.
 const lines = z.string().max(4000).default("");
@@ -34,13 +35,7 @@ function parseLines(text: string, field: string, numeric: boolean): Record<strin
 }
 
 interface Props {
-  settings: {
-    fullThreshold_percent: number;
-    accumulationLimit_days: number;
-    accumulationWarning_days: number;
-    roomLimits_L: Record<string, number>;
-    reagentStreams: Record<string, string>;
-  };
+  settings: WasteSettings;
 }
 
 export default function WasteSettingsForm({ settings }: Props) {

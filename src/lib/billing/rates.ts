@@ -46,9 +46,34 @@ export function rateInForce(rates: readonly Rate[], query: RateQuery): Rate | nu
     // Grade-specific prices belong to the billing issue; the ledger costs at the reagent's general rate.
     if (rate.grade !== null) continue;
     if (rate.effectiveFrom > day) continue;
-    if (!best || rate.effectiveFrom > best.effectiveFrom || (rate.effectiveFrom === best.effectiveFrom && rate.id > best.id)) best = rate;
+    if (supersedes(rate, best)) best = rate;
   }
   return best;
+}
+
+/** True when `rate` takes over from `other` for the same item: it starts later, or the same day and was entered later. */
+export function supersedes(rate: Rate, other: Rate | null): boolean {
+  return !other || rate.effectiveFrom > other.effectiveFrom || (rate.effectiveFrom === other.effectiveFrom && rate.id > other.id);
+}
+
+/** A rate on a given day: "current" (in force), "superseded" (a newer one took over) or "scheduled" (starts later). */
+export type RateState = "current" | "superseded" | "scheduled";
+
+/**
+ * Each rate's state on `day` (YYYY-MM-DD), by id. Per price list, kind, reagent, grade and
+ * currency, the rate in force that day is current; older ones are superseded, later ones scheduled.
+ */
+export function rateStates(rates: readonly Rate[], day: string): Map<number, RateState> {
+  const inForce = new Map<string, Rate>();
+  for (const rate of rates) {
+    if (rate.effectiveFrom > day) continue;
+    const key = [rate.priceList, rate.kind, rate.reagentId, rate.grade, rate.currency].join("|");
+    if (supersedes(rate, inForce.get(key) ?? null)) inForce.set(key, rate);
+  }
+  const current = new Set([...inForce.values()].map((rate) => rate.id));
+  return new Map(
+    rates.map((rate) => [rate.id, current.has(rate.id) ? "current" : rate.effectiveFrom > day ? "scheduled" : "superseded"] as const),
+  );
 }
 
 /** Quantities are scaled to integers of 10⁻⁶ (mL or g) before multiplying. */

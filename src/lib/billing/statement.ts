@@ -1,7 +1,7 @@
 /**
  * Statements, pure: the lines of a client's period from aggregated ledger usage, costed at the
  * rates in force on each day; the statement CSV and the chargeback journal CSV. No I/O; the
- * server service (src/lib/server/services/billing.ts) feeds it rows from the database.
+ * server services (src/lib/server/services/billing/) feed it rows from the database.
  *
  * Money stays in integer minor units. Each line's cost is summed exactly (10⁻⁹ minor units) and
  * rounded once, half away from zero; the statement total is the sum of the rounded lines, so
@@ -9,7 +9,7 @@
  */
 import { formatNumber, formatVolume } from "../format";
 import { minorDigits, type Money } from "./money";
-import { exactCost, rateInForce, roundMinor, toMicro, type PriceList, type Rate, type RateKind, type RateUnit } from "./rates";
+import { exactCost, rateInForce, roundMinor, supersedes, toMicro, type PriceList, type Rate, type RateKind, type RateUnit } from "./rates";
 
 /** One project's use of one reagent on one UTC day (the database sums the entries). */
 export interface UsageRow {
@@ -20,7 +20,7 @@ export interface UsageRow {
   /** Grade of the stock lot the batch was made from, when known. */
   grade: string | null;
   day: string;
-  /** Decimal strings as the database gives them; negative in corrections. */
+  /** Sums as the database gives them (numbers), or decimal strings; negative in corrections. */
   volume_mL: string | number;
   mass_g: string | number | null;
 }
@@ -72,7 +72,7 @@ export function gradeRateInForce(
     for (const rate of rates) {
       if (rate.kind !== query.kind || rate.reagentId !== query.reagentId || rate.grade !== query.grade) continue;
       if (rate.priceList !== query.priceList || rate.currency !== query.currency || rate.effectiveFrom > query.day) continue;
-      if (!best || rate.effectiveFrom > best.effectiveFrom || (rate.effectiveFrom === best.effectiveFrom && rate.id > best.id)) best = rate;
+      if (supersedes(rate, best)) best = rate;
     }
     if (best) return best;
   }
@@ -199,6 +199,15 @@ export function buildStatement(input: {
         (a.rateEffectiveFrom ?? "").localeCompare(b.rateEffectiveFrom ?? ""),
     );
   return { lines, total_minor: lines.reduce((sum, line) => sum + line.amount_minor, 0), currency, uncosted: [...uncosted].sort() };
+}
+
+/** Why a draft ending on `periodEnd` cannot be issued on `today` (both YYYY-MM-DD), or null when it can. */
+export function issueBlocker(periodEnd: string, computation: StatementComputation, today: string): string | null {
+  if (periodEnd >= today) return `The period runs until ${periodEnd}; issue it once it has ended.`;
+  if (computation.uncosted.length)
+    return `No rate in force for ${computation.uncosted.join(", ")} on some days of the period; add a rate first.`;
+  if (computation.lines.length === 0 || computation.total_minor === 0) return "Nothing to charge in this period.";
+  return null;
 }
 
 /** Per-project subtotals, in line order. */

@@ -1,17 +1,24 @@
-// Scheduled work of an app instance. Each job takes a database lock (job_locks), so several
-// instances behind a proxy never send the same mail twice.
+// Scheduled work of an app instance: every timer of the app is here. Each job takes a database
+// lock (job_locks), so several instances behind a proxy never send the same mail twice.
 import { runExpiryDigest } from "./services/expiry-digest";
-import { ensureWasteAlertSchedule } from "./services/waste";
+import { runWasteAlertCheck } from "./services/waste/alerts";
+
+const MINUTE = 60_000;
 
 let started = false;
+
+/** Runs `job` once after `first_ms`, then every `every_ms`; a failure is logged and the next tick tries again. */
+function repeat(name: string, first_ms: number, every_ms: number, job: () => Promise<unknown>) {
+  const tick = () => void job().catch((error) => console.warn(`${name} failed: ${error instanceof Error ? error.message : error}`));
+  // Timers never keep the process alive on their own.
+  setTimeout(tick, first_ms).unref();
+  setInterval(tick, every_ms).unref();
+}
 
 /** Starts every schedule once per process; DECANT_NO_SCHEDULE=1 turns them off (tests drive the jobs themselves). */
 export function startSchedules() {
   if (started || process.env.DECANT_NO_SCHEDULE === "1") return;
   started = true;
-  ensureWasteAlertSchedule();
-  const digest = () =>
-    void runExpiryDigest().catch((error) => console.warn(`expiry digest failed: ${error instanceof Error ? error.message : error}`));
-  setTimeout(digest, 90_000).unref();
-  setInterval(digest, 30 * 60_000).unref();
+  repeat("waste alert check", MINUTE, 15 * MINUTE, () => runWasteAlertCheck());
+  repeat("expiry digest", 90_000, 30 * MINUTE, () => runExpiryDigest());
 }

@@ -94,3 +94,24 @@ export const ALERT_TEXT: Record<AlertKind, string> = {
   "accumulation-approaching": "approaching the site's accumulation limit",
   "accumulation-over": "past the site's accumulation limit",
 };
+
+/** What an alert's sentence names: the container, its fill and its accumulation (a ContainerView has all three). */
+export interface AlertSubject {
+  code: string;
+  fill: Pick<FillInfo, "percent">;
+  accumulation: Pick<AccumulationInfo, "days" | "daysLeft"> | null;
+}
+
+/** The sentence the pages, the API and the alert mail show for an alert. */
+export function alertMessage(c: AlertSubject, kind: AlertKind, limits: WasteLimits): string {
+  switch (kind) {
+    case "near-full":
+      return `${c.code} is at ${c.fill.percent} % of its capacity (threshold ${limits.fullThreshold_percent} %); request a pickup or swap the container.`;
+    case "over-capacity":
+      return `${c.code} is estimated above its capacity (${c.fill.percent} %); check the level and stop routing waste into it.`;
+    case "accumulation-approaching":
+      return `${c.code} has been accumulating for ${c.accumulation?.days ?? "?"} days; the site's limit (${limits.accumulationLimit_days} days) is reached in ${c.accumulation?.daysLeft ?? "?"} days.`;
+    case "accumulation-over":
+      return `${c.code} has been accumulating for ${c.accumulation?.days ?? "?"} days, past the site's limit of ${limits.accumulationLimit_days} days.`;
+  }
+}

@@ -12,18 +12,7 @@
  * hazardous-waste rules and local regulations decide, and the safety officer edits them in Decant.
  */
 import { getReagent, type WasteStream } from "../chem";
-
-export interface StreamRule {
-  /** Stable id, e.g. "halogenated-organic"; the catalogue's stream names are ids here. */
-  id: string;
-  name: string;
-  /** Higher is more restrictive: a mix goes to the most restrictive stream it reaches. */
-  restrictiveness: number;
-  /** Share of the mix (% v/v for liquids, % w/v for solids) from which this stream is reached. */
-  minShare_percent: number;
-  /** Other streams' mixes that a container of this stream may also take. */
-  alsoAccepts: readonly string[];
-}
+import type { EffectiveRule, StreamRule } from "./types";
 
 export interface DefaultStream extends StreamRule {
   description: string;
@@ -165,4 +154,29 @@ export function assignWasteStream(
 /** True when a container of `containerStream` may take a mix routed to `mixStream`. */
 export function streamAccepts(containerStream: StreamRule, mixStream: string): boolean {
   return containerStream.id === mixStream || containerStream.alsoAccepts.includes(mixStream);
+}
+
+/** A stream as the site stored it: null where the site keeps the common-practice default. */
+export interface StoredStream {
+  id: string;
+  name: string;
+  restrictiveness: number;
+  minShare_percent: number | null;
+  alsoAccepts: readonly string[] | null;
+}
+
+/** The rule in force for a stored stream, and which of its parts are the default. */
+export function effectiveRule(stream: StoredStream): EffectiveRule {
+  const fallback = DEFAULT_STREAM_BY_ID[stream.id];
+  // The column is JSON: anything but a list counts as "not set".
+  const accepts = Array.isArray(stream.alsoAccepts) ? stream.alsoAccepts : null;
+  return {
+    id: stream.id,
+    name: stream.name,
+    restrictiveness: stream.restrictiveness,
+    minShare_percent: stream.minShare_percent ?? fallback?.minShare_percent ?? 0,
+    alsoAccepts: accepts ?? fallback?.alsoAccepts ?? [],
+    defaultMinShare: stream.minShare_percent === null,
+    defaultAlsoAccepts: accepts === null,
+  };
 }

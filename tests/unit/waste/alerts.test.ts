@@ -1,7 +1,7 @@
 // Fill and accumulation alerts. The limits are example values (80 %, 180 days, 14 days' warning);
 // the institution's rules and local regulations decide the real ones.
 import { describe, expect, it } from "vitest";
-import { accumulationState, containerAlerts, EXAMPLE_LIMITS, fillState } from "../../../src/lib/waste/alerts";
+import { accumulationState, alertMessage, containerAlerts, EXAMPLE_LIMITS, fillState } from "../../../src/lib/waste/alerts";
 import { monthsIn, periodBounds, periodFor, previousPeriod } from "../../../src/lib/waste/period";
 
 describe("fillState at an 80 % threshold", () => {
@@ -68,6 +68,20 @@ describe("containerAlerts", () => {
     expect(containerAlerts({ ...base, estimated_mL: 7_000 }, { ...EXAMPLE_LIMITS, fullThreshold_percent: 70 }, now)).toEqual([
       "near-full",
     ]));
+});
+
+describe("alertMessage", () => {
+  const container = { code: "WC-0103", fill: { percent: 84 }, accumulation: { days: 170, daysLeft: 10 } };
+  it.each([
+    ["near-full", "WC-0103 is at 84 % of its capacity (threshold 80 %); request a pickup or swap the container."],
+    ["accumulation-approaching", "WC-0103 has been accumulating for 170 days; the site's limit (180 days) is reached in 10 days."],
+  ] as const)("%s names the container, its figure and the site's limit", (kind, message) => {
+    expect(alertMessage(container, kind, EXAMPLE_LIMITS)).toBe(message);
+  });
+  it("follows an edited limit", () =>
+    expect(alertMessage(container, "accumulation-over", { ...EXAMPLE_LIMITS, accumulationLimit_days: 90 })).toMatch(
+      /past the site's limit of 90 days/,
+    ));
 });
 
 describe("reporting periods", () => {

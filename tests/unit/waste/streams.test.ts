@@ -4,11 +4,12 @@ import { describe, expect, it } from "vitest";
 import {
   assignWasteStream,
   DEFAULT_STREAMS,
+  effectiveRule,
   streamAccepts,
   WasteRuleError,
   type MixPart,
-  type StreamRule,
 } from "../../../src/lib/waste/streams";
+import type { StreamRule } from "../../../src/lib/waste/types";
 
 const mL = (reagentId: string, volume_mL: number): MixPart => ({ reagentId, volume_mL });
 const g = (reagentId: string, mass_g: number): MixPart => ({ reagentId, mass_g });
@@ -84,5 +85,34 @@ describe("streamAccepts", () => {
     ["acidic-corrosive", "non-halogenated-organic", false],
   ])("a %s container takes %s: %s", (container, mix, expected) => {
     expect(streamAccepts(byId[container]!, mix)).toBe(expected);
+  });
+});
+
+describe("effectiveRule", () => {
+  const stored = { id: "acidic-corrosive", name: "Acidic / corrosive", restrictiveness: 3 };
+  it("takes the common-practice default where the site stored none, and says so", () => {
+    expect(effectiveRule({ ...stored, minShare_percent: null, alsoAccepts: null })).toEqual({
+      ...stored,
+      minShare_percent: 10,
+      alsoAccepts: [],
+      defaultMinShare: true,
+      defaultAlsoAccepts: true,
+    });
+  });
+  it("keeps the site's own values, 0 % and an empty list included", () => {
+    expect(effectiveRule({ ...stored, minShare_percent: 0, alsoAccepts: ["aqueous"] })).toMatchObject({
+      minShare_percent: 0,
+      alsoAccepts: ["aqueous"],
+      defaultMinShare: false,
+      defaultAlsoAccepts: false,
+    });
+  });
+  it("falls back to 0 % and no other streams for a stream Decant has no default for", () => {
+    expect(
+      effectiveRule({ id: "site-cytotoxic", name: "Cytotoxic", restrictiveness: 5, minShare_percent: null, alsoAccepts: null }),
+    ).toMatchObject({
+      minShare_percent: 0,
+      alsoAccepts: [],
+    });
   });
 });

@@ -1,6 +1,7 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from "sequelize";
 import type { PriceList, RateKind, RateUnit } from "../../billing/rates";
 import type { StatementLine } from "../../billing/statement";
+import type { InvoiceStatus, StatementStatus } from "../../billing/types";
 
 /** A price; never edited in place: a later effective-from supersedes it. */
 export class RateRow extends Model<InferAttributes<RateRow>, InferCreationAttributes<RateRow>> {
@@ -19,8 +20,6 @@ export class RateRow extends Model<InferAttributes<RateRow>, InferCreationAttrib
   declare createdBy: number | null;
   declare createdAt: CreationOptional<Date>;
 }
-
-export type StatementStatus = "draft" | "issued" | "void";
 
 /** A client's period: lines costed at the rates in force then. Issued lines never change. */
 export class Statement extends Model<InferAttributes<Statement>, InferCreationAttributes<Statement>> {
@@ -41,8 +40,6 @@ export class Statement extends Model<InferAttributes<Statement>, InferCreationAt
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 }
-
-export type InvoiceStatus = "draft" | "open" | "paid" | "void" | "uncollectible";
 
 /** The payment provider's invoice for an external client's statement, mirrored. */
 export class Invoice extends Model<InferAttributes<Invoice>, InferCreationAttributes<Invoice>> {

@@ -1,7 +1,6 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from "sequelize";
-
-export type ContainerStatus = "in_use" | "full" | "awaiting_pickup" | "collected";
-export type LocationKind = "room" | "satellite_area" | "instrument";
+import { CONTAINER_STATUSES, LOCATION_KINDS } from "../../schemas/waste";
+import type { ContainerStatus, LocationKind } from "../../waste/types";
 
 export class WasteStream extends Model<InferAttributes<WasteStream>, InferCreationAttributes<WasteStream>> {
   declare id: string;
@@ -23,7 +22,7 @@ export class WasteContainer extends Model<InferAttributes<WasteContainer>, Infer
   declare code: string;
   declare streamId: string;
   declare capacityMl: number;
-  /** Cached estimate; the live figure is derived from readings and the ledger (services/waste.ts). */
+  /** Cached estimate; the live figure is derived from readings and the ledger (services/waste/containers.ts). */
   declare estimatedVolumeMl: CreationOptional<number>;
   declare room: string;
   declare locationKind: CreationOptional<LocationKind>;
@@ -88,9 +87,9 @@ export function initWasteModels(sequelize: Sequelize) {
       capacityMl: { type: DataTypes.INTEGER.UNSIGNED, allowNull: false },
       estimatedVolumeMl: { type: DataTypes.DECIMAL(14, 4), allowNull: false, defaultValue: 0 },
       room: { type: DataTypes.STRING(40), allowNull: false },
-      locationKind: { type: DataTypes.ENUM("room", "satellite_area", "instrument"), allowNull: false, defaultValue: "instrument" },
+      locationKind: { type: DataTypes.ENUM(...LOCATION_KINDS), allowNull: false, defaultValue: "instrument" },
       locationNote: { type: DataTypes.STRING(120), allowNull: true },
-      status: { type: DataTypes.ENUM("in_use", "full", "awaiting_pickup", "collected"), allowNull: false, defaultValue: "in_use" },
+      status: { type: DataTypes.ENUM(...CONTAINER_STATUSES), allowNull: false, defaultValue: "in_use" },
       accumulationStartedAt: { type: DataTypes.DATE(3), allowNull: true },
       fullAt: { type: DataTypes.DATE(3), allowNull: true },
       collectedAt: { type: DataTypes.DATE(3), allowNull: true },

@@ -14,7 +14,7 @@ import { getSequelize } from "../db";
 import type { SignedInUser } from "../guard";
 import { HttpError } from "../http";
 import { execute, select } from "../query";
-import { openDateForProject } from "./billing";
+import { openDateForProject } from "./billing/period-locks";
 import { inTransaction, multiRowInsert, pipelinedWrites } from "./sql";
 
 const COLUMNS = [

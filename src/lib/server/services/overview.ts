@@ -1,6 +1,6 @@
 /** The home page's figures: recent volume per project and the live waste containers. */
 import { select } from "../query";
-import { listContainers } from "./waste";
+import { listContainers } from "./waste/containers";
 
 const DAY = 86_400_000;
 

@@ -17,7 +17,7 @@ import { execute, selectOne } from "../query";
 import { batchesLeft, drawFromBatches, loadBatches, problemsError } from "./batch-use";
 import { appendEntries, ensureCatalogueRows } from "./ledger";
 import { getRun } from "./run-views";
-import { checkContainerAccepts, wasteStreamForMix } from "./waste";
+import { checkContainerAccepts, wasteStreamForMix } from "./waste/route";
 
 const instrumentForUse = (i: Instrument): InstrumentForUse => ({
   id: i.id,

@@ -1,7 +1,7 @@
 import { rateInput } from "../../../lib/schemas/billing";
 import { endpoint, requirePermission } from "../../../lib/server/guard";
 import { json, readJson } from "../../../lib/server/http";
-import { addRate, listRates } from "../../../lib/server/services/billing";
+import { addRate, listRates } from "../../../lib/server/services/billing/rates";
 
 export const GET = endpoint(async ({ locals }) => {
   requirePermission(locals, "manage:rate");

@@ -2,7 +2,7 @@ import { monthBounds } from "../../../lib/billing/statement";
 import { monthQuery, statementOpenInput } from "../../../lib/schemas/billing";
 import { endpoint, requirePermission, seesAllClients } from "../../../lib/server/guard";
 import { json, queryOf, readJson, validate } from "../../../lib/server/http";
-import { listStatements, openStatement, periodOverview } from "../../../lib/server/services/billing";
+import { listStatements, openStatement, periodOverview } from "../../../lib/server/services/billing/statements";
 
 /** Statements; with `?month=YYYY-MM` (staff), every client's state for that month. */
 export const GET = endpoint(async ({ locals, url }) => {

@@ -1,7 +1,7 @@
 import { journalQuery } from "../../../lib/schemas/billing";
 import { endpoint, requirePermission } from "../../../lib/server/guard";
 import { queryOf, validate } from "../../../lib/server/http";
-import { chargebackJournal } from "../../../lib/server/services/billing";
+import { chargebackJournal } from "../../../lib/server/services/billing/documents";
 
 /** The chargeback journal (cost centre, project code, amount) of the issued internal statements in `from`–`to`. */
 export const GET = endpoint(async ({ locals, url }) => {

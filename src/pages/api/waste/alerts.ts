@@ -1,6 +1,6 @@
 import { endpoint, requirePermission } from "../../../lib/server/guard";
 import { json } from "../../../lib/server/http";
-import { currentAlerts, runWasteAlertCheck } from "../../../lib/server/services/waste";
+import { currentAlerts, runWasteAlertCheck } from "../../../lib/server/services/waste/alerts";
 
 /** The alerts as they stand now. */
 export const GET = endpoint(async ({ locals }) => {

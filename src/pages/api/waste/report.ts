@@ -1,7 +1,7 @@
 import { wasteReportQuery } from "../../../lib/schemas/waste";
 import { endpoint, requirePermission } from "../../../lib/server/guard";
 import { json, queryOf, validate } from "../../../lib/server/http";
-import { wasteReportData } from "../../../lib/server/services/waste";
+import { wasteReportData } from "../../../lib/server/services/waste/documents";
 import { reportCsv, reportPdf } from "../../../lib/waste/report";
 
 /** The waste report of a period as JSON, CSV or PDF. */

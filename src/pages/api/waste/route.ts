@@ -1,7 +1,7 @@
 import { routeCheckSchema } from "../../../lib/schemas/waste";
 import { endpoint, requirePermission } from "../../../lib/server/guard";
 import { HttpError, json, readJson } from "../../../lib/server/http";
-import { checkContainerAccepts, wasteStreamForMix } from "../../../lib/server/services/waste";
+import { checkContainerAccepts, wasteStreamForMix } from "../../../lib/server/services/waste/route";
 import { WasteRuleError } from "../../../lib/waste/streams";
 import { hazardSummary } from "../../../lib/labels/hazards";
 

@@ -1,7 +1,7 @@
 import { wasteSettingsSchema } from "../../../lib/schemas/waste";
 import { endpoint, requirePermission } from "../../../lib/server/guard";
 import { json, readJson } from "../../../lib/server/http";
-import { readWasteSettings, updateWasteSettings } from "../../../lib/server/services/waste";
+import { readWasteSettings, updateWasteSettings } from "../../../lib/server/services/waste/settings";
 
 export const GET = endpoint(async ({ locals }) => {
   requirePermission(locals, "manage:waste");

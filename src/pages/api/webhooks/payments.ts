@@ -1,6 +1,6 @@
 import { endpoint } from "../../../lib/server/guard";
 import { json } from "../../../lib/server/http";
-import { handlePaymentsWebhook } from "../../../lib/server/services/billing";
+import { handlePaymentsWebhook } from "../../../lib/server/services/billing/webhooks";
 
 /**
  * Public: the payments provider posts its events here, with no session. Trust comes from the

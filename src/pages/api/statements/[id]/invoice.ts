@@ -1,7 +1,7 @@
 import { idParam, statementIssueInput } from "../../../../lib/schemas/billing";
 import { endpoint, requirePermission } from "../../../../lib/server/guard";
 import { json, readJson, validate } from "../../../../lib/server/http";
-import { invoiceStatement } from "../../../../lib/server/services/billing";
+import { invoiceStatement } from "../../../../lib/server/services/billing/statement-invoice";
 
 /** Issues an external client's statement and sends its invoice; a repeat answers the same invoice. */
 export const POST = endpoint(async ({ locals, params, request, clientAddress }) => {

@@ -1,7 +1,8 @@
 import { idParam, statementIssueInput } from "../../../../lib/schemas/billing";
 import { endpoint, requirePermission } from "../../../../lib/server/guard";
 import { json, readJson, validate } from "../../../../lib/server/http";
-import { getStatement, issueStatement } from "../../../../lib/server/services/billing";
+import { issueStatement } from "../../../../lib/server/services/billing/statement-issue";
+import { getStatement } from "../../../../lib/server/services/billing/statements";
 
 /** Issues an internal client's chargeback statement; its period is then locked for that client. */
 export const POST = endpoint(async ({ locals, params, request, clientAddress }) => {

@@ -1,7 +1,7 @@
 import { idParam } from "../../../../lib/schemas/billing";
 import { endpoint, requirePermission } from "../../../../lib/server/guard";
 import { validate } from "../../../../lib/server/http";
-import { statementCsvFile } from "../../../../lib/server/services/billing";
+import { statementCsvFile } from "../../../../lib/server/services/billing/documents";
 
 export const GET = endpoint(async ({ locals, params }) => {
   const user = requirePermission(locals, "read:statement", { own: true });

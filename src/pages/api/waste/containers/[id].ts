@@ -1,7 +1,8 @@
 import { containerSchema, idParam } from "../../../../lib/schemas/waste";
 import { endpoint, requirePermission } from "../../../../lib/server/guard";
 import { json, readJson, validate } from "../../../../lib/server/http";
-import { containerHistory, getContainer, updateContainer } from "../../../../lib/server/services/waste";
+import { getContainer, updateContainer } from "../../../../lib/server/services/waste/containers";
+import { containerHistory } from "../../../../lib/server/services/waste/readings";
 
 export const GET = endpoint(async ({ locals, params }) => {
   requirePermission(locals, "read:waste");

@@ -1,7 +1,7 @@
 import { containerListQuery, containerSchema } from "../../../../lib/schemas/waste";
 import { endpoint, requirePermission } from "../../../../lib/server/guard";
 import { json, queryOf, readJson, validate } from "../../../../lib/server/http";
-import { createContainer, listContainers } from "../../../../lib/server/services/waste";
+import { createContainer, listContainers } from "../../../../lib/server/services/waste/containers";
 
 export const GET = endpoint(async ({ locals, url }) => {
   requirePermission(locals, "read:waste");

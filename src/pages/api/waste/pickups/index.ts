@@ -1,7 +1,7 @@
 import { pickupRequestSchema } from "../../../../lib/schemas/waste";
 import { endpoint, requirePermission } from "../../../../lib/server/guard";
 import { json, readJson } from "../../../../lib/server/http";
-import { listPickups, requestPickup } from "../../../../lib/server/services/waste";
+import { listPickups, requestPickup } from "../../../../lib/server/services/waste/pickups";
 
 export const GET = endpoint(async ({ locals }) => {
   requirePermission(locals, "read:waste");

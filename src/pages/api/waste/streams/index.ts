@@ -1,7 +1,7 @@
 import { streamSchema } from "../../../../lib/schemas/waste";
 import { endpoint, requirePermission } from "../../../../lib/server/guard";
 import { json, readJson } from "../../../../lib/server/http";
-import { createStream, listStreams } from "../../../../lib/server/services/waste";
+import { createStream, listStreams } from "../../../../lib/server/services/waste/streams";
 
 export const GET = endpoint(async ({ locals }) => {
   requirePermission(locals, "read:waste");

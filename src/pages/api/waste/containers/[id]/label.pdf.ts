@@ -1,7 +1,7 @@
 import { idParam, labelQuery } from "../../../../../lib/schemas/waste";
 import { endpoint, requirePermission } from "../../../../../lib/server/guard";
 import { queryOf, validate } from "../../../../../lib/server/http";
-import { containerLabelContent } from "../../../../../lib/server/services/waste";
+import { containerLabelContent } from "../../../../../lib/server/services/waste/documents";
 import { renderContainerLabel } from "../../../../../lib/waste/container-label";
 
 /** The container label (100 × 100 mm): Code 128 of the code, stream, GHS pictograms, accumulation start. */

@@ -1,7 +1,7 @@
 import { idParam, statusSchema } from "../../../../../lib/schemas/waste";
 import { endpoint, requirePermission } from "../../../../../lib/server/guard";
 import { json, readJson, validate } from "../../../../../lib/server/http";
-import { setContainerStatus } from "../../../../../lib/server/services/waste";
+import { setContainerStatus } from "../../../../../lib/server/services/waste/containers";
 
 export const POST = endpoint(async ({ locals, params, request, clientAddress }) => {
   const actor = requirePermission(locals, "manage:waste");

@@ -1,14 +1,33 @@
 /**
  * A statement as PDF (pdf-lib, A4, the app's own IBM Plex Sans embedded as a subset — the same
  * font files the bottle labels use). Lines grouped by project with subtotals; drafts are marked.
+ * Pure: the statement in, the PDF's bytes out; the billing services load what it shows.
  */
-import fontkit from "@pdf-lib/fontkit";
 import { PDFDocument, rgb, type PDFFont, type PDFPage } from "pdf-lib";
-import { formatMoney } from "../../billing/money";
-import { projectTotals, quantityLabel as quantityText, type StatementLine } from "../../billing/statement";
-import { labelFonts } from "../../labels/fonts";
-import { sanitizer } from "../../labels/label-pdf";
-import type { StatementPdfInput } from "./billing";
+import { embedLabelFonts, sanitizer } from "../labels/label-pdf";
+import { formatMoney } from "./money";
+import { projectTotals, quantityLabel as quantityText, type StatementLine } from "./statement";
+import type { InvoiceView, StatementView } from "./types";
+
+/** What the statement PDF shows: the statement as the screens see it, plus the facility's name. */
+export type StatementPdfInput = Pick<
+  StatementView,
+  | "reference"
+  | "clientName"
+  | "clientKind"
+  | "costCentre"
+  | "billingEmail"
+  | "periodStart"
+  | "periodEnd"
+  | "status"
+  | "issuedAt"
+  | "lines"
+  | "total_minor"
+  | "currency"
+> & {
+  facility: string;
+  invoice: Pick<InvoiceView, "number" | "dueOn" | "hostedUrl" | "status"> | null;
+};
 
 const A4 = { width: 595.28, height: 841.89 };
 const MARGIN = 48;
@@ -25,10 +44,7 @@ function priceText(line: StatementLine, currency: string): string {
 
 export async function renderStatementPdf(input: StatementPdfInput): Promise<Uint8Array> {
   const doc = await PDFDocument.create();
-  doc.registerFontkit(fontkit);
-  const bytes = labelFonts();
-  const regular = await doc.embedFont(bytes.regular, { subset: true });
-  const bold = await doc.embedFont(bytes.bold, { subset: true });
+  const { regular, bold } = await embedLabelFonts(doc);
   const clean = sanitizer(regular);
   const money = (amount: number) => formatMoney({ amount, currency: input.currency });
   const title = input.clientKind === "internal" ? "Chargeback statement" : "Statement of charges";

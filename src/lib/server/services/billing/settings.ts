@@ -1,0 +1,14 @@
+/** The settings billing reads, each with the value used while none is stored. */
+import type { Transaction } from "sequelize";
+import { Setting } from "../../models/audit";
+
+async function setting<T>(key: string, fallback: T, transaction?: Transaction): Promise<T> {
+  const row = await Setting.findByPk(key, { transaction });
+  return row ? (row.value as T) : fallback;
+}
+
+/** The facility's name, printed on statements and invoice e-mails. */
+export const facilityName = (transaction?: Transaction) => setting("facility.name", "Decant", transaction);
+
+/** Days a client has to pay an invoice. */
+export const daysUntilDue = async (transaction?: Transaction) => Number(await setting("invoices.daysUntilDue", 30, transaction));
