@@ -38,7 +38,7 @@ export async function listInstruments(): Promise<InstrumentSummary[]> {
     wasteContainerCode: r.code,
     wasteStream: r.stream,
     active: Boolean(r.active),
-    runs: Number(r.runs),
+    runs: r.runs,
   }));
 }
 

@@ -117,7 +117,7 @@ export async function appendEntries(entries: Iterable<NewLedgerEntry>, transacti
 }
 
 interface LedgerRow {
-  id: number | string;
+  id: number;
   occurred_at: Date;
   kind: LedgerKind;
   project_code: string | null;
@@ -132,8 +132,8 @@ interface LedgerRow {
   source_kind: LedgerSource;
   source_id: string | null;
   author: string | null;
-  reverses_id: number | string | null;
-  reversed_by: number | string | null;
+  reverses_id: number | null;
+  reversed_by: number | null;
   reason: string | null;
 }
 
@@ -149,7 +149,7 @@ const SELECT_LINES = `
     LEFT JOIN ledger_entries r ON r.reverses_id = l.id`;
 
 const toLine = (r: LedgerRow): LedgerLine => ({
-  id: Number(r.id),
+  id: r.id,
   occurredAt: new Date(r.occurred_at).toISOString(),
   kind: r.kind,
   projectCode: r.project_code,
@@ -164,8 +164,8 @@ const toLine = (r: LedgerRow): LedgerLine => ({
   sourceKind: r.source_kind,
   sourceId: r.source_id,
   author: r.author,
-  reversesId: r.reverses_id === null ? null : Number(r.reverses_id),
-  reversedById: r.reversed_by === null ? null : Number(r.reversed_by),
+  reversesId: r.reverses_id,
+  reversedById: r.reversed_by,
   reason: r.reason,
 });
 
@@ -222,18 +222,18 @@ export async function reverseEntries(
         WHERE ${conditions.join(" OR ")} ORDER BY l.id FOR UPDATE`,
       { replacements, transaction },
     );
-    const found = new Set(originals.map((o) => Number(o.id)));
+    const found = new Set(originals.map((o) => o.id));
     const missing = input.entryIds.filter((id) => !found.has(id));
     if (missing.length) throw new HttpError(404, `entryIds: no ledger entry ${missing.join(", ")}`);
     if (input.runId !== undefined && !originals.some((o) => o.source_id === `run:${input.runId}`))
       throw new HttpError(404, `runId: run ${input.runId} has no ledger entries`);
-    const corrections = originals.filter((o) => o.kind === "correction" && input.entryIds.includes(Number(o.id)));
+    const corrections = originals.filter((o) => o.kind === "correction" && input.entryIds.includes(o.id));
     if (corrections.length)
       throw new HttpError(
         400,
         `entryIds: entry ${corrections.map((c) => c.id).join(", ")} is itself a correction; corrections are not reversed`,
       );
-    const already = originals.filter((o) => o.reversed_by !== null && input.entryIds.includes(Number(o.id)));
+    const already = originals.filter((o) => o.reversed_by !== null && input.entryIds.includes(o.id));
     if (already.length)
       throw new HttpError(
         409,
@@ -262,7 +262,7 @@ export async function reverseEntries(
       sourceKind: "manual",
       sourceId: o.source_id,
       authorId: actor.id,
-      reversesId: Number(o.id),
+      reversesId: o.id,
       reason: input.reason,
     }));
     try {
@@ -282,7 +282,7 @@ export async function reverseEntries(
         transaction,
       });
     }
-    const originalIds = todo.map((o) => Number(o.id));
+    const originalIds = todo.map((o) => o.id);
     await recordAudit(
       {
         actorId: actor.id,

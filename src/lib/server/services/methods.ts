@@ -34,7 +34,7 @@ function summarise(r: MethodRow): MethodSummary {
     runTime_min: r.run_time_min,
     perInjection_mL: use.byChannel_mL,
     perInjectionTotal_mL: use.total_mL,
-    runs: Number(r.runs),
+    runs: r.runs,
   };
 }
 

@@ -30,7 +30,7 @@ export async function recentUsageByProject(days: number, clientId: number | null
     projectName: r.name,
     clientName: r.client,
     volume_mL: r.volume,
-    runs: Number(r.runs),
+    runs: r.runs,
   }));
 }
 

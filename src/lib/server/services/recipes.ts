@@ -63,8 +63,7 @@ export async function listRecipes(
     { replacements: { q: query.q || null, like: `%${query.q ?? ""}%`, channel: query.channel ?? null } },
   );
   const out = rows.map((r): RecipeSummary => {
-    const state: RecipeState =
-      r.status === "retired" ? "retired" : r.approved !== null && Number(r.approved) === Number(r.latest) ? "approved" : "pending";
+    const state: RecipeState = r.status === "retired" ? "retired" : r.approved !== null && r.approved === r.latest ? "approved" : "pending";
     let description = "";
     try {
       description = describeSpec(parseSpec(r.spec));
@@ -77,8 +76,8 @@ export async function listRecipes(
       name: r.name,
       channel: r.channel,
       state,
-      latestVersion: Number(r.latest),
-      approvedVersion: r.approved === null ? null : Number(r.approved),
+      latestVersion: r.latest,
+      approvedVersion: r.approved,
       description,
       updatedAt: new Date(r.updated_at).toISOString(),
       author: r.author,
@@ -124,7 +123,7 @@ export async function getRecipe(id: number): Promise<RecipeDetail> {
       createdById: v.created_by,
       approvedAt: v.approved_at ? new Date(v.approved_at).toISOString() : null,
       approvedBy: v.approver,
-      batches: Number(v.batches),
+      batches: v.batches,
     })),
   };
 }

@@ -154,8 +154,8 @@ export async function usageByProject(query: UsageQuery, scope: { clientId: numbe
   for (const r of runs) {
     const row = rowFor(r.project_id);
     if (!row) continue;
-    row.runs = Number(r.runs);
-    row.injections = Number(r.injections);
+    row.runs = r.runs;
+    row.injections = r.injections;
   }
   for (const [projectId, lines] of linesByProject) {
     const row = rowFor(projectId);
