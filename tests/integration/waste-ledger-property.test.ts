@@ -7,9 +7,9 @@
 import fc from "fast-check";
 import { QueryTypes, type Sequelize } from "sequelize";
 import { beforeAll, describe, expect, it } from "vitest";
-import { appendEntries, type NewLedgerEntry } from "../../src/lib/server/services/ledger";
+import type { LedgerKind, NewLedgerEntry } from "../../src/lib/ledger/types";
+import { appendEntries } from "../../src/lib/server/services/ledger";
 import { wasteSummary } from "../../src/lib/server/services/waste/totals";
-import type { LedgerKind } from "../../src/lib/server/models/ledger";
 import { useServiceDatabase } from "../support/service-database";
 
 const handle = useServiceDatabase();

@@ -1,5 +1,6 @@
 import { useEffect, useState } from "react";
 import { formatVolume } from "../../lib/format";
+import type { DrawResult, ProjectChoice, UsableBatch } from "../../lib/ledger/types";
 import { DRAW_PURPOSES, drawSchema, type DrawInput } from "../../lib/schemas/runs";
 import { Field, SelectField, useZodForm } from "../forms/form";
 import { newKey } from "../forms/idempotency-key";
@@ -8,8 +9,8 @@ import { postJson } from "../forms/post-json";
 import { useServerErrors } from "../forms/server-errors";
 
 interface Props {
-  batches: { id: number; code: string; name: string; remaining_mL: number }[];
-  projects: { id: number; code: string; name: string }[];
+  batches: Pick<UsableBatch, "id" | "code" | "name" | "remaining_mL">[];
+  projects: ProjectChoice[];
   containers: { id: number; code: string; stream: string; room: string }[];
 }
 
@@ -34,7 +35,7 @@ export default function DrawForm({ batches: initial, projects, containers }: Pro
     setProblem(null);
     setDone(null);
     try {
-      const r = await postJson<{ batchCode: string; volume_mL: number; remaining_mL: number; replayed: boolean }>("/api/draws", values);
+      const r = await postJson<DrawResult>("/api/draws", values);
       setBatches((bs) => bs.map((b) => (b.code === r.batchCode ? { ...b, remaining_mL: r.remaining_mL } : b)));
       setDone(`${formatVolume(r.volume_mL)} drawn from ${r.batchCode}; ${formatVolume(r.remaining_mL)} left.`);
       reset({ ...values, volume_mL: undefined as unknown as number, note: "", idempotencyKey: newKey("draw") });

@@ -1,4 +1,5 @@
 import { useState } from "react";
+import type { InstrumentSummary } from "../../lib/ledger/types";
 import { CHANNELS } from "../../lib/schemas/fields";
 import { instrumentSchema, type InstrumentInput } from "../../lib/schemas/instruments";
 import { Field, useZodForm } from "../forms/form";
@@ -7,15 +8,7 @@ import { postJson } from "../forms/post-json";
 import { useServerErrors } from "../forms/server-errors";
 
 interface Props {
-  instrument?: {
-    id: number;
-    name: string;
-    kind: string;
-    room: string;
-    channels: string[];
-    wasteContainerId: number | null;
-    active: boolean;
-  };
+  instrument?: Pick<InstrumentSummary, "id" | "name" | "kind" | "room" | "channels" | "wasteContainerId" | "active">;
   containers: { id: number; code: string; stream: string; room: string }[];
 }
 

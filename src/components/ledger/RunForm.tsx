@@ -3,6 +3,7 @@ import { useEffect, useMemo, useState } from "react";
 import { solventUse, type ProgramPoint } from "../../lib/chem/solvent-use";
 import { formatVolume } from "../../lib/format";
 import { programChannels } from "../../lib/ledger/program";
+import type { LoggedRun, ProjectChoice, UsableBatch } from "../../lib/ledger/types";
 import { CHANNELS } from "../../lib/schemas/fields";
 import { runSchema, type RunInput } from "../../lib/schemas/runs";
 import { Field, SelectField, useZodForm } from "../forms/form";
@@ -15,20 +16,8 @@ import { utcInputValue } from "./utc-input";
 interface Props {
   instruments: { id: number; name: string; channels: string[]; wasteContainerCode: string | null }[];
   methods: { id: number; name: string; program: ProgramPoint[] }[];
-  projects: { id: number; code: string; name: string }[];
-  batches: { id: number; code: string; name: string; channel: string | null; remaining_mL: number }[];
-}
-
-interface Answer {
-  run: {
-    id: number;
-    channelVolumes_mL: Record<string, number>;
-    total_mL: number;
-    projectCode: string;
-    channelBatches: Record<string, { id: number; code: string | null }>;
-  };
-  replayed: boolean;
-  batches: { id: number; code: string; remaining_mL: number }[];
+  projects: ProjectChoice[];
+  batches: Omit<UsableBatch, "expiresAt">[];
 }
 
 /** Log a sequence: the volumes follow from the method's program, live, before anything is sent. */
@@ -37,7 +26,7 @@ export default function RunForm({ instruments, methods, projects, batches: initi
   const { register, handleSubmit, formState, watch, setValue, reset } = form;
   const showServerError = useServerErrors(form);
   const [batches, setBatches] = useState(initialBatches);
-  const [answer, setAnswer] = useState<Answer | null>(null);
+  const [answer, setAnswer] = useState<LoggedRun | null>(null);
   const [problem, setProblem] = useState<string | null>(null);
 
   useEffect(() => {
@@ -67,7 +56,7 @@ export default function RunForm({ instruments, methods, projects, batches: initi
   const onSubmit = handleSubmit(async (values) => {
     setProblem(null);
     try {
-      const result = await postJson<Answer>("/api/runs", { ...values, startedAt: values.startedAt.toISOString() });
+      const result = await postJson<LoggedRun>("/api/runs", { ...values, startedAt: values.startedAt.toISOString() });
       setAnswer(result);
       setBatches((bs) =>
         bs.map((b) => ({ ...b, remaining_mL: result.batches.find((x) => x.id === b.id)?.remaining_mL ?? b.remaining_mL })),

@@ -8,11 +8,11 @@ import {
   type SortingState,
 } from "@tanstack/react-table";
 import { lazy, Suspense, useEffect, useMemo, useState } from "react";
+import type { GroupedUsageRow, UsageRow } from "../../lib/ledger/types";
 import { USAGE_GROUPINGS, type UsageGrouping } from "../../lib/ledger/usage-groupings";
 import { formatMoney } from "../../lib/billing/money";
 import { csvField } from "../../lib/imports/csv";
 import { formatVolume } from "../../lib/format";
-import type { GroupedUsageRow, UsageRow } from "../../lib/ledger/types";
 import { usageChartSeries } from "../../lib/ledger/usage-chart";
 import { LoadBoundary } from "../common/LoadBoundary";
 import { IslandForm } from "../forms/island-form";

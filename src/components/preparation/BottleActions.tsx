@@ -1,14 +1,9 @@
 import { useState } from "react";
+import type { BatchDetail, BottleDetail, BottleStatus } from "../../lib/preparation/types";
 import { errorMessage, postJson } from "../forms/post-json";
 import { HydratedControls } from "../forms/island-form";
 
-interface Bottle {
-  number: number;
-  status: "ready" | "in_use" | "empty" | "discarded";
-  discarded_mL: number | null;
-}
-
-const LABEL: Record<Bottle["status"], string> = { ready: "ready", in_use: "in use", empty: "empty", discarded: "discarded" };
+const LABEL: Record<BottleStatus, string> = { ready: "ready", in_use: "in use", empty: "empty", discarded: "discarded" };
 
 /** Per-bottle state: put in use, mark empty, or discard what is left (it goes to waste). */
 export default function BottleActions({
@@ -19,7 +14,7 @@ export default function BottleActions({
   canUpdate,
 }: {
   batchId: number;
-  bottles: Bottle[];
+  bottles: BottleDetail[];
   share_mL: number;
   expired: boolean;
   canUpdate: boolean;
@@ -37,7 +32,7 @@ export default function BottleActions({
         const n = Number((left[number] ?? "").replace(",", "."));
         if ((left[number] ?? "").trim() !== "" && Number.isFinite(n)) body.discarded_mL = n;
       }
-      const result = await postJson<{ batch: { bottleList: Bottle[] } }>(`/api/batches/${batchId}/bottles/${number}`, body);
+      const result = await postJson<{ batch: BatchDetail }>(`/api/batches/${batchId}/bottles/${number}`, body);
       setList(result.batch.bottleList);
     } catch (e) {
       setError(errorMessage(e));

@@ -6,6 +6,7 @@ import { batchExpiry, lotExpired, type ExpiryRule } from "../../lib/preparation/
 import { preparationPlan, type PreparationPlan } from "../../lib/preparation/plan";
 import type { FormLot, FormRecipe } from "../../lib/preparation/types";
 import type { BatchCreateInput } from "../../lib/schemas/preparation";
+import type { PreparableRecipe, RecordedBatch } from "../../lib/preparation/types";
 import { useZodForm } from "../forms/form";
 import { newKey } from "../forms/idempotency-key";
 import { IslandForm } from "../forms/island-form";
@@ -128,7 +129,7 @@ export default function PreparationForm({ recipes, lots, tolerances, expiryRules
     setServerError(null);
     setSaving(true);
     try {
-      const result = await postJson<{ batch: { id: number } }>("/api/batches", { ...values, idempotencyKey: key.current });
+      const result = await postJson<RecordedBatch>("/api/batches", { ...values, idempotencyKey: key.current });
       window.location.assign(`/batches/${result.batch.id}?recorded=1`);
     } catch (error) {
       setServerError(showServerError(error));

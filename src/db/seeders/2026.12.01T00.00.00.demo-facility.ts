@@ -3,6 +3,7 @@
 import type { QueryInterface } from "sequelize";
 import type { MigrationParams } from "umzug";
 import { hashPassword } from "../../lib/server/auth/password";
+import { execute } from "../../lib/server/query";
 import { DAY_MS, demoClock } from "../demo-time";
 
 const DAY = DAY_MS;
@@ -554,10 +555,12 @@ export async function up({ context: qi }: MigrationParams<QueryInterface>) {
   }
   await qi.bulkInsert("runs", runs);
   await qi.bulkInsert("ledger_entries", ledger);
-  await qi.sequelize.query(`
-    UPDATE waste_containers c SET estimated_volume_ml = (
-      SELECT COALESCE(SUM(l.volume_ml), 0) FROM ledger_entries l
-      WHERE l.waste_container_id = c.id AND l.occurred_at >= c.accumulation_started_at)`);
+  await execute(
+    `UPDATE waste_containers c SET estimated_volume_ml = (
+       SELECT COALESCE(SUM(l.volume_ml), 0) FROM ledger_entries l
+       WHERE l.waste_container_id = c.id AND l.occurred_at >= c.accumulation_started_at)`,
+    { sequelize: qi.sequelize },
+  );
 
   const rate = (kind: string, reagent: string | null, list: string, unit: string, amount: number) => ({
     kind,

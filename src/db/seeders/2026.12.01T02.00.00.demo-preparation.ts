@@ -1,8 +1,9 @@
 // Demo data for preparation: an expired stock lot, a batch due to expire within a day, and one
 // already past its expiry still on the bench. Invented names and numbers, as in the facility seed.
-import { QueryTypes, type QueryInterface } from "sequelize";
+import type { QueryInterface } from "sequelize";
 import type { MigrationParams } from "umzug";
 import { batchCodeBase, nextBatchCode } from "../../lib/preparation/batch-code";
+import { select, selectOne } from "../../lib/server/query";
 
 const DAY = 86_400_000;
 
@@ -63,7 +64,7 @@ export async function up({ context: qi }: MigrationParams<QueryInterface>) {
     },
   ]);
 
-  const taken = (await qi.sequelize.query<{ code: string }>("SELECT code FROM batches", { type: QueryTypes.SELECT })).map((r) => r.code);
+  const taken = (await select<{ code: string }>("SELECT code FROM batches", { sequelize: qi.sequelize })).map((r) => r.code);
   const batch = async (recipeVersionId: number, preparedAt: Date, expiresAt: Date, volume: number, status: string, ph: number | null) => {
     const code = nextBatchCode(batchCodeBase(preparedAt), taken);
     taken.push(code);
@@ -87,10 +88,7 @@ export async function up({ context: qi }: MigrationParams<QueryInterface>) {
         updated_at: preparedAt,
       },
     ]);
-    const [row] = await qi.sequelize.query<{ id: number }>("SELECT id FROM batches WHERE code = ?", {
-      type: QueryTypes.SELECT,
-      replacements: [code],
-    });
+    const row = await selectOne<{ id: number }>("SELECT id FROM batches WHERE code = ?", { replacements: [code], sequelize: qi.sequelize });
     for (let n = 1; n <= volume / 1000; n++)
       await qi.bulkInsert("batch_bottles", [{ batch_id: row!.id, number: n, status, created_at: preparedAt, updated_at: preparedAt }]);
   };

@@ -2,8 +2,9 @@
 // (the halogenated carboy under Heron is near full), a container already collected with its
 // manifest, and an acid carboy in the satellite area that has been accumulating for a long time.
 // Invented data; the figures are illustrative.
-import { QueryTypes, type QueryInterface } from "sequelize";
+import type { QueryInterface } from "sequelize";
 import type { MigrationParams } from "umzug";
+import { execute, selectOne } from "../../lib/server/query";
 import { demoClock } from "../demo-time";
 
 export async function up({ context: qi }: MigrationParams<QueryInterface>) {
@@ -13,17 +14,17 @@ export async function up({ context: qi }: MigrationParams<QueryInterface>) {
 
   // A reading 3 days ago found WC-0103 fuller than the runs alone explain (rinses, a spill tray).
   const readAt = at(3, 16);
-  const [before] = await qi.sequelize.query<{ v: string | null }>(
+  const before = await selectOne<{ v: number }>(
     `SELECT COALESCE(SUM(l.volume_ml), 0) AS v FROM ledger_entries l JOIN waste_containers c ON c.id = l.waste_container_id
       WHERE c.code = 'WC-0103' AND l.occurred_at >= c.accumulation_started_at AND l.occurred_at <= :readAt`,
-    { type: QueryTypes.SELECT, replacements: { readAt } },
+    { replacements: { readAt }, sequelize: qi.sequelize },
   );
   await qi.bulkInsert("waste_readings", [
     {
       container_id: 3,
       read_at: readAt,
       level_ml: 8_400,
-      estimated_before_ml: Number(before?.v ?? 0),
+      estimated_before_ml: before?.v ?? 0,
       reader_id: 4,
       note: "Read off the carboy's graduation; rinse solvent added by hand last week.",
       created_at: readAt,
@@ -86,8 +87,9 @@ export async function up({ context: qi }: MigrationParams<QueryInterface>) {
       created_at: at(20, 10),
     },
   ]);
-  await qi.sequelize.query(`INSERT IGNORE INTO settings (\`key\`, value, updated_at) VALUES ('waste.accumulationWarning_days', '14', :t)`, {
+  await execute(`INSERT IGNORE INTO settings (\`key\`, value, updated_at) VALUES ('waste.accumulationWarning_days', '14', :t)`, {
     replacements: { t: at(100) },
+    sequelize: qi.sequelize,
   });
 }
 

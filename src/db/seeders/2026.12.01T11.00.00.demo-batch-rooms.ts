@@ -1,14 +1,16 @@
 import type { QueryInterface } from "sequelize";
 import type { MigrationParams } from "umzug";
+import { execute } from "../../lib/server/query";
 
 // The demo batches get the room they are kept in (invented): the acetonitrile mix B26-1104 stands
 // by the MS in B2.16, the buffers beside the phosphate stock in B2.16, the rest in B2.14.
 export async function up({ context: qi }: MigrationParams<QueryInterface>) {
-  await qi.sequelize.query("UPDATE batches SET room = 'B2.16' WHERE room IS NULL AND code = 'B26-1104'");
-  await qi.sequelize.query("UPDATE batches SET room = 'B2.16' WHERE room IS NULL AND recipe_version_id IN (3, 4)");
-  await qi.sequelize.query("UPDATE batches SET room = 'B2.14' WHERE room IS NULL");
+  const options = { sequelize: qi.sequelize };
+  await execute("UPDATE batches SET room = 'B2.16' WHERE room IS NULL AND code = 'B26-1104'", options);
+  await execute("UPDATE batches SET room = 'B2.16' WHERE room IS NULL AND recipe_version_id IN (3, 4)", options);
+  await execute("UPDATE batches SET room = 'B2.14' WHERE room IS NULL", options);
 }
 
 export async function down({ context: qi }: MigrationParams<QueryInterface>) {
-  await qi.sequelize.query("UPDATE batches SET room = NULL");
+  await execute("UPDATE batches SET room = NULL", { sequelize: qi.sequelize });
 }

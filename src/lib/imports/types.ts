@@ -1,4 +1,4 @@
-// What the run-log import routes send and the import wizard receives.
+/** What a run-log import answers: the check before a commit, the commit, the list of imports. Types only. */
 import type { RowIssue } from "./run-log";
 
 export interface ImportReport {

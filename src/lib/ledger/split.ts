@@ -9,6 +9,7 @@
  * Shares are rounded to 0.0001 mL (the ledger's precision); the largest liquid share takes the
  * rounding remainder so the shares always sum to the rounded channel volume.
  */
+import { getReagent } from "../chem/reagents";
 
 export interface CompositionPart {
   reagentId: string;
@@ -64,4 +65,9 @@ export function splitVolume(volume_mL: number, composition: BatchComposition): R
     shares.push({ reagentId, volume_mL: 0, mass_g: Math.round((volume_mL * grams * MASS_STEPS) / composition.volume_mL) / MASS_STEPS });
   }
   return shares;
+}
+
+/** The waste stream a reagent's share goes to, from the chemistry catalogue; null for a reagent it does not know. */
+export function wasteStreamOf(reagentId: string): string | null {
+  return getReagent(reagentId)?.wasteStream.value ?? null;
 }

@@ -1,6 +1,9 @@
-// What the recipe and batch routes send and what the preparation islands receive: shared by the
-// services that build these values and the islands that show them.
+/**
+ * What the preparation services answer and their screens read: recipes, stock lots, batches and
+ * their bottles. Types only, shared by services, pages and islands.
+ */
 import type { RecipeSpec } from "../schemas/recipes";
+import type { Deviation } from "./deviations";
 
 export type RecipeState = "approved" | "pending" | "retired";
 
@@ -62,4 +65,105 @@ export interface FormLot {
   remaining: number;
   unit: "mL" | "g";
   low: boolean;
+}
+
+export interface StockLotSummary {
+  id: number;
+  reagent: string;
+  reagentName: string;
+  unit: "mL" | "g";
+  lotNumber: string;
+  supplier: string;
+  grade: string;
+  receivedOn: string;
+  openedOn: string | null;
+  expiresOn: string;
+  quantity: number;
+  remaining: number;
+  room: string | null;
+  hasCertificate: boolean;
+  certificateName: string | null;
+  expired: boolean;
+  low: boolean;
+  usable: boolean;
+}
+
+export type BottleStatus = "ready" | "in_use" | "empty" | "discarded";
+
+export interface BottleDetail {
+  number: number;
+  status: BottleStatus;
+  discarded_mL: number | null;
+}
+
+export interface BatchComponentDetail {
+  reagent: string;
+  name: string;
+  role: string;
+  unit: "mL" | "g";
+  target: number;
+  actual: number | null;
+  stockLotId: number | null;
+  lotNumber: string | null;
+}
+
+/** One batch as `GET /api/batches/:id` and its page show it. */
+export interface BatchDetail {
+  id: number;
+  code: string;
+  recipeId: number;
+  recipeCode: string;
+  recipeName: string;
+  recipeVersion: number;
+  recipeVersionId: number;
+  channel: string | null;
+  spec: RecipeSpec | null;
+  composition: string;
+  storage: string | null;
+  detection_nm: number | null;
+  volume_mL: number;
+  remaining_mL: number;
+  bottles: number;
+  bottleSize_mL: number;
+  temperature_C: number;
+  measuredPH: number | null;
+  phMeterTemperature_C: number | null;
+  targetPH: number | null;
+  preparedAt: string;
+  expiresAt: string;
+  expiryReason: string | null;
+  preparedBy: string;
+  status: BottleStatus;
+  /** The room the batch is kept in; null for batches recorded before rooms were asked for. */
+  room: string | null;
+  expired: boolean;
+  deviations: Deviation[];
+  deviationReason: string | null;
+  components: BatchComponentDetail[];
+  bottleList: BottleDetail[];
+}
+
+/** `POST /api/batches`: the batch, and whether this submit recorded it (false: an earlier one did). */
+export interface RecordedBatch {
+  created: boolean;
+  batch: BatchDetail;
+}
+
+/** A batch in the list, newest first. */
+export interface BatchSummary {
+  id: number;
+  code: string;
+  recipeCode: string;
+  recipeName: string;
+  recipeVersion: number;
+  channel: string | null;
+  volume_mL: number;
+  remaining_mL: number;
+  bottles: number;
+  status: string;
+  preparedAt: string;
+  expiresAt: string;
+  preparedBy: string;
+  measuredPH: number | null;
+  expired: boolean;
 }

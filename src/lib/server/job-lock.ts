@@ -3,8 +3,7 @@
 // crashed instance never blocks the job for longer than the lease.
 import { randomBytes } from "node:crypto";
 import { hostname } from "node:os";
-import { QueryTypes, type Sequelize } from "sequelize";
-import { getSequelize } from "./db";
+import { execute, selectOne } from "./query";
 
 export interface JobLease {
   name: string;
@@ -12,28 +11,25 @@ export interface JobLease {
 }
 
 /** Takes the lease named `name` for `ttl_ms`, or answers null when another holder has it. */
-export async function acquireJobLock(name: string, ttl_ms: number, sequelize: Sequelize = getSequelize()): Promise<JobLease | null> {
+export async function acquireJobLock(name: string, ttl_ms: number): Promise<JobLease | null> {
   const holder = `${hostname()}:${process.pid}:${randomBytes(4).toString("hex")}`;
   const expiresAt = new Date(Date.now() + ttl_ms);
   // One statement, so two instances racing for an expired lease serialise on the row lock.
   // In ON DUPLICATE KEY UPDATE the assignments run left to right: the second IF still sees the
   // old expires_at, because it is assigned after holder.
-  await sequelize.query(
+  await execute(
     `INSERT INTO job_locks (name, holder, expires_at) VALUES (:name, :holder, :expiresAt)
      ON DUPLICATE KEY UPDATE
        holder = IF(expires_at < NOW(3), VALUES(holder), holder),
        expires_at = IF(holder = VALUES(holder), VALUES(expires_at), expires_at)`,
     { replacements: { name, holder, expiresAt } },
   );
-  const [row] = await sequelize.query<{ holder: string }>("SELECT holder FROM job_locks WHERE name = :name", {
-    type: QueryTypes.SELECT,
-    replacements: { name },
-  });
+  const row = await selectOne<{ holder: string }>("SELECT holder FROM job_locks WHERE name = :name", { replacements: { name } });
   return row?.holder === holder ? { name, holder } : null;
 }
 
-export async function releaseJobLock(lease: JobLease, sequelize: Sequelize = getSequelize()): Promise<void> {
-  await sequelize.query("DELETE FROM job_locks WHERE name = :name AND holder = :holder", {
+export async function releaseJobLock(lease: JobLease): Promise<void> {
+  await execute("DELETE FROM job_locks WHERE name = :name AND holder = :holder", {
     replacements: { name: lease.name, holder: lease.holder },
   });
 }
@@ -43,13 +39,12 @@ export async function withJobLock<T>(
   name: string,
   ttl_ms: number,
   work: () => Promise<T>,
-  sequelize: Sequelize = getSequelize(),
 ): Promise<{ ran: true; result: T } | { ran: false }> {
-  const lease = await acquireJobLock(name, ttl_ms, sequelize);
+  const lease = await acquireJobLock(name, ttl_ms);
   if (!lease) return { ran: false };
   try {
     return { ran: true, result: await work() };
   } finally {
-    await releaseJobLock(lease, sequelize);
+    await releaseJobLock(lease);
   }
 }

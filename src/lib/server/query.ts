@@ -1,4 +1,4 @@
-import { QueryTypes, type Transaction } from "sequelize";
+import { QueryTypes, type Sequelize, type Transaction } from "sequelize";
 import { getSequelize } from "./db";
 
 /**
@@ -12,6 +12,8 @@ export interface QueryOptions {
   replacements?: Record<string, unknown> | readonly unknown[];
   /** The caller's transaction, when the statement belongs to one. */
   transaction?: Transaction | null;
+  /** The database when it is not the process's own: migrations and seeders run on the one umzug was given. */
+  sequelize?: Sequelize;
 }
 
 function queryOptions(options: QueryOptions) {
@@ -23,7 +25,7 @@ function queryOptions(options: QueryOptions) {
 
 /** Every row of a SELECT, typed as the caller says the columns are. */
 export async function select<Row extends object>(sql: string, options: QueryOptions = {}): Promise<Row[]> {
-  return getSequelize().query<Row>(sql, { type: QueryTypes.SELECT, ...queryOptions(options) });
+  return (options.sequelize ?? getSequelize()).query<Row>(sql, { type: QueryTypes.SELECT, ...queryOptions(options) });
 }
 
 /** The first row of a SELECT, or undefined when there is none. */
@@ -44,7 +46,7 @@ export interface WriteResult {
  */
 export async function execute(sql: string, options: QueryOptions = {}): Promise<WriteResult> {
   const verb = /^\s*(\w+)/.exec(sql)?.[1]?.toUpperCase();
-  const sequelize = getSequelize();
+  const sequelize = options.sequelize ?? getSequelize();
   if (verb === "INSERT" || verb === "REPLACE") {
     const [insertId, affectedRows] = await sequelize.query(sql, { type: QueryTypes.INSERT, ...queryOptions(options) });
     return { affectedRows: Number(affectedRows), insertId: Number(insertId ?? 0) };
@@ -59,4 +61,12 @@ export async function execute(sql: string, options: QueryOptions = {}): Promise<
   }
   await sequelize.query(sql, { type: QueryTypes.RAW, ...queryOptions(options) });
   return { affectedRows: 0, insertId: 0 };
+}
+
+/**
+ * A JSON column's value. MariaDB keeps JSON as text, and whether the driver hands it over parsed
+ * depends on the type metadata the server sends, so both arrive here.
+ */
+export function jsonColumn<T>(value: unknown): T {
+  return (typeof value === "string" ? JSON.parse(value) : value) as T;
 }

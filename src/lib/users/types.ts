@@ -1,4 +1,4 @@
-// What the user administration routes send and the people page's island receives.
+/** What the user administration answers and its island reads. Types only. */
 import type { Role } from "../permissions";
 
 export interface UserRow {

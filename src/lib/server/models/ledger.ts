@@ -1,5 +1,6 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from "sequelize";
 import type { ProgramPoint } from "../../chem";
+import type { LedgerKind, LedgerSource } from "../../ledger/types";
 
 export class Instrument extends Model<InferAttributes<Instrument>, InferCreationAttributes<Instrument>> {
   declare id: CreationOptional<number>;
@@ -27,9 +28,6 @@ export class Method extends Model<InferAttributes<Method>, InferCreationAttribut
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 }
-
-export type LedgerKind = "run" | "draw" | "preparation" | "discard" | "correction";
-export type LedgerSource = "manual" | "import" | "run" | "seed";
 
 /** One append-only ledger line. The database refuses UPDATE and DELETE on the table. */
 export class LedgerEntry extends Model<InferAttributes<LedgerEntry>, InferCreationAttributes<LedgerEntry>> {

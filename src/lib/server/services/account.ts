@@ -5,6 +5,7 @@ import { recordAudit } from "../audit";
 import { lucia } from "../auth/lucia";
 import { hashPassword, verifyPassword } from "../auth/password";
 import { consumeToken, findUsableToken, issueToken, tokensIssuedSince } from "../auth/tokens";
+import { getSequelize } from "../db";
 import { HttpError } from "../http";
 import { sendMail } from "../mail";
 import { User } from "../models/auth";
@@ -68,7 +69,7 @@ export async function describeLink(token: string): Promise<{ purpose: "invitatio
 /** Uses the link once: sets the password and ends every session the account had. */
 export async function setPasswordWithToken(input: SetPasswordInput, ctx: { ip: string | null }): Promise<{ email: string }> {
   const passwordHash = await hashPassword(input.newPassword);
-  const result = await inTransaction(User.sequelize!, async (transaction) => {
+  const result = await inTransaction(getSequelize(), async (transaction) => {
     const record = await consumeToken(input.token, transaction);
     if (!record) return null;
     const user = await User.findByPk(record.userId, { transaction });

@@ -1,10 +1,9 @@
 // The daily e-mail to technicians listing the batches that expire within 24 hours.
-import { QueryTypes } from "sequelize";
 import { formatDateTime } from "../../format";
-import { getSequelize } from "../db";
 import { withJobLock } from "../job-lock";
 import { escapeHtml, publicOrigin, sendMail, type OutgoingMail } from "../mail";
 import { Setting } from "../models/audit";
+import { select } from "../query";
 
 const LAST_SENT_KEY = "digest.expiry.lastSentOn";
 /** The digest goes out on the first check of the day at or after this hour (UTC). */
@@ -22,7 +21,7 @@ interface ExpiringRow {
   code: string;
   name: string;
   expires_at: Date;
-  remaining_ml: string;
+  remaining_ml: number;
 }
 
 /**
@@ -40,21 +39,17 @@ export async function runExpiryDigest(
   const outcome = await withJobLock("expiry-digest", 5 * 60_000, async () => {
     const last = await Setting.findByPk(LAST_SENT_KEY);
     if (last?.value === day) return nothing;
-    const sequelize = getSequelize();
-    const batches = await sequelize.query<ExpiringRow>(
+    const batches = await select<ExpiringRow>(
       `SELECT b.code, r.name, b.expires_at, b.remaining_ml
          FROM batches b JOIN recipe_versions v ON v.id = b.recipe_version_id JOIN recipes r ON r.id = v.recipe_id
         WHERE b.status IN ('ready', 'in_use') AND b.expires_at > :now AND b.expires_at <= :until
         ORDER BY b.expires_at, b.code`,
-      { type: QueryTypes.SELECT, replacements: { now, until: new Date(now.getTime() + 24 * 3_600_000) } },
+      { replacements: { now, until: new Date(now.getTime() + 24 * 3_600_000) } },
     );
-    const technicians = await sequelize.query<{ email: string }>(
-      "SELECT email FROM users WHERE role = 'technician' AND active = 1 ORDER BY email",
-      { type: QueryTypes.SELECT },
-    );
+    const technicians = await select<{ email: string }>("SELECT email FROM users WHERE role = 'technician' AND active = 1 ORDER BY email");
     if (batches.length > 0) {
       const lines = batches.map(
-        (b) => `${b.code} · ${b.name} · expires ${formatDateTime(new Date(b.expires_at))} UTC · ${Number(b.remaining_ml)} mL left`,
+        (b) => `${b.code} · ${b.name} · expires ${formatDateTime(new Date(b.expires_at))} UTC · ${b.remaining_ml} mL left`,
       );
       const link = `${publicOrigin()}/home`;
       const subject = `Decant: ${batches.length} batch${batches.length === 1 ? "" : "es"} expire${batches.length === 1 ? "s" : ""} within 24 hours`;

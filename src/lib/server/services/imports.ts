@@ -5,17 +5,20 @@
  * uploading the same file twice counts each run once.
  */
 import { createHash } from "node:crypto";
-import { QueryTypes, UniqueConstraintError, type Transaction } from "sequelize";
-import type { ProgramPoint } from "../../chem";
+import { UniqueConstraintError, type Transaction } from "sequelize";
 import { readRunLog, type RunLogRow } from "../../imports/run-log";
 import type { ImportReport, ImportSummary } from "../../imports/types";
+import { planRun, round4, type InstrumentForUse, type MethodForUse, type RunPlan } from "../../ledger/plan-run";
+import type { NewLedgerEntry } from "../../ledger/types";
 import { recordAudit } from "../audit";
 import { getSequelize } from "../db";
 import type { SignedInUser } from "../guard";
 import { HttpError } from "../http";
-import { appendEntries, ensureCatalogueRows, type NewLedgerEntry } from "./ledger";
-import { inTransaction, lastInsertId, multiRowInsert, pipelinedWrites } from "./sql";
-import { drawFromBatches, loadBatches, planRun, wasteProblem, type InstrumentForUse, type MethodForUse, type RunPlan } from "./runs";
+import { execute, select, selectOne } from "../query";
+import { drawFromBatches, loadBatches } from "./batch-use";
+import { appendEntries, ensureCatalogueRows } from "./ledger";
+import { instrumentsAndMethods, wasteProblem } from "./runs";
+import { inTransaction, multiRowInsert, pipelinedWrites } from "./sql";
 
 const FIELD_TO_COLUMN: Record<string, string> = {
   instrumentId: "instrument",
@@ -38,12 +41,8 @@ interface PlannedRow {
   plan: RunPlan;
 }
 
-const parseJson = <T>(v: unknown): T => (typeof v === "string" ? (JSON.parse(v) as T) : (v as T));
-
 /** Resolves names and codes, skips runs already recorded, and plans the rest; nothing is written. */
 async function prepare(content: string, fileName: string, actor: SignedInUser, transaction?: Transaction) {
-  const sequelize = getSequelize();
-  const opts = transaction ? { transaction } : {};
   const checksum = createHash("sha256").update(content).digest("hex");
   const parsed = await readRunLog(content);
   const report: ImportReport = {
@@ -58,48 +57,28 @@ async function prepare(content: string, fileName: string, actor: SignedInUser, t
     previousImport: null,
     importId: null,
   };
-  const [previous] = await sequelize.query<{ id: number; created_at: Date }>(
+  const previous = await selectOne<{ id: number; created_at: Date }>(
     "SELECT id, created_at FROM imports WHERE checksum = ? AND status = 'committed' ORDER BY id LIMIT 1",
-    { type: QueryTypes.SELECT, replacements: [checksum], ...opts },
+    { replacements: [checksum], transaction },
   );
   if (previous) report.previousImport = { id: previous.id, at: new Date(previous.created_at).toISOString() };
   if (parsed.issues.length) return { report, planned: [] as PlannedRow[] };
 
   const rows = parsed.rows;
   const wasteChecks = new Map<string, Awaited<ReturnType<typeof wasteProblem>>>();
-  const instruments = new Map<string, InstrumentForUse>();
-  for (const i of await sequelize.query<{ id: number; name: string; channels: unknown; waste_container_id: number | null; active: number }>(
-    "SELECT id, name, channels, waste_container_id, active FROM instruments",
-    { type: QueryTypes.SELECT, ...opts },
-  )) {
-    instruments.set(i.name.toLowerCase(), {
-      id: i.id,
-      name: i.name,
-      channels: parseJson<string[]>(i.channels),
-      wasteContainerId: i.waste_container_id,
-      active: Boolean(i.active),
-    });
-  }
-  const methods = new Map<string, MethodForUse>();
-  for (const m of await sequelize.query<{ id: number; name: string; program: unknown }>("SELECT id, name, program FROM methods", {
-    type: QueryTypes.SELECT,
-    ...opts,
-  })) {
-    methods.set(m.name.toLowerCase(), { id: m.id, name: m.name, program: parseJson<ProgramPoint[]>(m.program) });
-  }
+  const known = await instrumentsAndMethods(transaction);
+  const instruments = new Map<string, InstrumentForUse>(known.instruments.map((i) => [i.name.toLowerCase(), i]));
+  const methods = new Map<string, MethodForUse>(known.methods.map((m) => [m.name.toLowerCase(), m]));
   const projects = new Map<string, { id: number; status: string }>();
-  for (const p of await sequelize.query<{ id: number; code: string; status: string }>("SELECT id, code, status FROM projects", {
-    type: QueryTypes.SELECT,
-    ...opts,
-  }))
+  for (const p of await select<{ id: number; code: string; status: string }>("SELECT id, code, status FROM projects", { transaction }))
     projects.set(p.code.toLowerCase(), p);
   const emails = [...new Set(rows.map((r) => r.operator?.toLowerCase()).filter((e): e is string => !!e))];
   const users = new Map<string, number>();
   if (emails.length)
-    for (const u of await sequelize.query<{ id: number; email: string }>(
-      "SELECT id, email FROM users WHERE email IN (:emails) AND active = 1",
-      { type: QueryTypes.SELECT, replacements: { emails }, ...opts },
-    ))
+    for (const u of await select<{ id: number; email: string }>("SELECT id, email FROM users WHERE email IN (:emails) AND active = 1", {
+      replacements: { emails },
+      transaction,
+    }))
       users.set(u.email.toLowerCase(), u.id);
   const codes = [...new Set(rows.flatMap((r) => Object.values(r.batches)))];
   const batches = await loadBatches({ codes }, transaction, Boolean(transaction));
@@ -118,9 +97,9 @@ async function prepare(content: string, fileName: string, actor: SignedInUser, t
   for (const [instrumentId, references] of byInstrument) {
     for (let i = 0; i < references.length; i += 5_000) {
       const slice = references.slice(i, i + 5_000);
-      for (const hit of await sequelize.query<{ reference: string }>(
+      for (const hit of await select<{ reference: string }>(
         "SELECT reference FROM runs WHERE instrument_id = :instrumentId AND reference IN (:slice)",
-        { type: QueryTypes.SELECT, replacements: { instrumentId, slice }, ...opts },
+        { replacements: { instrumentId, slice }, transaction },
       )) {
         recorded.add(`${instrumentId}\u0000${hit.reference}`);
       }
@@ -185,7 +164,7 @@ async function prepare(content: string, fileName: string, actor: SignedInUser, t
     report.entries += plan.entries.length;
     report.volume_mL += Object.values(plan.channelVolumes).reduce((a, b) => a + b, 0);
   }
-  report.volume_mL = Math.round(report.volume_mL * 10_000) / 10_000;
+  report.volume_mL = round4(report.volume_mL);
   if (report.issues.length >= 1_000)
     report.issues.push({ row: 1, column: null, message: "Stopped listing after 1,000 problems; fix these and check again." });
   return { report, planned };
@@ -221,9 +200,8 @@ export async function commitRunLog(
   actor: SignedInUser,
   ip: string | null = null,
 ): Promise<ImportReport> {
-  const sequelize = getSequelize();
   try {
-    return await inTransaction(sequelize, async (transaction) => {
+    return await inTransaction(getSequelize(), async (transaction) => {
       const prepared = await prepare(content, fileName, actor, transaction);
       const { report } = prepared;
       // The same plans, emptied run by run as their ledger entries are written.
@@ -236,14 +214,13 @@ export async function commitRunLog(
         );
       }
       const now = new Date();
-      await sequelize.query(
+      const { insertId: importId } = await execute(
         "INSERT INTO imports (kind, file_name, checksum, row_count, status, uploaded_by, created_at, updated_at) VALUES ('run-log', ?, ?, ?, 'committed', ?, ?, ?)",
         {
           replacements: [fileName.slice(0, 255), report.checksum, report.newRuns, actor.id, now, now],
           transaction,
         },
       );
-      const importId = await lastInsertId(transaction);
       report.importId = importId;
 
       // The runs first, 1,000 to a statement, then their ledger entries, read from the plans one
@@ -277,9 +254,9 @@ export async function commitRunLog(
         }
       });
       const runIds = new Map<string, number>();
-      for (const r of await sequelize.query<{ id: number; instrument_id: number; reference: string }>(
+      for (const r of await select<{ id: number; instrument_id: number; reference: string }>(
         "SELECT id, instrument_id, reference FROM runs WHERE import_id = ?",
-        { type: QueryTypes.SELECT, replacements: [importId], transaction },
+        { replacements: [importId], transaction },
       )) {
         runIds.set(`${r.instrument_id}\u0000${r.reference}`, r.id);
       }
@@ -327,7 +304,7 @@ export async function commitRunLog(
 }
 
 export async function listImports(limit = 20): Promise<ImportSummary[]> {
-  const rows = await getSequelize().query<{
+  const rows = await select<{
     id: number;
     file_name: string;
     row_count: number;
@@ -336,7 +313,7 @@ export async function listImports(limit = 20): Promise<ImportSummary[]> {
     created_at: Date;
   }>(
     "SELECT i.id, i.file_name, i.row_count, i.status, u.name AS uploaded_by, i.created_at FROM imports i LEFT JOIN users u ON u.id = i.uploaded_by WHERE i.kind = 'run-log' ORDER BY i.id DESC LIMIT ?",
-    { type: QueryTypes.SELECT, replacements: [limit] },
+    { replacements: [limit] },
   );
   return rows.map((r) => ({
     id: r.id,

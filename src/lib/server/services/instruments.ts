@@ -1,29 +1,17 @@
-import { QueryTypes, UniqueConstraintError } from "sequelize";
+/** Instruments (`/instruments`, `/api/instruments`): their pump channels and the waste container each drains to. */
+import { UniqueConstraintError } from "sequelize";
+import type { InstrumentSummary } from "../../ledger/types";
 import type { InstrumentInput } from "../../schemas/instruments";
 import { recordAudit } from "../audit";
 import { getSequelize } from "../db";
 import type { SignedInUser } from "../guard";
 import { HttpError } from "../http";
 import { Instrument } from "../models/ledger";
+import { jsonColumn, select, selectOne } from "../query";
 import { inTransaction } from "./sql";
 
-export interface InstrumentSummary {
-  id: number;
-  name: string;
-  kind: string;
-  room: string;
-  channels: string[];
-  wasteContainerId: number | null;
-  wasteContainerCode: string | null;
-  wasteStream: string | null;
-  active: boolean;
-  runs: number;
-}
-
-const parse = (v: unknown) => (typeof v === "string" ? (JSON.parse(v) as string[]) : (v as string[]));
-
 export async function listInstruments(): Promise<InstrumentSummary[]> {
-  const rows = await getSequelize().query<{
+  const rows = await select<{
     id: number;
     name: string;
     kind: string;
@@ -39,43 +27,39 @@ export async function listInstruments(): Promise<InstrumentSummary[]> {
             (SELECT COUNT(*) FROM runs r WHERE r.instrument_id = i.id) AS runs
        FROM instruments i LEFT JOIN waste_containers c ON c.id = i.waste_container_id LEFT JOIN waste_streams s ON s.id = c.stream_id
       ORDER BY i.name`,
-    { type: QueryTypes.SELECT },
   );
   return rows.map((r) => ({
     id: r.id,
     name: r.name,
     kind: r.kind,
     room: r.room,
-    channels: parse(r.channels),
+    channels: jsonColumn<string[]>(r.channels),
     wasteContainerId: r.waste_container_id,
     wasteContainerCode: r.code,
     wasteStream: r.stream,
     active: Boolean(r.active),
-    runs: Number(r.runs),
+    runs: r.runs,
   }));
 }
 
 /** Containers an instrument can drain to (not yet collected). */
 export async function openWasteContainers() {
-  return getSequelize().query<{ id: number; code: string; room: string; stream: string }>(
+  return select<{ id: number; code: string; room: string; stream: string }>(
     "SELECT c.id, c.code, c.room, s.name AS stream FROM waste_containers c JOIN waste_streams s ON s.id = c.stream_id WHERE c.status <> 'collected' ORDER BY c.code",
-    { type: QueryTypes.SELECT },
   );
 }
 
 async function checkContainer(id: number | null) {
   if (id === null) return;
-  const [row] = await getSequelize().query<{ id: number }>("SELECT id FROM waste_containers WHERE id = ? AND status <> 'collected'", {
-    type: QueryTypes.SELECT,
-    replacements: [id],
-  });
+  const row = await selectOne("SELECT id FROM waste_containers WHERE id = ? AND status <> 'collected'", { replacements: [id] });
   if (!row)
     throw new HttpError(400, "wasteContainerId: no waste container in use with this id", {
       fields: { wasteContainerId: "no waste container in use with this id" },
     });
 }
 
-const snapshot = (i: Instrument) => ({
+/** What a form sets on an instrument, and what the audit line keeps of it. */
+const fields = (i: InstrumentInput | Instrument) => ({
   name: i.name,
   kind: i.kind,
   room: i.room,
@@ -93,19 +77,9 @@ function duplicateName(error: unknown, name: string): never {
 export async function createInstrument(input: InstrumentInput, actor: SignedInUser): Promise<{ id: number }> {
   await checkContainer(input.wasteContainerId);
   return inTransaction(getSequelize(), async (transaction) => {
-    const created = await Instrument.create(
-      {
-        name: input.name,
-        kind: input.kind,
-        room: input.room,
-        channels: input.channels,
-        wasteContainerId: input.wasteContainerId,
-        active: input.active,
-      },
-      { transaction },
-    ).catch((e: unknown) => duplicateName(e, input.name));
+    const created = await Instrument.create(fields(input), { transaction }).catch((e: unknown) => duplicateName(e, input.name));
     await recordAudit(
-      { actorId: actor.id, action: "instrument.create", entity: "instrument", entityId: created.id, after: snapshot(created) },
+      { actorId: actor.id, action: "instrument.create", entity: "instrument", entityId: created.id, after: fields(created) },
       transaction,
     );
     return { id: created.id };
@@ -117,18 +91,11 @@ export async function updateInstrument(id: number, input: InstrumentInput, actor
   return inTransaction(getSequelize(), async (transaction) => {
     const instrument = await Instrument.findByPk(id, { transaction, lock: transaction.LOCK.UPDATE });
     if (!instrument) throw new HttpError(404, `id: no instrument ${id}`);
-    const before = snapshot(instrument);
-    instrument.set({
-      name: input.name,
-      kind: input.kind,
-      room: input.room,
-      channels: input.channels,
-      wasteContainerId: input.wasteContainerId,
-      active: input.active,
-    });
+    const before = fields(instrument);
+    instrument.set(fields(input));
     await instrument.save({ transaction }).catch((e: unknown) => duplicateName(e, input.name));
     await recordAudit(
-      { actorId: actor.id, action: "instrument.update", entity: "instrument", entityId: id, before, after: snapshot(instrument) },
+      { actorId: actor.id, action: "instrument.update", entity: "instrument", entityId: id, before, after: fields(instrument) },
       transaction,
     );
     return { id };

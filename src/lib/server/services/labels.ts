@@ -1,7 +1,8 @@
 /** Bottle labels for a batch, on one of the facility's label stocks. */
+import { labelContentOf } from "../../labels/batch-label";
 import { renderLabels } from "../../labels/label-pdf";
 import { HttpError } from "../http";
-import { getBatch, labelContentOf } from "./preparation";
+import { getBatch } from "./batches";
 import { getPreparationSettings } from "./preparation-settings";
 
 export async function batchLabels(

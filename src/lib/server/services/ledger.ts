@@ -4,33 +4,18 @@
  * negated volume and mass, the same time, project, reagent, batch and container, a reason and its
  * author, linked to the original through `reverses_id` (unique, so nothing is reversed twice).
  */
-import { QueryTypes, type Transaction } from "sequelize";
+import type { Transaction } from "sequelize";
 import { getReagent } from "../../chem";
+import { wasteStreamOf } from "../../ledger/split";
+import type { LedgerKind, LedgerLine, LedgerSource, NewLedgerEntry } from "../../ledger/types";
+import { DEFAULT_STREAM_BY_ID } from "../../waste/streams";
 import { recordAudit } from "../audit";
 import { getSequelize } from "../db";
 import type { SignedInUser } from "../guard";
 import { HttpError } from "../http";
-import type { LedgerKind, LedgerSource } from "../models/ledger";
+import { execute, select } from "../query";
 import { openDateForProject } from "./billing/period-locks";
 import { inTransaction, multiRowInsert, pipelinedWrites } from "./sql";
-
-export interface NewLedgerEntry {
-  occurredAt: Date;
-  projectId: number | null;
-  kind: LedgerKind;
-  batchId: number | null;
-  reagentId: string;
-  volume_mL: number;
-  mass_g: number | null;
-  channel: string | null;
-  wasteStreamId: string | null;
-  wasteContainerId: number | null;
-  sourceKind: LedgerSource;
-  sourceId: string | null;
-  authorId: number | null;
-  reversesId?: number | null;
-  reason?: string | null;
-}
 
 const COLUMNS = [
   "occurred_at",
@@ -52,45 +37,26 @@ const COLUMNS = [
 ] as const;
 const ROWS_PER_INSERT = 2_000;
 
-/** The waste stream a reagent goes to, from the chemistry catalogue. */
-export function wasteStreamOf(reagentId: string): string | null {
-  return getReagent(reagentId)?.wasteStream.value ?? null;
-}
-
-const STREAM_NAMES: Record<string, [string, number]> = {
-  aqueous: ["Aqueous", 1],
-  "non-halogenated-organic": ["Non-halogenated organic", 2],
-  "acidic-corrosive": ["Acidic / corrosive", 3],
-  "basic-corrosive": ["Basic / corrosive", 3],
-  "halogenated-organic": ["Halogenated organic", 4],
-};
-
 /**
  * Makes sure the reagents and waste streams that entries refer to have their catalogue rows (a
  * recipe may name a reagent of the chemistry library that the facility never listed).
  */
 export async function ensureCatalogueRows(reagentIds: Iterable<string>, transaction: Transaction) {
-  const sequelize = getSequelize();
   const wanted = [...new Set(reagentIds)];
   if (wanted.length === 0) return;
   const present = new Set(
-    (
-      await sequelize.query<{ id: string }>("SELECT id FROM reagents WHERE id IN (:wanted)", {
-        type: QueryTypes.SELECT,
-        replacements: { wanted },
-        transaction,
-      })
-    ).map((r) => r.id),
+    (await select<{ id: string }>("SELECT id FROM reagents WHERE id IN (:wanted)", { replacements: { wanted }, transaction })).map(
+      (r) => r.id,
+    ),
   );
   const streams = new Set(wanted.map(wasteStreamOf).filter((s): s is string => s !== null));
   if (streams.size > 0) {
-    const known = new Set(
-      (await sequelize.query<{ id: string }>("SELECT id FROM waste_streams", { type: QueryTypes.SELECT, transaction })).map((r) => r.id),
-    );
+    const known = new Set((await select<{ id: string }>("SELECT id FROM waste_streams", { transaction })).map((r) => r.id));
     for (const stream of streams) {
       if (known.has(stream)) continue;
-      const [name, restrictiveness] = STREAM_NAMES[stream] ?? [stream, 2];
-      await sequelize.query(
+      // The common-practice default's name and rank; the safety officer can change both later.
+      const { name, restrictiveness } = DEFAULT_STREAM_BY_ID[stream] ?? { name: stream, restrictiveness: 2 };
+      await execute(
         "INSERT IGNORE INTO waste_streams (id, name, restrictiveness, created_at, updated_at) VALUES (?, ?, ?, NOW(3), NOW(3))",
         { replacements: [stream, name, restrictiveness], transaction },
       );
@@ -100,7 +66,7 @@ export async function ensureCatalogueRows(reagentIds: Iterable<string>, transact
     if (present.has(id)) continue;
     const reagent = getReagent(id);
     if (!reagent) throw new HttpError(400, `reagent: ${id} is not in the catalogue`);
-    await sequelize.query(
+    await execute(
       "INSERT IGNORE INTO reagents (id, name, grades, unit, waste_stream_id, flammable, active, created_at, updated_at) VALUES (?, ?, '[]', ?, ?, ?, 1, NOW(3), NOW(3))",
       {
         replacements: [id, reagent.name, reagent.form === "solid" ? "g" : "mL", reagent.wasteStream.value, reagent.flammable ? 1 : 0],
@@ -150,45 +116,24 @@ export async function appendEntries(entries: Iterable<NewLedgerEntry>, transacti
   });
 }
 
-export interface LedgerLine {
-  id: number;
-  occurredAt: string;
-  kind: LedgerKind;
-  projectCode: string | null;
-  batchId: number | null;
-  batchCode: string | null;
-  reagentId: string;
-  volume_mL: number;
-  mass_g: number | null;
-  channel: string | null;
-  wasteStreamId: string | null;
-  wasteContainerCode: string | null;
-  sourceKind: LedgerSource;
-  sourceId: string | null;
-  author: string | null;
-  reversesId: number | null;
-  reversedById: number | null;
-  reason: string | null;
-}
-
 interface LedgerRow {
-  id: number | string;
+  id: number;
   occurred_at: Date;
   kind: LedgerKind;
   project_code: string | null;
   batch_id: number | null;
   batch_code: string | null;
   reagent_id: string;
-  volume_ml: string;
-  mass_g: string | null;
+  volume_ml: number;
+  mass_g: number | null;
   channel: string | null;
   waste_stream_id: string | null;
   container_code: string | null;
   source_kind: LedgerSource;
   source_id: string | null;
   author: string | null;
-  reverses_id: number | string | null;
-  reversed_by: number | string | null;
+  reverses_id: number | null;
+  reversed_by: number | null;
   reason: string | null;
 }
 
@@ -204,23 +149,23 @@ const SELECT_LINES = `
     LEFT JOIN ledger_entries r ON r.reverses_id = l.id`;
 
 const toLine = (r: LedgerRow): LedgerLine => ({
-  id: Number(r.id),
+  id: r.id,
   occurredAt: new Date(r.occurred_at).toISOString(),
   kind: r.kind,
   projectCode: r.project_code,
   batchId: r.batch_id,
   batchCode: r.batch_code,
   reagentId: r.reagent_id,
-  volume_mL: Number(r.volume_ml),
-  mass_g: r.mass_g === null ? null : Number(r.mass_g),
+  volume_mL: r.volume_ml,
+  mass_g: r.mass_g,
   channel: r.channel,
   wasteStreamId: r.waste_stream_id,
   wasteContainerCode: r.container_code,
   sourceKind: r.source_kind,
   sourceId: r.source_id,
   author: r.author,
-  reversesId: r.reverses_id === null ? null : Number(r.reverses_id),
-  reversedById: r.reversed_by === null ? null : Number(r.reversed_by),
+  reversesId: r.reverses_id,
+  reversedById: r.reversed_by,
   reason: r.reason,
 });
 
@@ -240,9 +185,11 @@ export async function listEntries(filter: {
     where.push("l.batch_id = :batchId");
     replacements.batchId = filter.batchId;
   }
-  const rows = await getSequelize().query<LedgerRow>(
+  const rows = await select<LedgerRow>(
     `${SELECT_LINES} ${where.length ? `WHERE ${where.join(" AND ")}` : ""} ORDER BY l.id DESC LIMIT :limit`,
-    { type: QueryTypes.SELECT, replacements },
+    {
+      replacements,
+    },
   );
   return rows.map(toLine);
 }
@@ -259,8 +206,7 @@ export async function reverseEntries(
   actor: SignedInUser,
   ip: string | null = null,
 ): Promise<{ corrections: LedgerLine[] }> {
-  const sequelize = getSequelize();
-  const ids = await inTransaction(sequelize, async (transaction) => {
+  const ids = await inTransaction(getSequelize(), async (transaction) => {
     const conditions: string[] = [];
     const replacements: Record<string, unknown> = {};
     if (input.entryIds.length) {
@@ -271,25 +217,23 @@ export async function reverseEntries(
       conditions.push("(l.source_id = :runSource AND l.kind = 'run')");
       replacements.runSource = `run:${input.runId}`;
     }
-    const originals = await sequelize.query<
-      LedgerRow & { project_id: number | null; waste_container_id: number | null; occurred_at: Date }
-    >(
+    const originals = await select<LedgerRow & { project_id: number | null; waste_container_id: number | null; occurred_at: Date }>(
       `SELECT l.*, r.id AS reversed_by FROM ledger_entries l LEFT JOIN ledger_entries r ON r.reverses_id = l.id
         WHERE ${conditions.join(" OR ")} ORDER BY l.id FOR UPDATE`,
-      { type: QueryTypes.SELECT, replacements, transaction },
+      { replacements, transaction },
     );
-    const found = new Set(originals.map((o) => Number(o.id)));
+    const found = new Set(originals.map((o) => o.id));
     const missing = input.entryIds.filter((id) => !found.has(id));
     if (missing.length) throw new HttpError(404, `entryIds: no ledger entry ${missing.join(", ")}`);
     if (input.runId !== undefined && !originals.some((o) => o.source_id === `run:${input.runId}`))
       throw new HttpError(404, `runId: run ${input.runId} has no ledger entries`);
-    const corrections = originals.filter((o) => o.kind === "correction" && input.entryIds.includes(Number(o.id)));
+    const corrections = originals.filter((o) => o.kind === "correction" && input.entryIds.includes(o.id));
     if (corrections.length)
       throw new HttpError(
         400,
         `entryIds: entry ${corrections.map((c) => c.id).join(", ")} is itself a correction; corrections are not reversed`,
       );
-    const already = originals.filter((o) => o.reversed_by !== null && input.entryIds.includes(Number(o.id)));
+    const already = originals.filter((o) => o.reversed_by !== null && input.entryIds.includes(o.id));
     if (already.length)
       throw new HttpError(
         409,
@@ -310,15 +254,15 @@ export async function reverseEntries(
       kind: "correction",
       batchId: o.batch_id,
       reagentId: o.reagent_id,
-      volume_mL: -Number(o.volume_ml),
-      mass_g: o.mass_g === null ? null : -Number(o.mass_g),
+      volume_mL: -o.volume_ml,
+      mass_g: o.mass_g === null ? null : -o.mass_g,
       channel: o.channel,
       wasteStreamId: o.waste_stream_id,
       wasteContainerId: o.waste_container_id,
       sourceKind: "manual",
       sourceId: o.source_id,
       authorId: actor.id,
-      reversesId: Number(o.id),
+      reversesId: o.id,
       reason: input.reason,
     }));
     try {
@@ -331,14 +275,14 @@ export async function reverseEntries(
     const backToBatch = new Map<number, number>();
     for (const o of todo)
       if (o.batch_id !== null && DRAWN_FROM_BATCH.has(o.kind))
-        backToBatch.set(o.batch_id, (backToBatch.get(o.batch_id) ?? 0) + Number(o.volume_ml));
+        backToBatch.set(o.batch_id, (backToBatch.get(o.batch_id) ?? 0) + o.volume_ml);
     for (const [batchId, volume] of backToBatch) {
-      await sequelize.query("UPDATE batches SET remaining_ml = LEAST(volume_ml, remaining_ml + ?), updated_at = NOW(3) WHERE id = ?", {
+      await execute("UPDATE batches SET remaining_ml = LEAST(volume_ml, remaining_ml + ?), updated_at = NOW(3) WHERE id = ?", {
         replacements: [volume.toFixed(4), batchId],
         transaction,
       });
     }
-    const originalIds = todo.map((o) => Number(o.id));
+    const originalIds = todo.map((o) => o.id);
     await recordAudit(
       {
         actorId: actor.id,
@@ -353,9 +297,6 @@ export async function reverseEntries(
     );
     return originalIds;
   });
-  const rows = await sequelize.query<LedgerRow>(`${SELECT_LINES} WHERE l.reverses_id IN (:ids) ORDER BY l.id`, {
-    type: QueryTypes.SELECT,
-    replacements: { ids },
-  });
+  const rows = await select<LedgerRow>(`${SELECT_LINES} WHERE l.reverses_id IN (:ids) ORDER BY l.id`, { replacements: { ids } });
   return { corrections: rows.map(toLine) };
 }

@@ -1,81 +1,57 @@
-import { QueryTypes, UniqueConstraintError } from "sequelize";
+/** Methods (`/methods`, `/api/methods`): pump programs, and the solvent one injection uses. */
+import { UniqueConstraintError } from "sequelize";
 import { solventUse, type ProgramPoint } from "../../chem";
 import { rowsToProgram } from "../../ledger/program";
+import type { MethodSummary } from "../../ledger/types";
 import type { MethodInput } from "../../schemas/methods";
 import { recordAudit } from "../audit";
 import { getSequelize } from "../db";
 import type { SignedInUser } from "../guard";
 import { HttpError } from "../http";
 import { Method } from "../models/ledger";
+import { jsonColumn, select, selectOne } from "../query";
 import { inTransaction } from "./sql";
 
-export interface MethodSummary {
-  id: number;
-  name: string;
-  description: string | null;
-  program: ProgramPoint[];
-  reEquilibration_min: number;
-  runTime_min: number;
-  /** Solvent per injection, from solventUse over the program. */
-  perInjection_mL: Record<string, number>;
-  perInjectionTotal_mL: number;
-  runs: number;
-}
-
-const parse = (v: unknown) => (typeof v === "string" ? (JSON.parse(v) as ProgramPoint[]) : (v as ProgramPoint[]));
-
-function summarise(r: {
+interface MethodRow {
   id: number;
   name: string;
   description: string | null;
   program: unknown;
-  re_equilibration_min: string;
-  run_time_min: string;
-  runs?: number;
-}): MethodSummary {
-  const program = parse(r.program);
+  re_equilibration_min: number;
+  run_time_min: number;
+  runs: number;
+}
+
+function summarise(r: MethodRow): MethodSummary {
+  const program = jsonColumn<ProgramPoint[]>(r.program);
   const use = solventUse({ program });
   return {
     id: r.id,
     name: r.name,
     description: r.description,
     program,
-    reEquilibration_min: Number(r.re_equilibration_min),
-    runTime_min: Number(r.run_time_min),
+    reEquilibration_min: r.re_equilibration_min,
+    runTime_min: r.run_time_min,
     perInjection_mL: use.byChannel_mL,
     perInjectionTotal_mL: use.total_mL,
-    runs: Number(r.runs ?? 0),
+    runs: r.runs,
   };
 }
 
 export async function listMethods(): Promise<MethodSummary[]> {
-  const rows = await getSequelize().query<{
-    id: number;
-    name: string;
-    description: string | null;
-    program: unknown;
-    re_equilibration_min: string;
-    run_time_min: string;
-    runs: number;
-  }>("SELECT m.*, (SELECT COUNT(*) FROM runs r WHERE r.method_id = m.id) AS runs FROM methods m ORDER BY m.name", {
-    type: QueryTypes.SELECT,
-  });
+  const rows = await select<MethodRow>(
+    "SELECT m.*, (SELECT COUNT(*) FROM runs r WHERE r.method_id = m.id) AS runs FROM methods m ORDER BY m.name",
+  );
   return rows.map(summarise);
 }
 
 export async function getMethod(id: number): Promise<MethodSummary | null> {
-  const [row] = await getSequelize().query<{
-    id: number;
-    name: string;
-    description: string | null;
-    program: unknown;
-    re_equilibration_min: string;
-    run_time_min: string;
-    runs: number;
-  }>("SELECT m.*, (SELECT COUNT(*) FROM runs r WHERE r.method_id = m.id) AS runs FROM methods m WHERE m.id = ?", {
-    type: QueryTypes.SELECT,
-    replacements: [id],
-  });
+  const row = await selectOne<MethodRow>(
+    "SELECT m.*, (SELECT COUNT(*) FROM runs r WHERE r.method_id = m.id) AS runs FROM methods m WHERE m.id = ?",
+    {
+      replacements: [id],
+    },
+  );
   return row ? summarise(row) : null;
 }
 

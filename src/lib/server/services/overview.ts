@@ -1,5 +1,5 @@
-import { QueryTypes } from "sequelize";
-import { getSequelize } from "../db";
+/** The home page's figures: recent volume per project and the live waste containers. */
+import { select } from "../query";
 import { listContainers } from "./waste/containers";
 
 const DAY = 86_400_000;
@@ -14,7 +14,7 @@ export interface ProjectVolume {
 
 /** Volume drawn per project over the last `days` days, optionally for one client organisation. */
 export async function recentUsageByProject(days: number, clientId: number | null = null, now = new Date()): Promise<ProjectVolume[]> {
-  const rows = await getSequelize().query<{ code: string; name: string; client: string; volume: string; runs: number }>(
+  const rows = await select<{ code: string; name: string; client: string; volume: number; runs: number }>(
     `SELECT p.code, p.name, c.name AS client, COALESCE(SUM(l.volume_ml), 0) AS volume,
             COUNT(DISTINCT CASE WHEN l.kind = 'run' THEN l.source_id END) AS runs
        FROM projects p
@@ -23,14 +23,14 @@ export async function recentUsageByProject(days: number, clientId: number | null
       WHERE (:clientId IS NULL OR p.client_id = :clientId)
       GROUP BY p.id, p.code, p.name, c.name
       ORDER BY volume DESC, p.code`,
-    { type: QueryTypes.SELECT, replacements: { since: new Date(now.getTime() - days * DAY), until: now, clientId } },
+    { replacements: { since: new Date(now.getTime() - days * DAY), until: now, clientId } },
   );
   return rows.map((r) => ({
     projectCode: r.code,
     projectName: r.name,
     clientName: r.client,
-    volume_mL: Number(r.volume),
-    runs: Number(r.runs),
+    volume_mL: r.volume,
+    runs: r.runs,
   }));
 }
 

@@ -1,5 +1,5 @@
 /** The facility's preparation settings: expiry rules, deviation tolerances, label stocks. */
-import { QueryTypes } from "sequelize";
+import type { Transaction } from "sequelize";
 import { DEFAULT_LABEL_STOCK_ID, DEFAULT_LABEL_STOCKS } from "../../labels/stocks";
 import { DEFAULT_TOLERANCES } from "../../preparation/deviations";
 import { DEFAULT_EXPIRY_RULES, type ExpiryRule } from "../../preparation/expiry";
@@ -7,6 +7,7 @@ import { preparationSettingsSchema, type PreparationSettings } from "../../schem
 import { recordAudit } from "../audit";
 import { getSequelize } from "../db";
 import type { SignedInUser } from "../guard";
+import { execute, jsonColumn, select } from "../query";
 import { inTransaction } from "./sql";
 
 const KEYS = {
@@ -16,12 +17,12 @@ const KEYS = {
   defaultLabelStockId: "labels.defaultStock",
 } as const;
 
-async function readSettings(keys: string[]): Promise<Map<string, unknown>> {
-  const rows = await getSequelize().query<{ key: string; value: unknown }>("SELECT `key`, value FROM settings WHERE `key` IN (:keys)", {
-    type: QueryTypes.SELECT,
+async function readSettings(keys: string[], transaction?: Transaction): Promise<Map<string, unknown>> {
+  const rows = await select<{ key: string; value: unknown }>("SELECT `key`, value FROM settings WHERE `key` IN (:keys)", {
     replacements: { keys },
+    transaction,
   });
-  return new Map(rows.map((r) => [r.key, typeof r.value === "string" ? JSON.parse(r.value) : r.value]));
+  return new Map(rows.map((r) => [r.key, jsonColumn(r.value)]));
 }
 
 /** Defaults, with the older single-value keys of the first seed folded in. */
@@ -35,8 +36,8 @@ function defaultRules(legacy: Map<string, unknown>): ExpiryRule[] {
   });
 }
 
-export async function getPreparationSettings(): Promise<PreparationSettings> {
-  const values = await readSettings([...Object.values(KEYS), "expiry.aqueousBuffer_h", "expiry.organicMix_days"]);
+export async function getPreparationSettings(transaction?: Transaction): Promise<PreparationSettings> {
+  const values = await readSettings([...Object.values(KEYS), "expiry.aqueousBuffer_h", "expiry.organicMix_days"], transaction);
   const candidate = {
     expiryRules: values.get(KEYS.expiryRules) ?? defaultRules(values),
     tolerances: values.get(KEYS.tolerances) ?? DEFAULT_TOLERANCES,
@@ -62,7 +63,7 @@ export async function savePreparationSettings(
   const before = await getPreparationSettings();
   await inTransaction(getSequelize(), async (transaction) => {
     for (const [field, key] of Object.entries(KEYS) as [keyof typeof KEYS, string][]) {
-      await getSequelize().query(
+      await execute(
         "INSERT INTO settings (`key`, value, updated_by, updated_at) VALUES (?, ?, ?, NOW(3)) ON DUPLICATE KEY UPDATE value = VALUES(value), updated_by = VALUES(updated_by), updated_at = NOW(3)",
         { replacements: [key, JSON.stringify(settings[field]), actor.id], transaction },
       );

@@ -4,7 +4,7 @@
  * the next version, which waits for approval while batches go on being made from the last
  * approved one.
  */
-import { QueryTypes, UniqueConstraintError } from "sequelize";
+import { UniqueConstraintError, type Transaction } from "sequelize";
 import { describeSpec } from "../../preparation/plan";
 import type { PreparableRecipe, RecipeDetail, RecipeState, RecipeSummary } from "../../preparation/types";
 import { recipeSpecSchema, type RecipeInput, type RecipeSpec } from "../../schemas/recipes";
@@ -12,11 +12,11 @@ import { recordAudit } from "../audit";
 import { getSequelize } from "../db";
 import type { SignedInUser } from "../guard";
 import { HttpError } from "../http";
-import { inTransaction, lastInsertId } from "./sql";
+import { execute, jsonColumn, select, selectOne } from "../query";
+import { inTransaction } from "./sql";
 
 function parseSpec(raw: unknown): RecipeSpec {
-  const value = typeof raw === "string" ? JSON.parse(raw) : raw;
-  return recipeSpecSchema.parse(value);
+  return recipeSpecSchema.parse(jsonColumn(raw));
 }
 
 interface SummaryRow {
@@ -51,7 +51,7 @@ export async function listRecipes(
 ): Promise<RecipeSummary[]> {
   const sort = SORT_COLUMNS[query.sort ?? "code"] ?? "r.code";
   const dir = query.dir === "desc" ? "DESC" : "ASC";
-  const rows = await getSequelize().query<SummaryRow>(
+  const rows = await select<SummaryRow>(
     `SELECT r.id, r.code, r.name, r.channel, r.status, r.updated_at, u.name AS author,
             (SELECT MAX(v.version) FROM recipe_versions v WHERE v.recipe_id = r.id) AS latest,
             (SELECT MAX(v.version) FROM recipe_versions v WHERE v.recipe_id = r.id AND v.approved_at IS NOT NULL) AS approved,
@@ -60,11 +60,10 @@ export async function listRecipes(
       WHERE (:q IS NULL OR r.code LIKE :like OR r.name LIKE :like)
         AND (:channel IS NULL OR r.channel = :channel)
       ORDER BY ${sort} ${dir}, r.id ${dir}`,
-    { type: QueryTypes.SELECT, replacements: { q: query.q || null, like: `%${query.q ?? ""}%`, channel: query.channel ?? null } },
+    { replacements: { q: query.q || null, like: `%${query.q ?? ""}%`, channel: query.channel ?? null } },
   );
   const out = rows.map((r): RecipeSummary => {
-    const state: RecipeState =
-      r.status === "retired" ? "retired" : r.approved !== null && Number(r.approved) === Number(r.latest) ? "approved" : "pending";
+    const state: RecipeState = r.status === "retired" ? "retired" : r.approved !== null && r.approved === r.latest ? "approved" : "pending";
     let description = "";
     try {
       description = describeSpec(parseSpec(r.spec));
@@ -77,8 +76,8 @@ export async function listRecipes(
       name: r.name,
       channel: r.channel,
       state,
-      latestVersion: Number(r.latest),
-      approvedVersion: r.approved === null ? null : Number(r.approved),
+      latestVersion: r.latest,
+      approvedVersion: r.approved,
       description,
       updatedAt: new Date(r.updated_at).toISOString(),
       author: r.author,
@@ -90,7 +89,7 @@ export async function listRecipes(
 export async function getRecipe(id: number): Promise<RecipeDetail> {
   const [summary] = (await listRecipes()).filter((r) => r.id === id);
   if (!summary) throw new HttpError(404, `No recipe with id ${id}.`);
-  const rows = await getSequelize().query<{
+  const rows = await select<{
     id: number;
     version: number;
     spec: unknown;
@@ -108,7 +107,7 @@ export async function getRecipe(id: number): Promise<RecipeDetail> {
             (SELECT COUNT(*) FROM batches b WHERE b.recipe_version_id = v.id) AS batches
        FROM recipe_versions v LEFT JOIN users a ON a.id = v.created_by LEFT JOIN users p ON p.id = v.approved_by
       WHERE v.recipe_id = ? ORDER BY v.version DESC`,
-    { type: QueryTypes.SELECT, replacements: [id] },
+    { replacements: [id] },
   );
   return {
     ...summary,
@@ -124,7 +123,7 @@ export async function getRecipe(id: number): Promise<RecipeDetail> {
       createdById: v.created_by,
       approvedAt: v.approved_at ? new Date(v.approved_at).toISOString() : null,
       approvedBy: v.approver,
-      batches: Number(v.batches),
+      batches: v.batches,
     })),
   };
 }
@@ -143,32 +142,25 @@ function codeFrom(name: string): string {
 
 async function uniqueCode(base: string): Promise<string> {
   const taken = new Set(
-    (
-      await getSequelize().query<{ code: string }>("SELECT code FROM recipes WHERE code LIKE ?", {
-        type: QueryTypes.SELECT,
-        replacements: [`${base}%`],
-      })
-    ).map((r) => r.code),
+    (await select<{ code: string }>("SELECT code FROM recipes WHERE code LIKE ?", { replacements: [`${base}%`] })).map((r) => r.code),
   );
   if (!taken.has(base)) return base;
   for (let n = 2; ; n++) if (!taken.has(`${base}-${n}`)) return `${base}-${n}`;
 }
 
 export async function createRecipe(input: RecipeInput, actor: SignedInUser, ip: string | null = null): Promise<RecipeDetail> {
-  const sequelize = getSequelize();
   const code = input.code ?? (await uniqueCode(codeFrom(input.name)));
   let id = 0;
   try {
-    await inTransaction(sequelize, async (transaction) => {
-      await sequelize.query(
+    await inTransaction(getSequelize(), async (transaction) => {
+      ({ insertId: id } = await execute(
         "INSERT INTO recipes (code, name, channel, status, created_by, created_at, updated_at) VALUES (?, ?, ?, 'draft', ?, NOW(3), NOW(3))",
         {
           replacements: [code, input.name, input.channel ?? null, actor.id],
           transaction,
         },
-      );
-      id = await lastInsertId(transaction);
-      await sequelize.query(
+      ));
+      await execute(
         "INSERT INTO recipe_versions (recipe_id, version, spec, detection_nm, storage, notes, created_by, created_at) VALUES (?, 1, ?, ?, ?, ?, ?, NOW(3))",
         {
           replacements: [id, JSON.stringify(input.spec), input.detection_nm ?? null, input.storage ?? null, input.notes ?? null, actor.id],
@@ -198,14 +190,13 @@ export async function updateRecipe(
   if (before.state === "retired") throw new HttpError(409, "This recipe is retired; it can no longer be changed.");
   const latest = before.versions[0]!;
   const frozen = latest.approvedAt !== null || latest.batches > 0;
-  const sequelize = getSequelize();
-  await inTransaction(sequelize, async (transaction) => {
-    await sequelize.query("UPDATE recipes SET name = ?, channel = ?, updated_at = NOW(3) WHERE id = ?", {
+  await inTransaction(getSequelize(), async (transaction) => {
+    await execute("UPDATE recipes SET name = ?, channel = ?, updated_at = NOW(3) WHERE id = ?", {
       replacements: [input.name, input.channel ?? null, id],
       transaction,
     });
     if (frozen) {
-      await sequelize.query(
+      await execute(
         "INSERT INTO recipe_versions (recipe_id, version, spec, detection_nm, storage, notes, created_by, created_at) VALUES (?, ?, ?, ?, ?, ?, ?, NOW(3))",
         {
           replacements: [
@@ -221,7 +212,7 @@ export async function updateRecipe(
         },
       );
     } else {
-      await sequelize.query("UPDATE recipe_versions SET spec = ?, detection_nm = ?, storage = ?, notes = ? WHERE id = ?", {
+      await execute("UPDATE recipe_versions SET spec = ?, detection_nm = ?, storage = ?, notes = ? WHERE id = ?", {
         replacements: [JSON.stringify(input.spec), input.detection_nm ?? null, input.storage ?? null, input.notes ?? null, latest.id],
         transaction,
       });
@@ -250,51 +241,59 @@ export async function approveRecipe(id: number, version: number, actor: SignedIn
     throw new HttpError(409, `version: version ${version} is not the latest (v${latest.version}); reload and review the latest.`);
   if (latest.approvedAt) throw new HttpError(409, `Version ${version} is approved already.`);
   if (latest.createdById === actor.id) throw new HttpError(403, "A recipe version is approved by someone other than its author.");
-  const sequelize = getSequelize();
-  await inTransaction(sequelize, async (transaction) => {
-    await sequelize.query("UPDATE recipe_versions SET approved_by = ?, approved_at = NOW(3) WHERE id = ? AND approved_at IS NULL", {
+  await inTransaction(getSequelize(), async (transaction) => {
+    await execute("UPDATE recipe_versions SET approved_by = ?, approved_at = NOW(3) WHERE id = ? AND approved_at IS NULL", {
       replacements: [actor.id, latest.id],
       transaction,
     });
-    await sequelize.query("UPDATE recipes SET status = 'approved', updated_at = NOW(3) WHERE id = ?", { replacements: [id], transaction });
+    await execute("UPDATE recipes SET status = 'approved', updated_at = NOW(3) WHERE id = ?", { replacements: [id], transaction });
     await recordAudit({ actorId: actor.id, action: "approve", entity: "recipe", entityId: id, ip, after: { version } }, transaction);
   });
   return getRecipe(id);
 }
 
+/** A recipe version with its recipe, as preparation uses it. */
+interface VersionRow {
+  recipe_id: number;
+  id: number;
+  version: number;
+  code: string;
+  name: string;
+  channel: string | null;
+  detection_nm: number | null;
+  storage: string | null;
+  spec: unknown;
+  approved_at: Date | null;
+  status: string;
+}
+
+const SELECT_VERSIONS = `SELECT v.recipe_id, v.id, v.version, r.code, r.name, r.channel, v.detection_nm, v.storage, v.spec, v.approved_at, r.status
+                           FROM recipe_versions v JOIN recipes r ON r.id = v.recipe_id`;
+
+/** Throws when the stored specification no longer parses. */
+const preparable = (r: VersionRow): PreparableRecipe => ({
+  recipeId: r.recipe_id,
+  versionId: r.id,
+  version: r.version,
+  code: r.code,
+  name: r.name,
+  channel: r.channel,
+  detection_nm: r.detection_nm,
+  storage: r.storage,
+  spec: parseSpec(r.spec),
+});
+
 export async function preparableRecipes(): Promise<PreparableRecipe[]> {
-  const rows = await getSequelize().query<{
-    recipe_id: number;
-    id: number;
-    version: number;
-    code: string;
-    name: string;
-    channel: string | null;
-    detection_nm: number | null;
-    storage: string | null;
-    spec: unknown;
-  }>(
-    `SELECT v.recipe_id, v.id, v.version, r.code, r.name, r.channel, v.detection_nm, v.storage, v.spec
-       FROM recipe_versions v JOIN recipes r ON r.id = v.recipe_id
+  const rows = await select<VersionRow>(
+    `${SELECT_VERSIONS}
       WHERE r.status <> 'retired' AND v.approved_at IS NOT NULL
         AND v.version = (SELECT MAX(w.version) FROM recipe_versions w WHERE w.recipe_id = v.recipe_id AND w.approved_at IS NOT NULL)
       ORDER BY r.code`,
-    { type: QueryTypes.SELECT },
   );
   const out: PreparableRecipe[] = [];
   for (const r of rows) {
     try {
-      out.push({
-        recipeId: r.recipe_id,
-        versionId: r.id,
-        version: r.version,
-        code: r.code,
-        name: r.name,
-        channel: r.channel,
-        detection_nm: r.detection_nm,
-        storage: r.storage,
-        spec: parseSpec(r.spec),
-      });
+      out.push(preparable(r));
     } catch {
       // A version whose stored specification no longer parses is not offered for preparation.
     }
@@ -302,38 +301,11 @@ export async function preparableRecipes(): Promise<PreparableRecipe[]> {
   return out;
 }
 
-export async function getRecipeVersion(versionId: number): Promise<PreparableRecipe & { approved: boolean; retired: boolean }> {
-  const [r] = await getSequelize().query<{
-    recipe_id: number;
-    id: number;
-    version: number;
-    code: string;
-    name: string;
-    channel: string | null;
-    detection_nm: number | null;
-    storage: string | null;
-    spec: unknown;
-    approved_at: Date | null;
-    status: string;
-  }>(
-    `SELECT v.recipe_id, v.id, v.version, r.code, r.name, r.channel, v.detection_nm, v.storage, v.spec, v.approved_at, r.status
-       FROM recipe_versions v JOIN recipes r ON r.id = v.recipe_id WHERE v.id = ?`,
-    { type: QueryTypes.SELECT, replacements: [versionId] },
-  );
+export async function getRecipeVersion(
+  versionId: number,
+  transaction?: Transaction,
+): Promise<PreparableRecipe & { approved: boolean; retired: boolean }> {
+  const r = await selectOne<VersionRow>(`${SELECT_VERSIONS} WHERE v.id = ?`, { replacements: [versionId], transaction });
   if (!r) throw new HttpError(400, `recipeVersionId: no recipe version ${versionId}`);
-  return {
-    recipeId: r.recipe_id,
-    versionId: r.id,
-    version: r.version,
-    code: r.code,
-    name: r.name,
-    channel: r.channel,
-    detection_nm: r.detection_nm,
-    storage: r.storage,
-    spec: parseSpec(r.spec),
-    approved: r.approved_at !== null,
-    retired: r.status === "retired",
-  };
+  return { ...preparable(r), approved: r.approved_at !== null, retired: r.status === "retired" };
 }
-
-export { describeSpec };

@@ -1,5 +1,4 @@
-import { QueryTypes, UniqueConstraintError, type Sequelize, type Transaction } from "sequelize";
-import { getSequelize } from "../db";
+import { UniqueConstraintError, type Sequelize, type Transaction } from "sequelize";
 
 /** True when MariaDB rolled the transaction back to break a deadlock (error 1213, SQLSTATE 40001). */
 export function isDeadlock(error: unknown): boolean {
@@ -24,15 +23,6 @@ export async function inTransaction<T>(sequelize: Sequelize, work: (transaction:
       await new Promise((resolve) => setTimeout(resolve, Math.random() * 20 * attempt));
     }
   }
-}
-
-/** The id of the row just inserted on this transaction's connection. */
-export async function lastInsertId(transaction: Transaction): Promise<number> {
-  const [row] = await getSequelize().query<{ id: number | bigint }>("SELECT LAST_INSERT_ID() AS id", {
-    type: QueryTypes.SELECT,
-    transaction,
-  });
-  return Number(row!.id);
 }
 
 /** "INSERT INTO t (a,b) VALUES (?,?),(?,?)" for `rows` rows, the values to go with it as placeholders. */

@@ -1,39 +1,20 @@
 /** Stock lots: reagents as received, their certificates, and whether a batch may take from them. */
-import { QueryTypes, UniqueConstraintError } from "sequelize";
+import { UniqueConstraintError, type Transaction } from "sequelize";
 import { getReagent } from "../../chem";
 import { lotExpired } from "../../preparation/expiry";
+import type { StockLotSummary } from "../../preparation/types";
 import type { StockLotInput } from "../../schemas/stock-lots";
 import { recordAudit } from "../audit";
 import { getSequelize } from "../db";
 import type { SignedInUser } from "../guard";
 import { HttpError } from "../http";
+import { execute, select, selectOne } from "../query";
 import { readUpload, removeUpload, storeCertificate } from "../storage";
-import { inTransaction, lastInsertId } from "./sql";
+import { inTransaction } from "./sql";
 import { ensureCatalogueRows } from "./ledger";
 
 /** A lot is low when less than this share of what was received is left (or below the reagent's reorder level). */
 export const LOW_STOCK_FRACTION = 0.15;
-
-export interface StockLotSummary {
-  id: number;
-  reagent: string;
-  reagentName: string;
-  unit: "mL" | "g";
-  lotNumber: string;
-  supplier: string;
-  grade: string;
-  receivedOn: string;
-  openedOn: string | null;
-  expiresOn: string;
-  quantity: number;
-  remaining: number;
-  room: string | null;
-  hasCertificate: boolean;
-  certificateName: string | null;
-  expired: boolean;
-  low: boolean;
-  usable: boolean;
-}
 
 interface LotRow {
   id: number;
@@ -44,12 +25,12 @@ interface LotRow {
   received_on: string | Date;
   opened_on: string | Date | null;
   expires_on: string | Date;
-  quantity: string;
-  remaining: string;
+  quantity: number;
+  remaining: number;
   room: string | null;
   certificate_path: string | null;
   certificate_name: string | null;
-  reorder_level: string | null;
+  reorder_level: number | null;
   unit: "mL" | "g" | null;
 }
 
@@ -57,11 +38,10 @@ const day = (d: string | Date | null) => (d === null ? null : typeof d === "stri
 
 function summarise(row: LotRow, now: Date): StockLotSummary {
   const reagent = getReagent(row.reagent_id);
-  const quantity = Number(row.quantity);
-  const remaining = Number(row.remaining);
+  const { quantity, remaining } = row;
   const expiresOn = day(row.expires_on)!;
   const expired = lotExpired(expiresOn, now);
-  const reorder = row.reorder_level === null ? null : Number(row.reorder_level);
+  const reorder = row.reorder_level;
   const low = remaining < quantity * LOW_STOCK_FRACTION || (reorder !== null && remaining < reorder);
   return {
     id: row.id,
@@ -93,11 +73,11 @@ export async function listStockLots(
   filter: { reagent?: string | undefined; q?: string | undefined; state?: "all" | "usable" | "expired" | "low" } = {},
   now = new Date(),
 ): Promise<StockLotSummary[]> {
-  const rows = await getSequelize().query<LotRow>(
+  const rows = await select<LotRow>(
     `${SELECT} WHERE (:reagent IS NULL OR l.reagent_id = :reagent)
         AND (:q IS NULL OR l.lot_number LIKE :like OR l.supplier LIKE :like OR l.reagent_id LIKE :like)
       ORDER BY l.reagent_id, l.expires_on, l.id`,
-    { type: QueryTypes.SELECT, replacements: { reagent: filter.reagent ?? null, q: filter.q ?? null, like: `%${filter.q ?? ""}%` } },
+    { replacements: { reagent: filter.reagent ?? null, q: filter.q ?? null, like: `%${filter.q ?? ""}%` } },
   );
   const lots = rows.map((r) => summarise(r, now));
   switch (filter.state ?? "all") {
@@ -112,12 +92,13 @@ export async function listStockLots(
   }
 }
 
-export async function getStockLots(ids: readonly number[], now = new Date()): Promise<Map<number, StockLotSummary>> {
+export async function getStockLots(
+  ids: readonly number[],
+  now = new Date(),
+  transaction?: Transaction,
+): Promise<Map<number, StockLotSummary>> {
   if (ids.length === 0) return new Map();
-  const rows = await getSequelize().query<LotRow>(`${SELECT} WHERE l.id IN (:ids)`, {
-    type: QueryTypes.SELECT,
-    replacements: { ids: [...ids] },
-  });
+  const rows = await select<LotRow>(`${SELECT} WHERE l.id IN (:ids)`, { replacements: { ids: [...ids] }, transaction });
   return new Map(rows.map((r) => [r.id, summarise(r, now)]));
 }
 
@@ -129,12 +110,11 @@ export async function createStockLot(
 ): Promise<StockLotSummary> {
   // The file is checked (type by content, size) before anything is written to the database.
   const stored = certificate ? await storeCertificate(certificate.bytes) : null;
-  const sequelize = getSequelize();
   let id = 0;
   try {
-    await inTransaction(sequelize, async (transaction) => {
+    await inTransaction(getSequelize(), async (transaction) => {
       await ensureCatalogueRows([input.reagent], transaction);
-      await sequelize.query(
+      ({ insertId: id } = await execute(
         `INSERT INTO stock_lots (reagent_id, lot_number, supplier, grade, received_on, opened_on, expires_on, quantity, remaining, room,
                                  certificate_path, certificate_name, certificate_type, certificate_size, created_by, created_at, updated_at)
          VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, NOW(3), NOW(3))`,
@@ -158,8 +138,7 @@ export async function createStockLot(
             actor.id,
           ],
         },
-      );
-      id = await lastInsertId(transaction);
+      ));
       await recordAudit(
         {
           actorId: actor.id,
@@ -186,14 +165,10 @@ export async function createStockLot(
 }
 
 export async function getCertificate(lotId: number): Promise<{ bytes: Buffer; mime: string; name: string }> {
-  const [row] = await getSequelize().query<{
-    certificate_path: string | null;
-    certificate_type: string | null;
-    certificate_name: string | null;
-  }>("SELECT certificate_path, certificate_type, certificate_name FROM stock_lots WHERE id = ?", {
-    type: QueryTypes.SELECT,
-    replacements: [lotId],
-  });
+  const row = await selectOne<{ certificate_path: string | null; certificate_type: string | null; certificate_name: string | null }>(
+    "SELECT certificate_path, certificate_type, certificate_name FROM stock_lots WHERE id = ?",
+    { replacements: [lotId] },
+  );
   if (!row?.certificate_path) throw new HttpError(404, "This lot has no certificate of analysis on file.");
   return {
     bytes: await readUpload(row.certificate_path),

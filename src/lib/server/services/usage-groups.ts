@@ -8,11 +8,10 @@
  * `source_id = 'run:<id>'`. The sums are grouped per project and rate segment too, so each
  * project is costed at its own client's price list exactly as usage.ts does it.
  */
-import { QueryTypes } from "sequelize";
 import { costLines, toMicro, type CostLine, type PriceList, type Rate } from "../../billing/rates";
 import type { GroupedBy, GroupedUsageAnswer, GroupedUsageRow } from "../../ledger/types";
 import type { UsageQuery } from "../../schemas/usage";
-import { getSequelize } from "../db";
+import { select } from "../query";
 import { loadRates, periodBounds } from "./usage";
 
 export const NONE = "none";
@@ -67,21 +66,18 @@ interface SumRow {
   recipe_code: string | null;
   recipe_name: string | null;
   at: string | Date;
-  volume: string;
-  mass: string | null;
+  volume: number;
+  mass: number | null;
 }
 
 async function sums(groupBy: GroupedBy | "project", query: UsageQuery, clientId: number | null, rates: readonly Rate[]): Promise<SumRow[]> {
   const [start, end] = periodBounds(query.from, query.to);
   const segment = segmentSql(rates, query.from, query.to);
-  return getSequelize().query<SumRow>(groupedSumsSql(groupBy, segment.sql), {
-    type: QueryTypes.SELECT,
-    replacements: { ...segment.replacements, start, end, clientId },
-  });
+  return select<SumRow>(groupedSumsSql(groupBy, segment.sql), { replacements: { ...segment.replacements, start, end, clientId } });
 }
 
 /** Adds exactly (in 10⁻⁶ units) into a map of totals. */
-function add(totals: Map<string, bigint>, key: string, value: string | null) {
+function add(totals: Map<string, bigint>, key: string, value: number | null) {
   if (value === null) return;
   totals.set(key, (totals.get(key) ?? 0n) + toMicro(value));
 }
@@ -93,7 +89,6 @@ export async function usageGrouped(
   query: UsageQuery & { groupBy: GroupedBy },
   scope: { clientId: number | null },
 ): Promise<GroupedUsageAnswer> {
-  const sequelize = getSequelize();
   const groupBy = query.groupBy;
   const [start, end] = periodBounds(query.from, query.to);
   const runKey: Record<GroupedBy, string | null> = {
@@ -106,18 +101,18 @@ export async function usageGrouped(
   const rates = await loadRates();
   const [rows, projects, runs] = await Promise.all([
     sums(groupBy, query, scope.clientId, rates),
-    sequelize.query<{ id: number; kind: PriceList; currency: string }>(
+    select<{ id: number; kind: PriceList; currency: string }>(
       "SELECT p.id, c.kind, c.currency FROM projects p JOIN clients c ON c.id = p.client_id WHERE (:clientId IS NULL OR p.client_id = :clientId)",
-      { type: QueryTypes.SELECT, replacements: { clientId: scope.clientId } },
+      { replacements: { clientId: scope.clientId } },
     ),
     runSql === null
       ? Promise.resolve([])
-      : sequelize.query<{ group_key: string | number; runs: number; injections: string }>(
+      : select<{ group_key: string | number; runs: number; injections: number }>(
           `SELECT ${runSql} AS group_key, COUNT(*) AS runs, SUM(r.injections) AS injections
              FROM runs r JOIN projects p ON p.id = r.project_id
             WHERE r.started_at >= :start AND r.started_at < :end AND (:clientId IS NULL OR p.client_id = :clientId)
             GROUP BY group_key`,
-          { type: QueryTypes.SELECT, replacements: { start, end, clientId: scope.clientId } },
+          { replacements: { start, end, clientId: scope.clientId } },
         ),
   ]);
   const projectById = new Map(projects.map((p) => [p.id, p]));
@@ -173,8 +168,8 @@ export async function usageGrouped(
       volumes_mL: toRecord(g.volumes, 4),
       masses_g: toRecord(g.masses, 5),
       mobilePhases_mL: toRecord(g.phases, 4),
-      runs: runSql === null ? null : Number(run?.runs ?? 0),
-      injections: runSql === null ? null : Number(run?.injections ?? 0),
+      runs: runSql === null ? null : (run?.runs ?? 0),
+      injections: runSql === null ? null : (run?.injections ?? 0),
       cost: costs.length === 1 ? costs[0]! : null,
       costs,
       uncosted: [...uncosted].sort(),

@@ -3,11 +3,10 @@
  * costed at the rate in force on the day of each entry for the client's price list
  * (src/lib/billing/rates).
  */
-import { QueryTypes } from "sequelize";
 import { costLines, toMicro, type CostLine, type PriceList, type Rate } from "../../billing/rates";
 import type { UsageAnswer, UsageRow } from "../../ledger/types";
 import type { UsageQuery } from "../../schemas/usage";
-import { getSequelize } from "../db";
+import { select } from "../query";
 
 const round = (v: number, digits: number) => Math.round(v * 10 ** digits) / 10 ** digits;
 
@@ -21,7 +20,7 @@ export function periodBounds(from: string, to: string): [Date, Date] {
 
 /** All rates (a small table), in the pure module's shape. */
 export async function loadRates(): Promise<Rate[]> {
-  const rows = await getSequelize().query<{
+  const rows = await select<{
     id: number;
     kind: Rate["kind"];
     reagent_id: string | null;
@@ -31,9 +30,7 @@ export async function loadRates(): Promise<Rate[]> {
     amount_minor: number;
     currency: string;
     effective_from: string | Date;
-  }>("SELECT id, kind, reagent_id, grade, price_list, unit, amount_minor, currency, effective_from FROM rates", {
-    type: QueryTypes.SELECT,
-  });
+  }>("SELECT id, kind, reagent_id, grade, price_list, unit, amount_minor, currency, effective_from FROM rates");
   return rows.map((r) => ({
     id: r.id,
     kind: r.kind,
@@ -80,33 +77,32 @@ export const usageSumsSql = (segmentSql: string) =>
  * the cost is exactly what costing each entry on its own day would give, from a few hundred rows.
  */
 export async function usageByProject(query: UsageQuery, scope: { clientId: number | null }): Promise<UsageAnswer> {
-  const sequelize = getSequelize();
   const [start, end] = periodBounds(query.from, query.to);
   const replacements = { start, end, clientId: scope.clientId };
   // The rates decide the segments, so they come first; the other reads run alongside.
   const ratesAndSums = loadRates().then(async (rates) => {
     const segments = rateSegments(rates, query.from, query.to);
-    const sums = await sequelize.query<{ project_id: number; reagent_id: string; at: string | Date; volume: string; mass: string | null }>(
+    const sums = await select<{ project_id: number; reagent_id: string; at: string | Date; volume: number; mass: number | null }>(
       usageSumsSql(segments.sql),
-      { type: QueryTypes.SELECT, replacements: { ...segments.replacements, from: query.from, to: query.to, clientId: scope.clientId } },
+      { replacements: { ...segments.replacements, from: query.from, to: query.to, clientId: scope.clientId } },
     );
     return { rates, sums };
   });
 
   const [{ rates, sums }, runs, projects] = await Promise.all([
     ratesAndSums,
-    sequelize.query<{ project_id: number; runs: number; injections: string }>(
+    select<{ project_id: number; runs: number; injections: number }>(
       `SELECT r.project_id, COUNT(*) AS runs, SUM(r.injections) AS injections
          FROM runs r
         WHERE r.started_at >= :start AND r.started_at < :end
           AND (:clientId IS NULL OR r.project_id IN (SELECT sp.id FROM projects sp WHERE sp.client_id = :clientId))
         GROUP BY r.project_id`,
-      { type: QueryTypes.SELECT, replacements },
+      { replacements },
     ),
-    sequelize.query<{ id: number; code: string; name: string; client_name: string; kind: "internal" | "external"; currency: string }>(
+    select<{ id: number; code: string; name: string; client_name: string; kind: "internal" | "external"; currency: string }>(
       `SELECT p.id, p.code, p.name, c.name AS client_name, c.kind, c.currency
          FROM projects p JOIN clients c ON c.id = p.client_id WHERE (:clientId IS NULL OR p.client_id = :clientId)`,
-      { type: QueryTypes.SELECT, replacements },
+      { replacements },
     ),
   ]);
 
@@ -158,8 +154,8 @@ export async function usageByProject(query: UsageQuery, scope: { clientId: numbe
   for (const r of runs) {
     const row = rowFor(r.project_id);
     if (!row) continue;
-    row.runs = Number(r.runs);
-    row.injections = Number(r.injections);
+    row.runs = r.runs;
+    row.injections = r.injections;
   }
   for (const [projectId, lines] of linesByProject) {
     const row = rowFor(projectId);

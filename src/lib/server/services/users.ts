@@ -7,6 +7,7 @@ import { invitationMail, resetMail } from "../account-mail";
 import { recordAudit } from "../audit";
 import { lucia } from "../auth/lucia";
 import { issueToken } from "../auth/tokens";
+import { getSequelize } from "../db";
 import { HttpError } from "../http";
 import { sendMail } from "../mail";
 import { User } from "../models/auth";
@@ -88,10 +89,9 @@ async function deliver(mail: Parameters<typeof sendMail>[0]): Promise<boolean> {
 export async function inviteUser(input: InviteUserInput, ctx: ActorContext): Promise<{ user: UserRow; mailSent: boolean }> {
   assertMayTouchAdmin(ctx.actor.role, input.role);
   const clientId = input.role === "client" ? await requireClient(input.clientId) : null;
-  const sequelize = User.sequelize!;
   let created: { user: User; token: string };
   try {
-    created = await inTransaction(sequelize, async (transaction) => {
+    created = await inTransaction(getSequelize(), async (transaction) => {
       const user = await User.create(
         { email: input.email, name: input.name, role: input.role, clientId, passwordHash: null, lastSignInAt: null },
         { transaction },
@@ -149,7 +149,7 @@ export async function updateUser(id: number, input: UpdateUserInput, ctx: ActorC
   const before = { role: user.role, clientId: user.clientId, active: user.active };
   const active = input.active ?? user.active;
 
-  await inTransaction(User.sequelize!, async (transaction) => {
+  await inTransaction(getSequelize(), async (transaction) => {
     await user.update({ role, clientId, active }, { transaction });
     if (before.role !== role || before.clientId !== clientId) {
       await recordAudit(

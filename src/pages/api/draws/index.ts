@@ -1,7 +1,7 @@
 import { drawSchema } from "../../../lib/schemas/runs";
 import { endpoint, requirePermission } from "../../../lib/server/guard";
 import { json, readJson } from "../../../lib/server/http";
-import { logDraw } from "../../../lib/server/services/runs";
+import { logDraw } from "../../../lib/server/services/draws";
 
 /** 201 with the draw; 200 with the same answer when the idempotency key was seen before. */
 export const POST = endpoint(async ({ locals, request, clientAddress }) => {

@@ -2,7 +2,7 @@ import { idParam } from "../../../lib/schemas/fields";
 import { endpoint, requirePermission } from "../../../lib/server/guard";
 import { HttpError, json, validate } from "../../../lib/server/http";
 import { listEntries } from "../../../lib/server/services/ledger";
-import { getRun } from "../../../lib/server/services/runs";
+import { getRun } from "../../../lib/server/services/run-views";
 
 export const GET = endpoint(async ({ locals, params }) => {
   requirePermission(locals, "read:run");

@@ -1,7 +1,8 @@
 import { runListQuery, runSchema } from "../../../lib/schemas/runs";
 import { endpoint, requirePermission } from "../../../lib/server/guard";
 import { json, queryOf, readJson, validate } from "../../../lib/server/http";
-import { listRuns, logRun } from "../../../lib/server/services/runs";
+import { listRuns } from "../../../lib/server/services/run-views";
+import { logRun } from "../../../lib/server/services/runs";
 
 export const GET = endpoint(async ({ locals, url }) => {
   requirePermission(locals, "read:run");

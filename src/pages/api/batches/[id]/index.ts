@@ -1,7 +1,7 @@
 import { idParam } from "../../../../lib/schemas/fields";
 import { endpoint, requirePermission } from "../../../../lib/server/guard";
 import { json, validate } from "../../../../lib/server/http";
-import { getBatch } from "../../../../lib/server/services/preparation";
+import { getBatch } from "../../../../lib/server/services/batches";
 
 export const GET = endpoint(async ({ locals, params }) => {
   requirePermission(locals, "read:batch");

@@ -1,7 +1,7 @@
 import { bottleParams, bottleUpdateSchema } from "../../../../../lib/schemas/preparation";
 import { endpoint, requirePermission } from "../../../../../lib/server/guard";
 import { json, readJson, validate } from "../../../../../lib/server/http";
-import { updateBottle } from "../../../../../lib/server/services/preparation";
+import { updateBottle } from "../../../../../lib/server/services/bottles";
 
 /** Marks one bottle in use, empty or discarded. */
 export const POST = endpoint(async ({ locals, params, request, clientAddress }) => {
