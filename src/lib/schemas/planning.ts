@@ -98,3 +98,6 @@ export const supplySettingSchema = z
   })
   .strict();
 export type SupplySettingInput = z.infer<typeof supplySettingSchema>;
+
+/** `GET /api/planning/variants?methodId=`. */
+export const variantsQuerySchema = z.object({ methodId: id("choose a method") });

@@ -1,6 +1,7 @@
 // Scheduled work of an app instance. Each job takes a database lock (job_locks), so several
 // instances behind a proxy never send the same mail twice.
 import { runExpiryDigest } from "./services/expiry-digest";
+import { runReorderMail } from "./services/planning/reorder-mail";
 import { ensureWasteAlertSchedule } from "./services/waste";
 
 let started = false;
@@ -14,4 +15,9 @@ export function startSchedules() {
     void runExpiryDigest().catch((error) => console.warn(`expiry digest failed: ${error instanceof Error ? error.message : error}`));
   setTimeout(digest, 90_000).unref();
   setInterval(digest, 30 * 60_000).unref();
+  // The weekly list of what to order: checked every 30 minutes, sent once on Monday from 06:00 UTC.
+  const reorder = () =>
+    void runReorderMail().catch((error) => console.warn(`reorder mail failed: ${error instanceof Error ? error.message : error}`));
+  setTimeout(reorder, 120_000).unref();
+  setInterval(reorder, 30 * 60_000).unref();
 }
