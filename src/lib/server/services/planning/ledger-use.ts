@@ -28,13 +28,36 @@ export async function methodLedgerUse(methodId: number, from: Date, to: Date): P
       WHERE r.method_id = :methodId AND r.started_at >= :from AND r.started_at < :to AND ${NOT_REVERSED}`,
     { replacements: { methodId, from, to } },
   );
-  const rows = await select<{ channel: string | null; reagent_id: string; stream: string | null; volume: number; mass: number | null }>(
-    `SELECT le.channel, le.reagent_id, le.waste_stream_id AS stream, SUM(le.volume_ml) AS volume, SUM(le.mass_g) AS mass
+  const grouped = await select<{
+    channel: string | null;
+    batch_id: number | null;
+    reagent_id: string;
+    stream: string | null;
+    volume: number;
+    mass: number | null;
+  }>(
+    `SELECT le.channel, le.batch_id, le.reagent_id, le.waste_stream_id AS stream, SUM(le.volume_ml) AS volume, SUM(le.mass_g) AS mass
        FROM runs r JOIN ledger_entries le ON le.source_id = CONCAT('run:', r.id)
       WHERE r.method_id = :methodId AND r.started_at >= :from AND r.started_at < :to AND le.kind = 'run' AND ${NOT_REVERSED}
-      GROUP BY le.channel, le.reagent_id, le.waste_stream_id`,
+      GROUP BY le.channel, le.batch_id, le.reagent_id, le.waste_stream_id`,
     { replacements: { methodId, from, to } },
   );
+  // Entries written without a channel (older imports, the demo data) take it from the run's batch per channel.
+  const batchChannel = new Map<number, string>();
+  if (grouped.some((g) => g.channel === null)) {
+    const assignments = await select<{ channel_batches: unknown }>(
+      "SELECT DISTINCT r.channel_batches FROM runs r WHERE r.method_id = :methodId AND r.started_at >= :from AND r.started_at < :to",
+      { replacements: { methodId, from, to } },
+    );
+    for (const a of assignments) {
+      const map = (typeof a.channel_batches === "string" ? JSON.parse(a.channel_batches) : a.channel_batches) as Record<
+        string,
+        number | null
+      >;
+      for (const [ch, batch] of Object.entries(map ?? {})) if (typeof batch === "number") batchChannel.set(batch, ch);
+    }
+  }
+  const rows = grouped.map((g) => ({ ...g, channel: g.channel ?? (g.batch_id === null ? null : (batchChannel.get(g.batch_id) ?? null)) }));
   const perChannel: Record<string, number> = {};
   for (const r of rows) if (r.channel) perChannel[r.channel] = (perChannel[r.channel] ?? 0) + Number(r.volume);
   const contents: Record<string, ChannelContent> = {};

@@ -5,7 +5,7 @@ import type { SupplyRow } from "../../../planning/types";
 import { withJobLock } from "../../job-lock";
 import { escapeHtml, publicOrigin, sendMail, type OutgoingMail } from "../../mail";
 import { execute, select, selectOne } from "../../query";
-import { supplyOverview } from "./supply";
+import { settingValue, supplyOverview } from "./supply";
 
 const LAST_SENT_KEY = "digest.reorder.lastSentWeek";
 /** The mail goes out on the first check on a Monday at or after this hour (UTC). */
@@ -51,7 +51,7 @@ export async function runReorderMail(
   if (now.getUTCDay() !== 1 || now.getUTCHours() < REORDER_MAIL_HOUR_UTC) return nothing;
   const outcome = await withJobLock("reorder-mail", 5 * 60_000, async () => {
     const last = await selectOne<{ value: unknown }>("SELECT value FROM settings WHERE `key` = ?", { replacements: [LAST_SENT_KEY] });
-    const lastWeek = typeof last?.value === "string" ? (JSON.parse(last.value) as unknown) : last?.value;
+    const lastWeek = settingValue(last?.value);
     if (lastWeek === week) return nothing;
     const due = (await supplyOverview(now)).filter((r) => r.state !== "ok");
     const managers = await select<{ email: string }>("SELECT email FROM users WHERE role = 'manager' AND active = 1 ORDER BY email");

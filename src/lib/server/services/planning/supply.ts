@@ -21,9 +21,19 @@ const DAY = 86_400_000;
 export const DEFAULT_LEAD_TIME_DAYS = 14;
 const DEFAULT_LEAD_TIME_KEY = "supply.defaultLeadTime_days";
 
+/** A settings value as read raw: the driver hands JSON columns back decoded or as text. */
+export function settingValue(raw: unknown): unknown {
+  if (typeof raw !== "string") return raw;
+  try {
+    return JSON.parse(raw) as unknown;
+  } catch {
+    return raw;
+  }
+}
+
 async function defaultLeadTime(): Promise<number> {
   const row = await selectOne<{ value: unknown }>("SELECT value FROM settings WHERE `key` = ?", { replacements: [DEFAULT_LEAD_TIME_KEY] });
-  const v = typeof row?.value === "string" ? Number(JSON.parse(row.value)) : Number(row?.value);
+  const v = row ? Number(settingValue(row.value)) : Number.NaN;
   return Number.isFinite(v) && v >= 0 ? v : DEFAULT_LEAD_TIME_DAYS;
 }
 
