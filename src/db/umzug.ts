@@ -16,6 +16,7 @@ import * as demoFacility from "./seeders/2026.12.01T00.00.00.demo-facility";
 import * as demoPreparation from "./seeders/2026.12.01T02.00.00.demo-preparation";
 import * as wasteDemo from "./seeders/2026.12.01T05.00.00.waste-demo";
 import * as demoBatchRooms from "./seeders/2026.12.01T11.00.00.demo-batch-rooms";
+import * as demoSupply from "./seeders/2026.12.04T05.10.00.demo-supply";
 
 interface MigrationModule {
   up: RunnableMigration<QueryInterface>["up"];
@@ -44,6 +45,7 @@ export const SEEDERS: Record<string, MigrationModule> = {
   "2026.12.01T02.00.00.demo-preparation.ts": demoPreparation,
   "2026.12.01T05.00.00.waste-demo.ts": wasteDemo,
   "2026.12.01T11.00.00.demo-batch-rooms.ts": demoBatchRooms,
+  "2026.12.04T05.10.00.demo-supply.ts": demoSupply,
 };
 
 function umzugFor(sequelize: Sequelize, modules: Record<string, MigrationModule>, tableName: string) {

@@ -91,12 +91,17 @@ test("a technician proposes a variant, reads its saving, saves it as a method ve
 
 test("the facility view ranks methods by solvent and the supply page flags what to order", async ({ page }) => {
   await signIn(page, "manager@demo.test");
+  // The demo's acetonitrile lasts about four weeks at the ledger's use, its lead time is 35 days (demo settings).
+  await expect(page.getByTestId("running-out")).toContainText("Acetonitrile");
+  await shot(page, "planning-overview");
   await page.goto("/planning");
   const rows = page.getByTestId("facility-methods").locator("tbody tr");
   await expect(rows.first()).toBeVisible();
   await shot(page, "planning-facility");
   await page.goto("/planning/supply");
   // The demo's acetonitrile: 3.4 L of stock and two batches against months of daily runs.
-  await expect(page.getByTestId("supply").locator('tr[data-reagent="acetonitrile"]')).toBeVisible();
+  const acetonitrile = page.getByTestId("supply").locator('tr[data-reagent="acetonitrile"]');
+  await expect(acetonitrile).toHaveAttribute("data-state", "runs-out");
+  await expect(acetonitrile).toContainText("runs out within lead time");
   await shot(page, "planning-supply");
 });

@@ -148,7 +148,7 @@ export function substituteSolvent(input: SubstituteSolventInput): SubstituteSolv
   if (unreachable)
     pushWarning(warnings, {
       code: "strength-unreachable",
-      message: `${toName} cannot match the strength of the strongest points of the program even at 100 % of channel ${channel}: those points are held at the most the channels allow, so late peaks will elute later.`,
+      message: `${toName.charAt(0).toUpperCase()}${toName.slice(1)} cannot match the strength of the strongest points of the program even at 100 % of channel ${channel}: those points are held at the most the channels allow, so late peaks will elute later.`,
     });
   if (extrapolated)
     pushWarning(warnings, {

@@ -36,15 +36,16 @@ function summary(
   program: readonly ProgramPoint[],
   solvents: Record<string, string>,
   blend: Parameters<typeof greennessOf>[3],
-  cost: GreennessSummary["cost100"],
+  ledger100: { cost: GreennessSummary["cost100"]; byStream_mL: Record<string, number> },
 ): GreennessSummary {
   const one = greennessOf(program, 1, solvents, blend);
   const hundred = greennessOf(program, 100, solvents, blend);
   return {
     perInjection_mL: one.solvents_mL,
     per100_mL: hundred.solvents_mL,
-    waste100_mL: hundred.waste_mL,
-    cost100: cost,
+    // Waste by the streams the ledger books this method's reagents to, as the saving counts it.
+    waste100_mL: ledger100.byStream_mL,
+    cost100: ledger100.cost,
     score: { name: one.score.name, value: one.score.value, source: one.score.source, unit: one.score.unit },
     warnings: one.warnings,
   };
@@ -93,8 +94,8 @@ export function evaluate(method: MethodSummary, params: VariantParams, context: 
     warnings: built.warnings,
     prediction: built.prediction,
     greenness: {
-      current: summary(method.program, solvents, null, per100.current.cost),
-      variant: summary(built.program, built.solvents, built.blend, per100.variant.cost),
+      current: summary(method.program, solvents, null, per100.current),
+      variant: summary(built.program, built.solvents, built.blend, per100.variant),
     },
     saving: { ...saving, from: period.from.toISOString().slice(0, 10), to: period.to.toISOString().slice(0, 10), runs: use.runs },
   };

@@ -80,7 +80,7 @@ export async function methodPlanningView(methodId: number, now = new Date()): Pr
   const shown = Object.keys(solvents).length ? solvents : { A: "water", B: organic };
   const g = greennessOf(method.program, 100, shown, null);
   const one = greennessOf(method.program, 1, shown, null);
-  const cost = variantSaving({
+  const ledger100 = variantSaving({
     current: method.program,
     variant: method.program,
     injections: 100,
@@ -89,7 +89,7 @@ export async function methodPlanningView(methodId: number, now = new Date()): Pr
       : Object.fromEntries(Object.entries(shown).map(([ch, r]) => [ch, { mL_per_mL: { [r]: 1 }, g_per_mL: {} }])),
     rates: context.rates,
     streams: context.use.streams,
-  }).current.cost;
+  }).current;
   return {
     method,
     names,
@@ -98,8 +98,8 @@ export async function methodPlanningView(methodId: number, now = new Date()): Pr
     current: {
       perInjection_mL: one.solvents_mL,
       per100_mL: g.solvents_mL,
-      waste100_mL: g.waste_mL,
-      cost100: cost,
+      waste100_mL: ledger100.byStream_mL,
+      cost100: ledger100.cost,
       score: one.score,
       warnings: one.warnings,
     },
