@@ -21,7 +21,6 @@ import type { VariantParams } from "../schemas/planning";
 export interface RetentionPrediction {
   lastPeak_min: number;
   runTime_min: number;
-  /** Retention moved by this factor because the strength relation is only approximate (1 = same). */
 }
 
 export interface BuiltVariant {
@@ -137,7 +136,7 @@ function predict(
   let t0 = scouting.deadTime_min;
   let margin = margin_min;
   if (t) {
-    const f = t.from ? (t.to.length_mm * t.to.diameter_mm ** 2) / (t.from.length_mm * t.from.diameter_mm ** 2) : 1;
+    const f = (t.to.length_mm * t.to.diameter_mm ** 2) / (t.from.length_mm * t.from.diameter_mm ** 2);
     const flow = (t.to.diameter_mm / t.from.diameter_mm) ** 2 * (t.keep === "reduced-velocity" ? t.from.particle_um / t.to.particle_um : 1);
     const timeFactor = f / flow;
     runs = runs.map((r) => ({ ...r, retention_min: r.retention_min * timeFactor }));
