@@ -61,7 +61,8 @@ const add = (to: Record<string, number>, key: string, v: number) => {
   to[key] = (to[key] ?? 0) + v;
 };
 
-function swapped(
+/** What a channel holds once a reagent on it is replaced by a blend (percent adding up to 100). */
+export function swapped(
   content: ChannelContent | undefined,
   swaps: Readonly<Record<string, Readonly<Record<string, number>>>> | undefined,
 ): ChannelContent | undefined {

@@ -50,6 +50,8 @@ export interface MethodVariantSummary {
   methodId: number;
   name: string;
   params: VariantParams;
+  /** The method's program the variant was worked out from. */
+  baseProgram: ProgramPoint[];
   createdAt: string;
   createdBy: string | null;
   /** The method version it became, and where that version stands. */

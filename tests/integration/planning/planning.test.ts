@@ -87,6 +87,11 @@ describe("a variant becomes a method version with someone else's approval", () =
     ]);
     // The kept variant now describes an older program: it cannot be submitted again.
     expect((await listVariants(3))[0]!.stale).toBe(true);
+    // From now on channel B holds methanol: a new proposal starts from it, not from the ledger's acetonitrile.
+    const next = await previewVariant({ methodId: 3, substitution: { from: "methanol", to: "acetonitrile", channel: "B", aqueous: "A" } });
+    expect(next.solvents.B).toBe("methanol");
+    expect(next.saving.current.byReagent_mL.methanol).toBeGreaterThan(0);
+    expect(next.saving.current.byReagent_mL.acetonitrile ?? 0).toBe(0);
     const { id: second } = await createVariant(
       { methodId: 3, substitution: { from: "methanol", to: "acetonitrile", channel: "B", aqueous: "A" } },
       otherTech,

@@ -11,7 +11,7 @@ import type { VariantParams } from "../../../schemas/planning";
 import type { ProgramPoint } from "../../../chem/solvent-use";
 import { HttpError } from "../../http";
 import type { MethodSummary } from "../methods";
-import { mainSolvents, methodLedgerUse, streamOf, todayRates, type MethodLedgerUse } from "./ledger-use";
+import { mainSolvents, methodLedgerUse, streamOf, todayRates, withCurrentSolvents, type MethodLedgerUse } from "./ledger-use";
 
 const YEAR_MS = 365 * 86_400_000;
 
@@ -28,8 +28,8 @@ export interface EvaluationContext {
 
 export async function evaluationContext(methodId: number, now: Date): Promise<EvaluationContext> {
   const period = savingPeriod(now);
-  const [use, rates] = await Promise.all([methodLedgerUse(methodId, period.from, period.to), todayRates(now)]);
-  return { use, rates, period };
+  const [recorded, rates] = await Promise.all([methodLedgerUse(methodId, period.from, period.to), todayRates(now)]);
+  return { use: await withCurrentSolvents(methodId, recorded), rates, period };
 }
 
 function summary(

@@ -4,7 +4,8 @@
  * booked to. Runs whose entries were reversed by a correction do not count.
  */
 import { getReagent } from "../../../chem/reagents";
-import type { ChannelContent, TodayRate } from "../../../planning/savings";
+import { swapped, type ChannelContent, type TodayRate } from "../../../planning/savings";
+import type { VariantParams } from "../../../schemas/planning";
 import { rateInForce } from "../../../billing/rates";
 import { select, selectOne } from "../../query";
 import { loadRates } from "../usage";
@@ -105,4 +106,27 @@ export async function todayRates(now: Date): Promise<Record<string, TodayRate>> 
       out[id] = { unit: rate.unit, amount_minor: rate.amount_minor, currency: rate.currency };
   }
   return out;
+}
+
+/**
+ * The ledger shows what the channels held in past runs; when the method's current version came
+ * from a variant that changed the organic solvent, its channel holds the new solvent from now on.
+ */
+export async function withCurrentSolvents(methodId: number, use: MethodLedgerUse): Promise<MethodLedgerUse> {
+  const current = await selectOne<{ params: unknown; origin: string }>(
+    `SELECT va.params, mv.origin FROM method_versions mv LEFT JOIN method_variants va ON va.id = mv.variant_id
+      WHERE mv.method_id = ? AND mv.approved_at IS NOT NULL ORDER BY mv.version DESC LIMIT 1`,
+    { replacements: [methodId] },
+  );
+  const params = current?.params
+    ? ((typeof current.params === "string" ? JSON.parse(current.params) : current.params) as VariantParams)
+    : null;
+  const s = params?.substitution;
+  if (!s) return use;
+  const blend = typeof s.to === "string" ? { [s.to]: 100 } : (s.to as Record<string, number>);
+  const contents = { ...use.contents };
+  contents[s.channel] = swapped(contents[s.channel] ?? { mL_per_mL: { [s.from]: 1 }, g_per_mL: {} }, { [s.from]: blend })!;
+  const streams = { ...use.streams };
+  for (const r of Object.keys(blend)) if (!streams[r] && streams[s.from]) streams[r] = streams[s.from]!;
+  return { ...use, contents, streams };
 }

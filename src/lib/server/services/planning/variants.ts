@@ -132,6 +132,7 @@ export async function listVariants(
       methodId: r.method_id,
       name: r.name,
       params,
+      baseProgram: parse<ProgramPoint[]>(r.base_program),
       createdAt: iso(r.created_at)!,
       createdBy: r.author,
       version:
