@@ -65,7 +65,16 @@ export function evaluate(method: MethodSummary, params: VariantParams, context: 
   try {
     built = buildVariant(method.program, params, solvents, method.reEquilibration_min);
   } catch (error) {
-    if (error instanceof ChemInputError) throw new HttpError(400, `${error.field ?? "input"}: ${error.message}`);
+    if (error instanceof ChemInputError) {
+      // Name the field as the request spells it: scouting runs and column fields sit under their group.
+      const raw = error.field ?? "input";
+      const field = /^(runs|deadTime)/.test(raw)
+        ? `scouting.${raw}`
+        : /^(from|to)\./.test(raw) && params.transfer
+          ? `transfer.${raw}`
+          : raw;
+      throw new HttpError(400, `${field}: ${error.message.startsWith(raw) ? error.message.slice(raw.length).trim() : error.message}`);
+    }
     throw error;
   }
   const s = params.substitution;
