@@ -8,10 +8,16 @@ import { signIn } from "./support";
 const shots = process.env.PLANNING_SCREENSHOTS;
 async function shot(page: Page, name: string) {
   if (!shots) return;
-  for (const width of [1366, 390]) {
-    await page.setViewportSize({ width, height: 900 });
-    await page.screenshot({ path: `${shots}/${name}-${width}.png`, fullPage: true });
-  }
+  await page.screenshot({ path: `${shots}/${name}-1366.png`, fullPage: true });
+  // The phone width in screen-high pieces, so that each can be read at its own size.
+  await page.setViewportSize({ width: 390, height: 844 });
+  const height = await page.evaluate(() => document.documentElement.scrollHeight);
+  for (let y = 0, n = 1; y < height; y += 1200, n++)
+    await page.screenshot({
+      path: `${shots}/${name}-390-${n}.png`,
+      fullPage: true,
+      clip: { x: 0, y, width: 390, height: Math.min(1200, height - y) },
+    });
   await page.setViewportSize({ width: 1366, height: 900 });
 }
 

@@ -12,7 +12,7 @@ const sum = (r: Record<string, number>) => Object.values(r).reduce((a, v) => a +
 function ProgramTable({ before, after, channel }: { before: ProgramPoint[]; after: ProgramPoint[]; channel: string }) {
   const rows = Math.max(before.length, after.length);
   return (
-    <table className="table text-sm" data-testid="variant-program">
+    <table className="table text-sm [&_td]:whitespace-nowrap" data-testid="variant-program">
       <caption className="sr-only">Program of the method and of the variant</caption>
       <thead>
         <tr>
@@ -58,7 +58,7 @@ export function GreennessTable({ columns, names }: { columns: { label: string; g
   const streams = [...new Set(columns.flatMap((c) => Object.keys(c.g.waste100_mL)))];
   return (
     <div className="overflow-x-auto">
-      <table className="table text-sm" data-testid="greenness">
+      <table className="table text-sm [&_td]:whitespace-nowrap" data-testid="greenness">
         <caption className="sr-only">Greenness per 100 injections</caption>
         <thead>
           <tr>
