@@ -5,7 +5,8 @@ import { QueryTypes } from "sequelize";
 import { describe, expect, it } from "vitest";
 import { solventUse, type ProgramPoint } from "../../../src/lib/chem/solvent-use";
 import type { OutgoingMail } from "../../../src/lib/server/mail";
-import { getMethod } from "../../../src/lib/server/services/methods";
+import { programToRows } from "../../../src/lib/ledger/program";
+import { getMethod, updateMethod } from "../../../src/lib/server/services/methods";
 import { facilityMethods } from "../../../src/lib/server/services/planning/facility";
 import { runReorderMail } from "../../../src/lib/server/services/planning/reorder-mail";
 import { saveSupplySetting, supplyOverview } from "../../../src/lib/server/services/planning/supply";
@@ -103,6 +104,14 @@ describe("a variant becomes a method version with someone else's approval", () =
       type: QueryTypes.SELECT,
     });
     expect(audit.map((a) => a.action)).toEqual(["submit", "approve", "submit", "reject"]);
+    // A direct edit of the program is kept as the next version too, approved by the editor.
+    await updateMethod(3, { name: after.name, description: "", rows: programToRows(before.program), reEquilibration_min: 0 }, manager);
+    expect((await listVersions(3)).map((v) => [v.version, v.origin, v.state, v.current])).toEqual([
+      [4, "edit", "approved", true],
+      [3, "variant", "rejected", false],
+      [2, "variant", "approved", false],
+      [1, "initial", "approved", false],
+    ]);
   });
 
   it("lists the method with the most solvent first, with its best kept variant", async () => {

@@ -4,7 +4,6 @@
  * change: runs logged before keep the volumes they were recorded with. A pending version whose
  * method changed meanwhile cannot be approved.
  */
-import type { Transaction } from "sequelize";
 import { solventUse, type ProgramPoint } from "../../../chem/solvent-use";
 import type { MethodVersionSummary } from "../../../planning/types";
 import { recordAudit } from "../../audit";
@@ -13,18 +12,8 @@ import type { SignedInUser } from "../../guard";
 import { HttpError } from "../../http";
 import { execute, select, selectOne } from "../../query";
 import { inTransaction } from "../sql";
+import { ensureFirstVersion } from "./method-history";
 import { methodOr404, parse, sameProgram, iso } from "./variants";
-import type { MethodSummary } from "../methods";
-
-/** Version 1 for a method that has none yet (methods made before versions, or by the demo data). */
-async function ensureFirstVersion(method: MethodSummary, transaction: Transaction) {
-  await execute(
-    `INSERT INTO method_versions (method_id, version, program, run_time_min, origin, created_at, approved_at)
-     SELECT id, 1, program, run_time_min, 'initial', created_at, created_at FROM methods m
-      WHERE m.id = ? AND NOT EXISTS (SELECT 1 FROM method_versions v WHERE v.method_id = m.id)`,
-    { replacements: [method.id], transaction },
-  );
-}
 
 /** Makes the variant the method's next version, waiting for approval. */
 export async function submitVariant(
@@ -44,7 +33,7 @@ export async function submitVariant(
       "The method's program has changed since this variant was worked out: propose it again from the current program.",
     );
   return inTransaction(getSequelize(), async (transaction) => {
-    await ensureFirstVersion(method, transaction);
+    await ensureFirstVersion(method.id, transaction);
     const taken = await selectOne<{ id: number }>("SELECT id FROM method_versions WHERE variant_id = ?", {
       replacements: [variantId],
       transaction,
