@@ -26,6 +26,8 @@ interface Props {
   /** The organic solvent the ledger shows on channel B (or acetonitrile). */
   organic: Modifier;
   fromColumn: ColumnText;
+  /** The wavelength on the recipes the method ran with, as a starting value. */
+  detection_nm: number | null;
   canSave: boolean;
   names: Names;
 }
@@ -77,7 +79,7 @@ function ColumnFields({
  * column, or both; the server works it out against the ledger (nothing is saved) and it can then
  * be kept as a proposal.
  */
-export default function VariantPlanner({ methodId, program, organic, fromColumn, canSave, names }: Props) {
+export default function VariantPlanner({ methodId, program, organic, fromColumn, detection_nm, canSave, names }: Props) {
   const [swap, setSwap] = useState(true);
   const [to, setTo] = useState<Modifier | "blend">(organic === "acetonitrile" ? "methanol" : "acetonitrile");
   const [blendMeOH, setBlendMeOH] = useState("50");
@@ -86,7 +88,7 @@ export default function VariantPlanner({ methodId, program, organic, fromColumn,
   const [target, setTarget] = useState<ColumnText>({ length_mm: "100", diameter_mm: "2.1", particle_um: "1.8", dwell_mL: "0.4" });
   const [keep, setKeep] = useState<"linear-velocity" | "reduced-velocity">("linear-velocity");
   const [injection, setInjection] = useState("10");
-  const [detection, setDetection] = useState("");
+  const [detection, setDetection] = useState(detection_nm === null ? "" : String(detection_nm));
   const [runs, setRuns] = useState([
     { percentB: "", retention_min: "" },
     { percentB: "", retention_min: "" },
@@ -220,7 +222,9 @@ export default function VariantPlanner({ methodId, program, organic, fromColumn,
           </div>
         )}
         <details>
-          <summary className="cursor-pointer text-sm">Detection wavelength and scouting runs (optional)</summary>
+          <summary className="cursor-pointer text-sm">
+            Detection wavelength{detection_nm !== null ? ` (${detection_nm} nm on the method's recipes)` : ""} and scouting runs (optional)
+          </summary>
           <div className="mt-3 flex flex-wrap items-end gap-3">
             <label className="field">
               <span>Detection wavelength, nm</span>

@@ -7,7 +7,7 @@ import type { OrganicModifier } from "../../../chem/substitution";
 import { variantSaving } from "../../../planning/savings";
 import type { FacilityMethodRow, GreennessSummary, MethodVariantSummary, MethodVersionSummary } from "../../../planning/types";
 import { greennessOf } from "../../../planning/variant";
-import { select } from "../../query";
+import { select, selectOne } from "../../query";
 import { getMethod, listMethods, type MethodSummary } from "../methods";
 import { listVariants } from "./variants";
 import { mainSolvents, methodLedgerUse } from "./ledger-use";
@@ -64,6 +64,8 @@ export interface MethodPlanningView {
   organic: OrganicModifier;
   current: GreennessSummary;
   ledger: { runs: number; injections: number; from: string; to: string };
+  /** The detection wavelength written on the recipes of the batches the method ran on (most runs first), if any. */
+  detection_nm: number | null;
   variants: MethodVariantSummary[];
   versions: MethodVersionSummary[];
 }
@@ -73,7 +75,19 @@ export async function methodPlanningView(methodId: number, now = new Date()): Pr
   const method = await getMethod(methodId);
   if (!method) return null;
   const context = await evaluationContext(methodId, now);
-  const [names, variants, versions] = await Promise.all([planningNames(), listVariants(methodId, now), listVersions(methodId)]);
+  const [names, variants, versions, detection] = await Promise.all([
+    planningNames(),
+    listVariants(methodId, now),
+    listVersions(methodId),
+    selectOne<{ detection_nm: number }>(
+      `SELECT rv.detection_nm, COUNT(DISTINCT r.id) AS runs
+         FROM runs r JOIN ledger_entries le ON le.source_id = CONCAT('run:', r.id)
+         JOIN batches b ON b.id = le.batch_id JOIN recipe_versions rv ON rv.id = b.recipe_version_id
+        WHERE r.method_id = :methodId AND r.started_at >= :from AND r.started_at < :to AND rv.detection_nm IS NOT NULL
+        GROUP BY rv.detection_nm ORDER BY runs DESC, rv.detection_nm LIMIT 1`,
+      { replacements: { methodId, from: context.period.from, to: context.period.to } },
+    ),
+  ]);
   const solvents = mainSolvents(context.use.contents);
   const b = solvents.B;
   const organic: OrganicModifier = b === "methanol" || b === "tetrahydrofuran" ? b : "acetonitrile";
@@ -109,6 +123,7 @@ export async function methodPlanningView(methodId: number, now = new Date()): Pr
       from: context.period.from.toISOString().slice(0, 10),
       to: context.period.to.toISOString().slice(0, 10),
     },
+    detection_nm: detection ? Number(detection.detection_nm) : null,
     variants,
     versions,
   };
