@@ -44,11 +44,19 @@ test("a technician proposes a variant, reads its saving, saves it as a method ve
   // Methanol instead of acetonitrile, and the method moved from 150 × 4.6 mm, 5 µm to 100 × 2.1 mm, 1.8 µm.
   await page.getByLabel("New organic solvent").selectOption("methanol");
   await page.getByLabel("Move the method to another column").check();
+  // Two isocratic scouting runs in acetonitrile (log kw 2.6, S 4, t0 1 min, as in what-if.spec.ts).
+  await page.getByText(/Detection wavelength.*scouting runs/).click();
+  await page.getByLabel("Dead time, min").fill("1");
+  await page.getByLabel("Run 1: %B").fill("40");
+  await page.getByLabel("Run 1: last peak, min").fill("11");
+  await page.getByLabel("Run 2: %B").fill("50");
+  await page.getByLabel("Run 2: last peak, min").fill("4.98107");
   await page.getByRole("button", { name: "Work it out" }).click();
   const preview = page.getByTestId("preview");
   await expect(preview.getByTestId("saving-total")).toBeVisible();
   await expect(preview.getByTestId("variant-warnings")).toContainText("changes selectivity");
   await expect(preview.getByTestId("variant-warnings")).toContainText("most viscous near 40–50 % methanol");
+  await expect(preview.getByTestId("prediction")).toContainText("Last peak (LSS model from the scouting runs)");
   await shot(page, "planning-preview");
 
   // The saving is the difference of solventUse at the injections the ledger records (shown on screen).

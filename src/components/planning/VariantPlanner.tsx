@@ -252,7 +252,7 @@ export default function VariantPlanner({ methodId, program, organic, fromColumn,
                   />
                 </label>
                 <label className="field">
-                  <span>last peak, min</span>
+                  <span>Run {i + 1}: last peak, min</span>
                   <input
                     className="input w-24"
                     inputMode="decimal"

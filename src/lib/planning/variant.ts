@@ -112,7 +112,8 @@ function predict(
       dwell_mL: dwell,
     });
     const last = r.gradient ?? r.isocratic;
-    notes.push(...r.warnings);
+    // The what-if also reports on its isocratic scenario at the first point's %B; only the gradient's notes concern this method.
+    notes.push(...r.warnings.filter((w) => !(r.gradient && /target %B|^k = /.test(w))));
     return { lastPeak_min: last.retention_min, runTime_min: Math.max(last.runTime_min, program[program.length - 1]?.time_min ?? 0) };
   };
   const t = params.transfer;
