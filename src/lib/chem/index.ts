@@ -25,3 +25,16 @@ export { WARNING_CODES, ERROR_CODES, ChemInputError } from "./warnings";
 export type { ChemWarning, WarningCode, ChemErrorCode } from "./warnings";
 export { SOURCES } from "./sources";
 export type { Source, SourceKey, Confidence } from "./sources";
+export {
+  substituteSolvent,
+  fromMethanolEquivalent,
+  toMethanolEquivalent,
+  lssStrengthRatio,
+  ORGANIC_MODIFIERS,
+  SOLVENT_STRENGTH,
+} from "./substitution";
+export type { SubstituteSolventInput, SubstituteSolventResult, OrganicModifier, ModifierBlend } from "./substitution";
+export { transferMethod, columnVolume_mL } from "./column-transfer";
+export type { TransferMethodInput, TransferMethodResult, ColumnGeometry, TransferKeep } from "./column-transfer";
+export { methodGreenness, EHS_INDICES, HPLC_EAT } from "./greenness";
+export type { MethodGreennessInput, MethodGreennessResult } from "./greenness";

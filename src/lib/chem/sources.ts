@@ -82,6 +82,41 @@ export const SOURCES = {
   CLH21: { citation: "Formic acid CLH consultation report (2021); Annex VI entry H314", confidence: "C" },
   SDG79: { citation: "Snyder, Dolan, Gant, J. Chromatogr. 165, 3 (1979), linear-solvent-strength model", confidence: "M" },
   SD07: { citation: "Snyder, Dolan, High-Performance Gradient Elution, Wiley (2007)", confidence: "M" },
+  SBG81: {
+    citation:
+      "Schoenmakers, Billiet, de Galan, J. Chromatogr. 205, 13 (1981): iso-eluotropic binary mixtures, phi(ACN) = 0.32 phi(MeOH)^2 + 0.57 phi(MeOH), phi(THF) = 0.66 phi(MeOH); ternary mixes of iso-eluotropic binaries are about iso-eluotropic",
+    confidence: "M",
+  },
+  Snyder79S: {
+    citation:
+      "Snyder, Dolan, Gant, J. Chromatogr. 165, 3 (1979) and SKD10 ch. 6: reversed-phase solvent strength S of water 0, methanol 3.0, acetonitrile 3.2, tetrahydrofuran 4.4",
+    confidence: "M",
+  },
+  USP621: {
+    citation:
+      "USP <621> Chromatography (harmonised, 1 Dec 2022), allowed adjustments: F2 = F1 (dc2^2 dp1)/(dc1^2 dp2); tG2 = tG1 (F1/F2)(L2 dc2^2)/(L1 dc1^2); Vinj2 = Vinj1 (L2 dc2^2)/(L1 dc1^2); L/dp within -25 % to +50 %",
+    confidence: "M",
+  },
+  Dolan14: {
+    citation:
+      "Dolan, LC Method Scaling, Part II: Gradient Separations, LCGC North Am. 32(3), 188 (2014): keep the gradient volume in column volumes, the dwell volume in column volumes, and N by L/dp",
+    confidence: "C",
+  },
+  Gaber11: {
+    citation:
+      "Gaber, Tornvall, Kumar, Ali Amin, Hatti-Kaul, Green Chem. 13, 2021 (2011), HPLC-EAT: sum over solvents of (S + H + E) x mass in g per analysis",
+    confidence: "M",
+  },
+  EHS00: {
+    citation:
+      "Koller, Fischer, Hungerbuehler, Ind. Eng. Chem. Res. 39, 960 (2000), EHS method indices (safety, health, environment) as used by HPLC-EAT; values seen as transcribed in a public HPLC-EAT calculator's solvent table (not in the paper)",
+    confidence: "C",
+  },
+  SC04: {
+    citation:
+      "Schellinger, Carr, LCGC North Am. 22, 544 (2004), solubility of buffers in aqueous-organic eluents: phosphate precipitates near 80 % methanol, 70 % acetonitrile, 60 % tetrahydrofuran",
+    confidence: "M",
+  },
   CPwaste: { citation: "Common practice for laboratory waste segregation; follow local rules", confidence: "CP" },
   CPms: { citation: "Common practice: non-volatile buffers foul mass-spectrometer sources", confidence: "CP" },
 } as const satisfies Record<string, Source>;

@@ -29,6 +29,26 @@ export const WARNING_CODES = [
   "temperature-out-of-range",
   /** No density for a liquid reagent: only its mass can be given. */
   "no-density-data",
+  /** Another organic modifier or column: peak spacing and order may change (re-check system suitability). */
+  "selectivity-change",
+  /** A mix near its viscosity maximum (methanol–water near 40–50 %): higher back-pressure. */
+  "viscosity-maximum",
+  /** Solvents or a buffered phase that may not mix or may separate. */
+  "miscibility",
+  /** The new solvent cannot reach the eluent strength of the old at this composition. */
+  "strength-unreachable",
+  /** A conversion or a model used beyond the range it was published for. */
+  "relation-extrapolated",
+  /** Plate number (L/dp) changes: resolution will change. */
+  "resolution-change",
+  /** Dwell volume differs, in column volumes: a hold or a delayed injection keeps the gradient's timing. */
+  "dwell-correction",
+  /** Back-pressure rises: check it against the column's and the system's limits. */
+  "pressure-increase",
+  /** A channel without a named reagent: its solvent and waste cannot be named. */
+  "unnamed-channel",
+  /** Material compatibility or stability of a solvent (e.g. THF and PEEK, peroxides). */
+  "solvent-handling",
 ] as const;
 
 export type WarningCode = (typeof WARNING_CODES)[number];
