@@ -3,6 +3,7 @@ import { useEffect, useMemo, useRef, useState } from "react";
 import { ChemInputError } from "../../lib/chem/warnings";
 import { findDeviations, type Tolerances } from "../../lib/preparation/deviations";
 import { batchExpiry, lotExpired, type ExpiryRule } from "../../lib/preparation/expiry";
+import { assayNote, assayUsed, lotChemistry } from "../../lib/preparation/lot-assays";
 import { preparationPlan, type PreparationPlan } from "../../lib/preparation/plan";
 import type { BatchCreateInput } from "../../lib/schemas/preparation";
 import type { PreparableRecipe } from "../../lib/server/services/recipes";
@@ -22,6 +23,9 @@ export interface FormLot {
   remaining: number;
   unit: "mL" | "g";
   low: boolean;
+  /** % w/w from the certificate; null when not recorded (the catalogue's typical value is used). */
+  assayPercent: number | null;
+  density_g_mL: number | null;
 }
 
 interface Props {
@@ -90,6 +94,9 @@ export default function PreparationForm({ recipes, lots, tolerances, expiryRules
   const measuredPH = watch("measuredPH");
   const chosenLots = watch("components");
   const recipe = recipes.find((r) => r.versionId === versionId);
+  // The lots picked, matched to their lines: their assays set the amounts to weigh.
+  const pickedLots = (chosenLots ?? []).map((c) => lots.find((l) => l.id === Number(c.stockLotId) && l.reagent === c.reagent));
+  const lotKey = pickedLots.map((l) => (l ? `${l.id}:${l.assayPercent ?? ""}:${l.density_g_mL ?? ""}` : "")).join(",");
 
   // The amounts, computed in the browser as the user types: no round trip.
   const computed = useMemo((): { plan: PreparationPlan | null; error: string | null } => {
@@ -102,13 +109,16 @@ export default function PreparationForm({ recipes, lots, tolerances, expiryRules
           volume_mL: volume,
           temperature_C: Number.isFinite(temperature) ? temperature : 22,
           detection_nm: recipe.detection_nm,
+          ...lotChemistry(pickedLots),
         }),
         error: null,
       };
     } catch (error) {
       return { plan: null, error: error instanceof ChemInputError ? error.message : "These numbers cannot be computed." };
     }
-  }, [recipe, volume, temperature]);
+    // pickedLots is summed up by lotKey.
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+  }, [recipe, volume, temperature, lotKey]);
   const plan = computed.plan;
 
   const rowKey = (i: number) => `${versionId}:${i}`;
@@ -359,6 +369,20 @@ export default function PreparationForm({ recipes, lots, tolerances, expiryRules
                             })}
                           </select>
                           {options.length === 0 && <p className="field-error">No lot of {c.name} is recorded: add it under Stock lots.</p>}
+                          {(() => {
+                            const lot = pickedLots[i];
+                            const note = lot ? assayNote(assayUsed(c.reagent, c.role, lot)) : null;
+                            return note ? (
+                              <p
+                                className={
+                                  lot?.assayPercent === null ? "text-xs text-[var(--color-amber)]" : "text-xs text-[var(--color-muted)]"
+                                }
+                                data-testid={`assay-${c.reagent}`}
+                              >
+                                {note}
+                              </p>
+                            ) : null;
+                          })()}
                           {lotError && (
                             <p className="field-error" role="alert">
                               {lotError === "Pick the lot used" || lotError.startsWith("Expected") ? "Pick the lot used" : lotError}

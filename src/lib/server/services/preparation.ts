@@ -12,6 +12,7 @@ import type { LabelContent } from "../../labels/layout";
 import { batchCodeBase, nextBatchCode } from "../../preparation/batch-code";
 import { findDeviations, type Deviation } from "../../preparation/deviations";
 import { batchExpiry, lotExpired } from "../../preparation/expiry";
+import { assayUsed, lotChemistry, type AssayUsed } from "../../preparation/lot-assays";
 import { componentShares, describeSpec, preparationPlan, type PlannedComponent } from "../../preparation/plan";
 import { recipeSpecSchema, type RecipeSpec } from "../../schemas/recipes";
 import type { BatchCreateInput } from "../../schemas/preparation";
@@ -36,6 +37,8 @@ export interface BatchComponentDetail {
   actual: number | null;
   stockLotId: number | null;
   lotNumber: string | null;
+  /** The assay the target was computed with (null for solvents and batches recorded before assays were kept). */
+  assay: AssayUsed | null;
 }
 
 export interface BatchDetail {
@@ -151,6 +154,24 @@ export async function recordBatch(
   if (!version.approved)
     throw new HttpError(409, `recipeVersionId: ${version.code} v${version.version} is not approved yet; a manager approves it first`);
 
+  // The lots come first: their assays set the amounts to weigh.
+  const lots = await getStockLots(
+    input.components.map((c) => c.stockLotId),
+    now,
+  );
+  const picked = input.components.map((c) => {
+    const lot = lots.get(c.stockLotId);
+    return lot && lot.reagent === c.reagent ? lot : undefined;
+  });
+  picked.forEach((lot, i) => {
+    const other = picked.findIndex(
+      (l) => l !== undefined && lot !== undefined && l.reagent === lot.reagent && l.assayPercent !== lot.assayPercent,
+    );
+    if (lot && other >= 0 && other < i) {
+      const message = `Use one lot of ${lot.reagentName} for the batch, or lots with the same assay: its assay sets the amounts`;
+      throw new HttpError(400, `components.${i}.stockLotId: ${message}`, { fields: { [`components.${i}.stockLotId`]: message } });
+    }
+  });
   let plan;
   try {
     plan = preparationPlan({
@@ -158,17 +179,13 @@ export async function recordBatch(
       volume_mL: input.volume_mL,
       temperature_C: input.temperature_C,
       detection_nm: version.detection_nm,
+      ...lotChemistry(picked),
     });
   } catch (error) {
     if (error instanceof ChemInputError) throw new HttpError(400, `${error.field ?? "recipe"}: ${error.message}`);
     throw error;
   }
   const pairs = pairComponents(plan.components, input.components);
-
-  const lots = await getStockLots(
-    pairs.map((p) => p.given.stockLotId),
-    now,
-  );
   for (const { planned, given, index } of pairs) {
     const field = `components.${index}.stockLotId`;
     const lot = lots.get(given.stockLotId);
@@ -268,8 +285,9 @@ export async function recordBatch(
       const ledger: NewLedgerEntry[] = [];
       for (const { planned, given } of pairs) {
         const actual = given.actualAmount ?? planned.target;
+        const assay = assayUsed(planned.reagent, planned.role, lots.get(given.stockLotId));
         await sql().query(
-          "INSERT INTO batch_components (batch_id, reagent_id, stock_lot_id, role, unit, target_amount, actual_amount) VALUES (?, ?, ?, ?, ?, ?, ?)",
+          "INSERT INTO batch_components (batch_id, reagent_id, stock_lot_id, role, unit, target_amount, actual_amount, assay_percent, assay_source) VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?)",
           {
             replacements: [
               batchId,
@@ -279,6 +297,8 @@ export async function recordBatch(
               planned.unit,
               planned.target.toFixed(5),
               given.actualAmount == null ? null : given.actualAmount.toFixed(5),
+              assay ? assay.percent.toFixed(3) : null,
+              assay?.source ?? null,
             ],
             transaction,
           },
@@ -440,8 +460,10 @@ export async function getBatch(id: number, now = new Date()): Promise<BatchDetai
     actual_amount: string | null;
     stock_lot_id: number | null;
     lot_number: string | null;
+    assay_percent: string | number | null;
+    assay_source: AssayUsed["source"] | null;
   }>(
-    `SELECT c.reagent_id, c.role, c.unit, c.target_amount, c.actual_amount, c.stock_lot_id, l.lot_number
+    `SELECT c.reagent_id, c.role, c.unit, c.target_amount, c.actual_amount, c.stock_lot_id, l.lot_number, c.assay_percent, c.assay_source
        FROM batch_components c LEFT JOIN stock_lots l ON l.id = c.stock_lot_id WHERE c.batch_id = ? ORDER BY c.id`,
     { type: QueryTypes.SELECT, replacements: [id] },
   );
@@ -492,6 +514,7 @@ export async function getBatch(id: number, now = new Date()): Promise<BatchDetai
       actual: num(c.actual_amount),
       stockLotId: c.stock_lot_id,
       lotNumber: c.lot_number,
+      assay: c.assay_source === null || c.assay_percent === null ? null : { percent: Number(c.assay_percent), source: c.assay_source },
     })),
     bottleList: bottles.map((b) => ({ number: b.number, status: b.status, discarded_mL: num(b.discarded_ml) })),
   };

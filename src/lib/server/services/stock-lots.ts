@@ -28,6 +28,10 @@ export interface StockLotSummary {
   quantity: number;
   remaining: number;
   room: string | null;
+  /** Assay from the certificate, % w/w; null when not recorded (the catalogue's typical value applies). */
+  assayPercent: number | null;
+  /** Density at 20 °C from the certificate (solutions), g/mL. */
+  density_g_mL: number | null;
   hasCertificate: boolean;
   certificateName: string | null;
   expired: boolean;
@@ -47,6 +51,8 @@ interface LotRow {
   quantity: string;
   remaining: string;
   room: string | null;
+  assay_percent: number | string | null;
+  density_g_ml: number | string | null;
   certificate_path: string | null;
   certificate_name: string | null;
   reorder_level: string | null;
@@ -77,6 +83,8 @@ function summarise(row: LotRow, now: Date): StockLotSummary {
     quantity,
     remaining,
     room: row.room,
+    assayPercent: row.assay_percent === null ? null : Number(row.assay_percent),
+    density_g_mL: row.density_g_ml === null ? null : Number(row.density_g_ml),
     hasCertificate: row.certificate_path !== null,
     certificateName: row.certificate_name,
     expired,
@@ -86,7 +94,7 @@ function summarise(row: LotRow, now: Date): StockLotSummary {
 }
 
 const SELECT = `SELECT l.id, l.reagent_id, l.lot_number, l.supplier, l.grade, l.received_on, l.opened_on, l.expires_on, l.quantity, l.remaining, l.room,
-                       l.certificate_path, l.certificate_name, r.reorder_level, r.unit
+                       l.assay_percent, l.density_g_ml, l.certificate_path, l.certificate_name, r.reorder_level, r.unit
                   FROM stock_lots l LEFT JOIN reagents r ON r.id = l.reagent_id`;
 
 export async function listStockLots(
@@ -136,8 +144,8 @@ export async function createStockLot(
       await ensureCatalogueRows([input.reagent], transaction);
       await sequelize.query(
         `INSERT INTO stock_lots (reagent_id, lot_number, supplier, grade, received_on, opened_on, expires_on, quantity, remaining, room,
-                                 certificate_path, certificate_name, certificate_type, certificate_size, created_by, created_at, updated_at)
-         VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, NOW(3), NOW(3))`,
+                                 assay_percent, density_g_ml, certificate_path, certificate_name, certificate_type, certificate_size, created_by, created_at, updated_at)
+         VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, NOW(3), NOW(3))`,
         {
           transaction,
           replacements: [
@@ -151,6 +159,8 @@ export async function createStockLot(
             input.quantity,
             input.remaining ?? input.quantity,
             input.room ?? null,
+            input.assayPercent ?? null,
+            input.density_g_mL ?? null,
             stored?.key ?? null,
             certificate ? certificate.name.slice(0, 255) : null,
             stored?.mime ?? null,
