@@ -2,7 +2,7 @@ import { describe, expect, it } from "vitest";
 import { mobilePhasePHReport } from "../../../src/lib/preparation/mobile-phase-ph";
 import type { RecipeSpec } from "../../../src/lib/schemas/recipes";
 
-const base = { additives: [], labile: false } as const;
+const base: Pick<RecipeSpec, "additives" | "labile"> = { additives: [], labile: false };
 
 describe("the pH of a recipe's mobile phase on the recipe and batch pages", () => {
   it("a 20 mM acetate buffer at pH 4.76 with 30 % acetonitrile: w_w pH is the target, s_s and s_w above it", () => {
