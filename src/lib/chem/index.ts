@@ -12,6 +12,9 @@ export type { SolutionPHInput, SolutionPHResult, SpeciesConcentration, Component
 export { designBuffer } from "./buffer";
 export type { DesignBufferInput, DesignBufferResult, BufferComponent, BufferBasis } from "./buffer";
 export { mixMobilePhase } from "./mixing";
+export { mobilePhasePH, mobilePhaseLimits, aqueousPHLimits } from "./hydro-organic";
+export type { MobilePhasePHInput, MobilePhasePHResult, MixedPKa } from "./hydro-organic";
+export type { Purities, LotDensities } from "./lot-assay";
 export type { MixMobilePhaseInput, MixMobilePhaseResult, MixComponent, SolventShare } from "./mixing";
 export { ADDITIVE_UNITS } from "./additive-units";
 export type { AdditiveUnit } from "./additive-units";

@@ -25,8 +25,6 @@ export const WARNING_CODES = [
   "contraction-estimated",
   /** No published viscosity table for this mix at this temperature. */
   "no-viscosity-data",
-  /** Temperature outside the range of the activity and pKa data (0–50 °C). */
-  "temperature-out-of-range",
   /** No density for a liquid reagent: only its mass can be given. */
   "no-density-data",
   /** Another organic modifier or column: peak spacing and order may change (re-check system suitability). */
@@ -49,6 +47,14 @@ export const WARNING_CODES = [
   "unnamed-channel",
   /** Material compatibility or stability of a solvent (e.g. THF and PEEK, peroxides). */
   "solvent-handling",
+  /** The lot's assay differs from the catalogue's product but no density is recorded for it: the volume uses the catalogue's. */
+  "lot-density-assumed",
+  /** No published pH-shift data for this organic solvent or this buffer: only the aqueous pH is given. */
+  "no-organic-data",
+  /** The organic fraction is beyond the range of the pH-shift data: the mixed-solvent pH is not given. */
+  "organic-beyond-data",
+  /** The pH-shift data are for 25 °C; the mix is at another temperature. */
+  "organic-data-temperature",
 ] as const;
 
 export type WarningCode = (typeof WARNING_CODES)[number];
@@ -93,7 +99,11 @@ export function pushWarning(list: ChemWarning[], warning: ChemWarning): void {
   list.push(warning);
 }
 
-export function requireFinite(value: number, field: string, { min, positive }: { min?: number; positive?: boolean } = {}): void {
+export function requireFinite(
+  value: number,
+  field: string,
+  { min, max, positive }: { min?: number; max?: number; positive?: boolean } = {},
+): void {
   if (typeof value !== "number" || !Number.isFinite(value)) {
     throw new ChemInputError("invalid-input", `${field} must be a finite number.`, field);
   }
@@ -102,6 +112,9 @@ export function requireFinite(value: number, field: string, { min, positive }: {
   }
   if (min !== undefined && value < min) {
     throw new ChemInputError("invalid-input", `${field} must be at least ${min}.`, field);
+  }
+  if (max !== undefined && value > max) {
+    throw new ChemInputError("invalid-input", `${field} must be at most ${max}.`, field);
   }
 }
 
