@@ -11,6 +11,7 @@ import * as ledgerDaily from "./migrations/2026.12.01T09.00.00.ledger-daily";
 import * as ledgerSourceIndex from "./migrations/2026.12.01T09.10.00.ledger-source-index";
 import * as batchRoom from "./migrations/2026.12.01T11.00.00.batch-room";
 import * as dropLedgerSourceKindIndex from "./migrations/2026.12.02T03.00.00.drop-ledger-source-kind-index";
+import * as signInSecurity from "./migrations/2026.12.04T03.00.00.sign-in-security";
 import * as demoFacility from "./seeders/2026.12.01T00.00.00.demo-facility";
 import * as demoPreparation from "./seeders/2026.12.01T02.00.00.demo-preparation";
 import * as wasteDemo from "./seeders/2026.12.01T05.00.00.waste-demo";
@@ -35,6 +36,7 @@ export const MIGRATIONS: Record<string, MigrationModule> = {
   "2026.12.01T09.10.00.ledger-source-index.ts": ledgerSourceIndex,
   "2026.12.01T11.00.00.batch-room.ts": batchRoom,
   "2026.12.02T03.00.00.drop-ledger-source-kind-index.ts": dropLedgerSourceKindIndex,
+  "2026.12.04T03.00.00.sign-in-security.ts": signInSecurity,
 };
 
 export const SEEDERS: Record<string, MigrationModule> = {
