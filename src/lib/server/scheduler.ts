@@ -1,5 +1,6 @@
 // Scheduled work of an app instance. Each job takes a database lock (job_locks), so several
 // instances behind a proxy never send the same mail twice.
+import { pruneSignInRecords } from "./auth/prune";
 import { runExpiryDigest } from "./services/expiry-digest";
 import { ensureWasteAlertSchedule } from "./services/waste";
 
@@ -14,4 +15,9 @@ export function startSchedules() {
     void runExpiryDigest().catch((error) => console.warn(`expiry digest failed: ${error instanceof Error ? error.message : error}`));
   setTimeout(digest, 90_000).unref();
   setInterval(digest, 30 * 60_000).unref();
+  const prune = () =>
+    void pruneSignInRecords().catch((error) =>
+      console.warn(`sign-in records prune failed: ${error instanceof Error ? error.message : error}`),
+    );
+  setInterval(prune, 60 * 60_000).unref();
 }
