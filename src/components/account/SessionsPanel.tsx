@@ -65,7 +65,7 @@ export default function SessionsPanel({ sessions: initial, timeZone }: { session
                 <td>
                   <button
                     type="button"
-                    className="btn-quiet btn"
+                    className="btn-quiet btn whitespace-nowrap"
                     onClick={() =>
                       void act(async () => {
                         await send(`/api/account/sessions/${s.handle}`);

@@ -68,7 +68,7 @@ export default function TwoFactorPanel({ view, timeZone }: { view: TwoFactorView
       {codes && (
         <div className="notice border-l-[var(--color-ok)] bg-[var(--color-ok-wash)]" role="status">
           <p className="mb-2">New recovery codes; the earlier ones no longer work. They are shown only now:</p>
-          <ol className="grid grid-cols-2 gap-x-6 font-mono" data-testid="recovery-codes">
+          <ol className="grid gap-x-6 whitespace-nowrap font-mono sm:grid-cols-2" data-testid="recovery-codes">
             {codes.map((c) => (
               <li key={c}>{c}</li>
             ))}

@@ -69,7 +69,7 @@ export default function TwoFactorSetup({ mode, next = "/home" }: Props) {
           keep them where only you can reach them (a password manager, or printed and locked away). Anyone with one of them and your
           password can sign in as you.
         </p>
-        <ol className="grid grid-cols-2 gap-x-6 gap-y-1 font-mono text-sm" data-testid="recovery-codes">
+        <ol className="grid gap-x-6 gap-y-1 whitespace-nowrap font-mono text-sm sm:grid-cols-2" data-testid="recovery-codes">
           {codes.map((c) => (
             <li key={c}>{c}</li>
           ))}
