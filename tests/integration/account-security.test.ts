@@ -143,6 +143,19 @@ describe("two-factor sign-in over HTTP", () => {
     expect(plain.body.next).toBeNull();
   });
 
+  it("an administrator can reset a person's two-factor (lost phone and codes): it is off and their sessions end", async () => {
+    const email = await newMember("lostphone");
+    const c = await client(email, PASSWORD);
+    const key = (await send(c, "POST", "/api/auth/two-factor/setup", { password: PASSWORD })).body as NewKey;
+    expect((await send(c, "POST", "/api/auth/two-factor/confirm", { code: codeNow(key.secret) })).status).toBe(200);
+    const listed = (await send(admin, "GET", "/api/users")).body as { items: { id: number; email: string; twoFactor: boolean }[] };
+    const row = listed.items.find((u) => u.email === email)!;
+    expect(row.twoFactor).toBe(true);
+    expect((await send(admin, "DELETE", `/api/users/${row.id}/two-factor`)).body).toEqual({ wasOn: true });
+    expect(await me(c)).toBe(401);
+    expect((await send(await client(), "POST", "/api/auth/sign-in", { email, password: PASSWORD })).body.next).toBeNull();
+  });
+
   it("a code step without a password step behind it answers 401", async () => {
     expect((await send(await client(), "POST", "/api/auth/two-factor", { code: "123456" })).status).toBe(401);
     expect((await send(await client(), "POST", "/api/auth/two-factor/confirm", { code: "123456" })).status).toBe(401);
