@@ -14,6 +14,7 @@ import * as dropLedgerSourceKindIndex from "./migrations/2026.12.02T03.00.00.dro
 import * as idempotencyKeyScope from "./migrations/2026.12.04T02.00.00.idempotency-key-scope";
 import * as planning from "./migrations/2026.12.04T05.00.00.planning";
 import * as lotAssay from "./migrations/2026.12.04T04.00.00.lot-assay";
+import * as signInSecurity from "./migrations/2026.12.04T03.00.00.sign-in-security";
 import * as demoFacility from "./seeders/2026.12.01T00.00.00.demo-facility";
 import * as demoPreparation from "./seeders/2026.12.01T02.00.00.demo-preparation";
 import * as wasteDemo from "./seeders/2026.12.01T05.00.00.waste-demo";
@@ -43,6 +44,7 @@ export const MIGRATIONS: Record<string, MigrationModule> = {
   "2026.12.04T02.00.00.idempotency-key-scope.ts": idempotencyKeyScope,
   "2026.12.04T05.00.00.planning.ts": planning,
   "2026.12.04T04.00.00.lot-assay.ts": lotAssay,
+  "2026.12.04T03.00.00.sign-in-security.ts": signInSecurity,
 };
 
 export const SEEDERS: Record<string, MigrationModule> = {
