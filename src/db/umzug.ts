@@ -12,10 +12,12 @@ import * as ledgerSourceIndex from "./migrations/2026.12.01T09.10.00.ledger-sour
 import * as batchRoom from "./migrations/2026.12.01T11.00.00.batch-room";
 import * as dropLedgerSourceKindIndex from "./migrations/2026.12.02T03.00.00.drop-ledger-source-kind-index";
 import * as idempotencyKeyScope from "./migrations/2026.12.04T02.00.00.idempotency-key-scope";
+import * as ledgerDailyLocalDays from "./migrations/2026.12.04T08.00.00.ledger-daily-local-days";
 import * as demoFacility from "./seeders/2026.12.01T00.00.00.demo-facility";
 import * as demoPreparation from "./seeders/2026.12.01T02.00.00.demo-preparation";
 import * as wasteDemo from "./seeders/2026.12.01T05.00.00.waste-demo";
 import * as demoBatchRooms from "./seeders/2026.12.01T11.00.00.demo-batch-rooms";
+import * as demoFacilityZone from "./seeders/2026.12.04T08.00.00.demo-facility-zone";
 
 interface MigrationModule {
   up: RunnableMigration<QueryInterface>["up"];
@@ -37,6 +39,7 @@ export const MIGRATIONS: Record<string, MigrationModule> = {
   "2026.12.01T11.00.00.batch-room.ts": batchRoom,
   "2026.12.02T03.00.00.drop-ledger-source-kind-index.ts": dropLedgerSourceKindIndex,
   "2026.12.04T02.00.00.idempotency-key-scope.ts": idempotencyKeyScope,
+  "2026.12.04T08.00.00.ledger-daily-local-days.ts": ledgerDailyLocalDays,
 };
 
 export const SEEDERS: Record<string, MigrationModule> = {
@@ -44,6 +47,7 @@ export const SEEDERS: Record<string, MigrationModule> = {
   "2026.12.01T02.00.00.demo-preparation.ts": demoPreparation,
   "2026.12.01T05.00.00.waste-demo.ts": wasteDemo,
   "2026.12.01T11.00.00.demo-batch-rooms.ts": demoBatchRooms,
+  "2026.12.04T08.00.00.demo-facility-zone.ts": demoFacilityZone,
 };
 
 function umzugFor(sequelize: Sequelize, modules: Record<string, MigrationModule>, tableName: string) {
