@@ -196,7 +196,9 @@ export function parseLocalDateTime(text: string, timeZone: string): LocalTimeRea
 
 /** The zone's short name at an instant in the locale ("CET", "CEST", "GMT-7"). */
 export function zoneName(instant: Date, facility: Zoned): string {
-  const parts = dateTimeFormat(facility.locale, { timeZone: facility.timeZone, timeZoneName: "short", hour: "numeric" }).formatToParts(instant);
+  const parts = dateTimeFormat(facility.locale, { timeZone: facility.timeZone, timeZoneName: "short", hour: "numeric" }).formatToParts(
+    instant,
+  );
   return parts.find((p) => p.type === "timeZoneName")?.value ?? facility.timeZone;
 }
 
@@ -216,12 +218,24 @@ export function formatInstant(value: string | Date, facility: Zoned): string {
 }
 
 /**
+ * An instant for a bottle label: ISO 8601 order in the facility's zone with the zone's English
+ * short name, "2026-03-29 03:30 CEST", so a bottle reads the same to everyone at the bench and
+ * prints in the label fonts (Latin characters only).
+ */
+export function formatLabelInstant(value: string | Date, timeZone: string): string {
+  const d = typeof value === "string" ? new Date(value) : value;
+  return `${localInputValue(d, timeZone).replace("T", " ")} ${zoneName(d, { timeZone, locale: "en-GB" })}`;
+}
+
+/**
  * A day in the facility's locale: a "YYYY-MM-DD" day as it is, an instant as its local day in the
  * facility's zone. "29 Mar 2026" (en-GB), "29. März 2026" (de-DE).
  */
 export function formatDay(value: string | Date, facility: Zoned): string {
   const day = typeof value === "string" && /^\d{4}-\d{2}-\d{2}$/.test(value) ? value : localDay(new Date(value), facility.timeZone);
-  return dateTimeFormat(facility.locale, { timeZone: "UTC", year: "numeric", month: "short", day: "2-digit" }).format(new Date(`${day}T00:00:00.000Z`));
+  return dateTimeFormat(facility.locale, { timeZone: "UTC", year: "numeric", month: "short", day: "2-digit" }).format(
+    new Date(`${day}T00:00:00.000Z`),
+  );
 }
 
 /** A month "YYYY-MM" in the locale: "March 2026". */
