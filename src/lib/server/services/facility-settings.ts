@@ -20,12 +20,22 @@ const KEYS: Record<keyof FacilitySettings, string> = {
 /** The years the offset table covers: those a stored instant may fall in (`lib/schemas/fields.ts`). */
 const OFFSET_YEARS = [1970, 2199] as const;
 
+/** A JSON string column: the driver hands it over as JSON text or already parsed (a bare string), by the server's metadata. */
+function textSetting(value: unknown): unknown {
+  if (typeof value !== "string") return value;
+  try {
+    return jsonColumn<unknown>(value);
+  } catch {
+    return value;
+  }
+}
+
 export async function getFacilitySettings(transaction?: Transaction): Promise<FacilitySettings> {
   const rows = await select<{ key: string; value: unknown }>("SELECT `key`, value FROM settings WHERE `key` IN (:keys)", {
     replacements: { keys: Object.values(KEYS) },
     transaction,
   });
-  const values = new Map(rows.map((r) => [r.key, jsonColumn<unknown>(r.value)]));
+  const values = new Map(rows.map((r) => [r.key, textSetting(r.value)]));
   const read = (field: keyof FacilitySettings) => {
     const value = values.get(KEYS[field]);
     return typeof value === "string" && value !== "" ? value : DEFAULT_FACILITY[field];
@@ -52,10 +62,13 @@ export async function applyTimeZone(timeZone: string, on: { transaction: Transac
   ]);
   for (let i = 0; i < rows.length; i += 200) {
     const chunk = rows.slice(i, i + 200);
-    await execute(`INSERT INTO facility_utc_offsets (starts_at, ends_at, offset_minutes) VALUES ${chunk.map(() => "(?, ?, ?)").join(", ")}`, {
-      replacements: chunk.flat(),
-      ...options,
-    });
+    await execute(
+      `INSERT INTO facility_utc_offsets (starts_at, ends_at, offset_minutes) VALUES ${chunk.map(() => "(?, ?, ?)").join(", ")}`,
+      {
+        replacements: chunk.flat(),
+        ...options,
+      },
+    );
   }
   await execute("DELETE FROM ledger_daily", options);
   // Offsets first: each offset's span is one range read of the occurred_at index.
@@ -94,7 +107,10 @@ export async function saveFacilitySettings(
     }
     if (after.timeZone !== before.timeZone) await applyTimeZone(after.timeZone, { transaction });
     if (JSON.stringify(after) !== JSON.stringify(before)) {
-      await recordAudit({ actorId: actor?.id ?? null, action: "update", entity: "facility-settings", entityId: null, ip, before, after }, transaction);
+      await recordAudit(
+        { actorId: actor?.id ?? null, action: "update", entity: "facility-settings", entityId: null, ip, before, after },
+        transaction,
+      );
     }
     return after;
   });
