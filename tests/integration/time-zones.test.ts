@@ -76,11 +76,10 @@ describe("the facility's local days", () => {
     const { project, reagent } = await subject();
     const saved = await saveFacilitySettings({ timeZone: "Australia/Sydney" }, admin);
     expect(saved.timeZone).toBe("Australia/Sydney");
-    // The Berlin entries fall on Sydney days now: midnight CET on 1 March is 10:00 AEDT on 1 March.
-    expect(await volumeIn("2031-03-01", "2031-03-31", project.code, reagent)).toBe(11_110);
-    // 22:00 UTC on 31 March is 09:00 AEDT on 1 April.
-    expect(await volumeIn("2031-04-01", "2031-04-01", project.code, reagent)).toBe(100_000);
-    // 23:59:59 CET on 28 February is 09:59:59 AEDT on 1 March: in March in Sydney.
+    // The same entries fall on Sydney's days now: 23:59:59 CET on 28 February is 09:59:59 AEDT on
+    // 1 March (in March), 23:59:59 CEST on 31 March is 08:59:59 AEDT on 1 April (out).
+    expect(await volumeIn("2031-03-01", "2031-03-31", project.code, reagent)).toBe(1_111);
+    expect(await volumeIn("2031-04-01", "2031-04-01", project.code, reagent)).toBe(110_000);
     expect(await volumeIn("2031-02-28", "2031-02-28", project.code, reagent)).toBe(0);
 
     await draw(project.id, reagent, [
