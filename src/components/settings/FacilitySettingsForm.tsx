@@ -84,7 +84,13 @@ export default function FacilitySettingsForm({ initial }: { initial: FacilitySet
     <IslandForm onSubmit={save} className="card grid max-w-2xl gap-4 p-5" noValidate aria-label="Facility settings">
       {field("timeZone", "Time zone", "facility-zones", "IANA name, e.g. Europe/Berlin. Times are typed and shown in this zone.", zones)}
       {field("locale", "Date and number format", "facility-locales", "Locale, e.g. de-DE or en-GB.", COMMON_LOCALES)}
-      {field("currency", "Default currency", "facility-currencies", "ISO 4217 code for new clients and rates, e.g. EUR.", COMMON_CURRENCIES)}
+      {field(
+        "currency",
+        "Default currency",
+        "facility-currencies",
+        "ISO 4217 code for new clients and rates, e.g. EUR.",
+        COMMON_CURRENCIES,
+      )}
       {preview && (
         <p className="text-sm">
           <span className="text-[var(--color-muted)]">Shown as: </span>

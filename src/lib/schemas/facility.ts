@@ -38,5 +38,7 @@ const currency = z
   });
 
 /** `PUT /api/settings/facility`: any of the three. */
-export const facilitySettingsPatch = z.object({ timeZone: timeZone.optional(), locale: locale.optional(), currency: currency.optional() }).strict();
+export const facilitySettingsPatch = z
+  .object({ timeZone: timeZone.optional(), locale: locale.optional(), currency: currency.optional() })
+  .strict();
 export type FacilitySettingsPatch = z.infer<typeof facilitySettingsPatch>;

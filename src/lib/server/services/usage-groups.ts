@@ -35,7 +35,12 @@ const round = (v: number, digits: number) => Math.round(v * 10 ** digits) / 10 *
 const dayOf = (v: string | Date) => (typeof v === "string" ? v.slice(0, 10) : v.toISOString().slice(0, 10));
 
 /** Days on which a rate starts (local midnight) split the period, so each (group, project, reagent, segment) sum has one rate in force. */
-function segmentSql(rates: readonly Rate[], from: string, to: string, timeZone: string): { sql: string; replacements: Record<string, Date> } {
+function segmentSql(
+  rates: readonly Rate[],
+  from: string,
+  to: string,
+  timeZone: string,
+): { sql: string; replacements: Record<string, Date> } {
   const cuts = [...new Set(rates.map((r) => r.effectiveFrom))].filter((d) => d > from && d <= to).sort();
   const replacements: Record<string, Date> = {};
   if (cuts.length === 0) return { sql: "", replacements };

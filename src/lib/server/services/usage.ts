@@ -12,7 +12,6 @@ import { getFacilitySettings } from "./facility-settings";
 
 const round = (v: number, digits: number) => Math.round(v * 10 ** digits) / 10 ** digits;
 
-
 /** All rates (a small table), in the pure module's shape. */
 export async function loadRates(): Promise<Rate[]> {
   const rows = await select<{
