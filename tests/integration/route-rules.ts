@@ -148,6 +148,7 @@ export const ROUTE_RULES: Record<string, RouteRule> = {
   "api/recipes/index.ts": { methods: { GET: need("read:recipe"), POST: need("create:recipe") } },
   "api/runs/[id].ts": { methods: { GET: need("read:run") }, params: (s) => ({ id: s.ids.run }) },
   "api/runs/index.ts": { methods: { GET: need("read:run"), POST: need("create:run") } },
+  "api/settings/facility.ts": { methods: { GET: need("read:own-account"), PUT: need("manage:settings") } },
   "api/settings/preparation.ts": { methods: { GET: need("read:batch"), PUT: need("manage:preparation-settings") } },
   // The demo lots have no certificate file: allowed roles get the 404 that says so.
   "api/stock-lots/[id]/certificate.ts": {
@@ -184,6 +185,7 @@ export const ROUTE_RULES: Record<string, RouteRule> = {
   "runs/draw.astro": { methods: { GET: need("create:draw") } },
   "runs/index.astro": { methods: { GET: need("read:run") } },
   "runs/new.astro": { methods: { GET: need("create:run") } },
+  "settings/facility.astro": { methods: { GET: need("manage:settings") } },
   "settings/preparation.astro": { methods: { GET: need("manage:preparation-settings") } },
   "stock-lots/index.astro": { methods: { GET: need("read:stock-lot") } },
   "usage/index.astro": { methods: { GET: need("read:usage", true) } },

@@ -1,7 +1,7 @@
 import { useState } from "react";
 import type { SessionView } from "../../lib/auth/types";
 import { describeBrowser } from "../../lib/auth/user-agent";
-import { formatInstantInZone } from "../../lib/format";
+import { formatLabelInstant } from "../../lib/format";
 import { HydratedControls } from "../forms/island-form";
 
 async function send(url: string, body?: unknown) {
@@ -21,7 +21,7 @@ export default function SessionsPanel({ sessions: initial, timeZone }: { session
   const [sessions, setSessions] = useState(initial);
   const [problem, setProblem] = useState<string | null>(null);
   const [message, setMessage] = useState<string | null>(null);
-  const at = (iso: string) => formatInstantInZone(iso, timeZone);
+  const at = (iso: string) => formatLabelInstant(iso, timeZone);
   const others = sessions.filter((s) => !s.current).length;
 
   async function act(work: () => Promise<void>) {

@@ -1,6 +1,6 @@
 import { useState, type FormEvent } from "react";
 import type { TwoFactorView } from "../../lib/auth/types";
-import { formatInstantInZone } from "../../lib/format";
+import { formatLabelInstant } from "../../lib/format";
 import TwoFactorSetup from "../auth/TwoFactorSetup";
 import { HydratedControls } from "../forms/island-form";
 
@@ -57,7 +57,7 @@ export default function TwoFactorPanel({ view, timeZone }: { view: TwoFactorView
   return (
     <div className="flex flex-col gap-3 text-sm">
       <p data-testid="two-factor-state">
-        <span className="tag">On</span> since {view.enabledAt ? formatInstantInZone(view.enabledAt, timeZone) : "—"}.{" "}
+        <span className="tag">On</span> since {view.enabledAt ? formatLabelInstant(view.enabledAt, timeZone) : "—"}.{" "}
         {view.recoveryCodesLeft} of 10 recovery codes left.
       </p>
       {view.recoveryCodesLeft <= 3 && !codes && (

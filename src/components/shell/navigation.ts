@@ -16,6 +16,7 @@ export const NAV_ITEMS: NavItem[] = [
   { href: "/batches", label: "Batches", permission: "read:batch" },
   { href: "/recipes", label: "Recipes", permission: "read:recipe" },
   { href: "/stock-lots", label: "Stock lots", permission: "read:stock-lot" },
+  { href: "/settings/facility", label: "Facility settings", permission: "manage:settings" },
   { href: "/settings/preparation", label: "Preparation settings", permission: "manage:preparation-settings" },
   { href: "/runs", label: "Runs & draws", permission: "read:run" },
   { href: "/instruments", label: "Instruments", permission: "read:instrument" },

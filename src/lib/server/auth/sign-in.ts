@@ -10,7 +10,7 @@ import { HttpError } from "../http";
 import { publicOrigin, sendMail } from "../mail";
 import { User } from "../models/auth";
 import { facilityTimeZone, getSignInSettings } from "../services/sign-in-settings";
-import { formatInstantInZone } from "../../format";
+import { formatLabelInstant } from "../../format";
 import { deviceCookieName, issueDeviceCookie, verifiedDevice } from "./device-cookie";
 import { hashPassword, verifyPassword } from "./password";
 import { countCodeFailure, createSession, endSessionById, type OpenSession, type SessionStage, type SessionUser } from "./sessions";
@@ -178,7 +178,7 @@ async function mailLock(user: { id: number; name: string; email: string }, locke
   });
   try {
     const zone = await facilityTimeZone();
-    const until = formatInstantInZone(lockedUntil, zone);
+    const until = formatLabelInstant(lockedUntil, zone);
     const origin = publicOrigin();
     const admins = await User.findAll({ where: { role: "admin", active: true } });
     const mails = [

@@ -1,4 +1,5 @@
 /** The facility's sign-in limits, session lifetimes and rate limits: one settings row, with defaults. */
+import { getFacilitySettings } from "./facility-settings";
 import { DEFAULT_SIGN_IN_SETTINGS, signInSettingsSchema, type SignInSettings } from "../../schemas/sign-in-settings";
 import { recordAudit } from "../audit";
 import type { SignedInUser } from "../guard";
@@ -45,27 +46,7 @@ export async function saveSignInSettings(input: SignInSettings, actor: SignedInU
   return getSignInSettings();
 }
 
-/**
- * The facility's IANA time zone for showing times, from the facility settings when they exist;
- * UTC until then.
- */
+/** The facility's IANA time zone, for the times the sign-in mails and pages show. */
 export async function facilityTimeZone(): Promise<string> {
-  const row = await selectOne<{ value: unknown }>("SELECT value FROM settings WHERE `key` IN ('facility.timeZone', 'facility') LIMIT 1");
-  const value = typeof row?.value === "string" ? safeJson(row.value) : row?.value;
-  const zone = typeof value === "string" ? value : (value as { timeZone?: unknown } | undefined)?.timeZone;
-  if (typeof zone !== "string") return "UTC";
-  try {
-    new Intl.DateTimeFormat("en-GB", { timeZone: zone });
-    return zone;
-  } catch {
-    return "UTC";
-  }
-}
-
-function safeJson(text: string): unknown {
-  try {
-    return JSON.parse(text);
-  } catch {
-    return text;
-  }
+  return (await getFacilitySettings()).timeZone;
 }
