@@ -183,6 +183,11 @@ export const ROUTE_RULES: Record<string, RouteRule> = {
   "api/statements/[id]/issue.ts": { methods: { POST: need("manage:statement") }, params: () => ({ id: NO_STATEMENT }) },
   "api/statements/[id]/invoice.ts": { methods: { POST: need("manage:invoice") }, params: () => ({ id: NO_STATEMENT }) },
   "api/invoices/[id]/void.ts": { methods: { POST: need("manage:invoice") }, params: () => ({ id: NO_STATEMENT }) },
+  "api/invoices/[id]/invoice.pdf.ts": {
+    methods: { GET: need("read:invoice", true) },
+    params: () => ({ id: NO_STATEMENT }),
+    allowedStatus: 404,
+  },
   "api/invoices/[id]/uncollectible.ts": { methods: { POST: need("manage:invoice") }, params: () => ({ id: NO_STATEMENT }) },
   // Public: trust comes from the signature; an unsigned request is refused with 400.
   "api/webhooks/payments.ts": { methods: { POST: open(400) } },
@@ -241,6 +246,10 @@ export const CROSS_ORGANISATION: Record<
     mustNotShow: (s) => foreignSecrets(s),
   },
   "api/invoices/[id]/void.ts": { params: (s) => ({ id: s.foreignInvoiceId ?? NO_STATEMENT }), mustNotShow: (s) => foreignSecrets(s) },
+  "api/invoices/[id]/invoice.pdf.ts": {
+    params: (s) => ({ id: s.foreignInvoiceId ?? NO_STATEMENT }),
+    mustNotShow: (s) => [...foreignSecrets(s), "%PDF"],
+  },
   "api/invoices/[id]/uncollectible.ts": {
     params: (s) => ({ id: s.foreignInvoiceId ?? NO_STATEMENT }),
     mustNotShow: (s) => foreignSecrets(s),

@@ -3,6 +3,7 @@
  * manager's follow-up on one (/api/invoices/[id]/void, /uncollectible) through the provider's SDK.
  */
 import type Stripe from "stripe";
+import { statementReference } from "../../../billing/statement";
 import type { InvoiceView } from "../../../billing/types";
 import { can } from "../../../permissions";
 import { recordAudit } from "../../audit";
@@ -34,6 +35,10 @@ export function invoiceView(invoice: Invoice, client: Client, statement: Stateme
     lastPaymentError: invoice.lastPaymentError,
     periodStart: String(statement.periodStart),
     periodEnd: String(statement.periodEnd),
+    statementReference: statementReference(statement.id),
+    subtotal_minor: invoice.subtotalMinor ?? null,
+    tax_minor: invoice.taxMinor ?? null,
+    issuedOn: invoice.issuedOn ? String(invoice.issuedOn) : null,
   };
 }
 
