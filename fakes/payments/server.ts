@@ -361,7 +361,10 @@ function finalize(invoice: Invoice) {
   if (invoice.status !== "draft") throw badState(`This invoice is already finalized, you can't re-finalize a non-draft invoice.`);
   const customer = state.customers[invoice.customer]!;
   // A number the caller set is kept, as the real service does; otherwise the customer's prefix and a sequence.
-  if (invoice.number && Object.values(state.invoices).some((o) => o.id !== invoice.id && o.status !== "draft" && o.number === invoice.number))
+  // Unique per customer here (each test database has its own customers at one shared fake).
+  const taken = (o: Invoice) =>
+    o.id !== invoice.id && o.customer === invoice.customer && o.status !== "draft" && o.number === invoice.number;
+  if (invoice.number && Object.values(state.invoices).some(taken))
     throw badState(`Invoice number ${invoice.number} is already in use.`, "invoice_duplicate_number");
   if (!invoice.number) {
     const sequence = (state.invoiceSequence[customer.id] ?? 0) + 1;
@@ -553,11 +556,18 @@ function createTaxRate(params: Params): Answer {
   if (percentage === undefined)
     throw new ApiError(400, "invalid_request_error", "Missing required param: percentage.", "parameter_missing", "percentage");
   if (Number(percentage) < 0 || Number(percentage) > 100 || !/^\d+(\.\d{1,4})?$/.test(percentage))
-    throw new ApiError(400, "invalid_request_error", "percentage must be between 0 and 100, four decimals at most.", "parameter_invalid", "percentage");
+    throw new ApiError(
+      400,
+      "invalid_request_error",
+      "percentage must be between 0 and 100, four decimals at most.",
+      "parameter_invalid",
+      "percentage",
+    );
   const inclusive = r.bool("inclusive");
   if (inclusive === undefined)
     throw new ApiError(400, "invalid_request_error", "Missing required param: inclusive.", "parameter_missing", "inclusive");
-  if (inclusive) throw new ApiError(400, "invalid_request_error", "This fake supports exclusive tax rates only.", "parameter_invalid", "inclusive");
+  if (inclusive)
+    throw new ApiError(400, "invalid_request_error", "This fake supports exclusive tax rates only.", "parameter_invalid", "inclusive");
   const rate: TaxRate = {
     id: newId("txr"),
     object: "tax_rate",

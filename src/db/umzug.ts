@@ -17,6 +17,7 @@ import * as demoFacility from "./seeders/2026.12.01T00.00.00.demo-facility";
 import * as demoPreparation from "./seeders/2026.12.01T02.00.00.demo-preparation";
 import * as wasteDemo from "./seeders/2026.12.01T05.00.00.waste-demo";
 import * as demoBatchRooms from "./seeders/2026.12.01T11.00.00.demo-batch-rooms";
+import * as demoInvoiceDetails from "./seeders/2026.12.04T07.10.00.demo-invoice-details";
 
 interface MigrationModule {
   up: RunnableMigration<QueryInterface>["up"];
@@ -46,6 +47,7 @@ export const SEEDERS: Record<string, MigrationModule> = {
   "2026.12.01T02.00.00.demo-preparation.ts": demoPreparation,
   "2026.12.01T05.00.00.waste-demo.ts": wasteDemo,
   "2026.12.01T11.00.00.demo-batch-rooms.ts": demoBatchRooms,
+  "2026.12.04T07.10.00.demo-invoice-details.ts": demoInvoiceDetails,
 };
 
 function umzugFor(sequelize: Sequelize, modules: Record<string, MigrationModule>, tableName: string) {

@@ -18,7 +18,7 @@ import { inTransaction } from "../sql";
 import { mailInvoice } from "./invoice-mail";
 import { invoiceView } from "./invoices";
 import { fromUnix, providerError, statementKey } from "./provider";
-import { takeInvoiceNumber } from "./invoice-numbers";
+import { ensureInvoiceSeries, takeInvoiceNumber } from "./invoice-numbers";
 import { facilityDetails } from "./settings";
 import { issueLocked } from "./statement-issue";
 
@@ -65,6 +65,7 @@ export async function invoiceStatement(
 ): Promise<{ invoice: InvoiceView; created: boolean }> {
   const now = deps.now ?? new Date();
   const payments = deps.payments ?? getPayments();
+  await ensureInvoiceSeries((await facilityDetails()).invoicePrefix, now.getUTCFullYear());
   const result = await inTransaction(getSequelize(), async (transaction) => {
     const statement = await Statement.findByPk(id, { transaction, lock: transaction.LOCK.UPDATE });
     if (!statement) throw new HttpError(404, `No statement ${id}.`);
@@ -102,7 +103,8 @@ export async function invoiceStatement(
     const currency = statement.currency.toLowerCase();
     const facility = await facilityDetails(transaction);
     const issuedOn = now.toISOString().slice(0, 10);
-    const number = await takeInvoiceNumber(facility.invoicePrefix, now.getUTCFullYear(), transaction);
+    // A number already committed to this invoice (a send whose answer was lost) is kept: no gap, no second number.
+    const number = invoice.number ?? (await takeInvoiceNumber(facility.invoicePrefix, now.getUTCFullYear(), transaction));
     const tax = invoiceTax(client.taxTreatment, client.taxRatePercent, client.taxLabel);
     const totals = invoiceLines(statement.lines, tax);
     const details: InvoiceDetails = {
@@ -151,7 +153,12 @@ export async function invoiceStatement(
           pending_invoice_items_behavior: "exclude",
           description: `${facility.legalName}: invoice ${number} for statement ${reference}, ${statement.periodStart} to ${statement.periodEnd}`,
           ...(tax.legend ? { footer: tax.legend } : {}),
-          metadata: { decant_statement_id: String(statement.id), decant_statement_ref: reference, decant_invoice_number: number },
+          metadata: {
+            decant_statement_id: String(statement.id),
+            decant_statement_ref: reference,
+            decant_client_id: String(client.id),
+            decant_invoice_number: number,
+          },
         },
         { idempotencyKey: `${sendKey}-invoice` },
       );
@@ -170,7 +177,11 @@ export async function invoiceStatement(
           { idempotencyKey: `${sendKey}-item-${index}` },
         );
       }
-      const finalized = await payments.invoices.finalizeInvoice(providerId, { auto_advance: false }, { idempotencyKey: `${sendKey}-finalize` });
+      const finalized = await payments.invoices.finalizeInvoice(
+        providerId,
+        { auto_advance: false },
+        { idempotencyKey: `${sendKey}-finalize` },
+      );
       const providerTax = finalized.total - (finalized.subtotal ?? finalized.total);
       if (finalized.total !== totals.total_minor || providerTax !== totals.tax_minor) {
         throw new HttpError(
