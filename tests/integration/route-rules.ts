@@ -161,6 +161,7 @@ export const ROUTE_RULES: Record<string, RouteRule> = {
   "statements/index.astro": { methods: { GET: need("read:statement", true) } },
   "statements/[id].astro": { methods: { GET: need("read:statement", true) }, params: () => ({ id: NO_STATEMENT }), allowedStatus: 404 },
   "invoices/index.astro": { methods: { GET: need("read:invoice", true) } },
+  "invoices/[id].astro": { methods: { GET: need("read:invoice", true) }, params: () => ({ id: NO_STATEMENT }), allowedStatus: 404 },
   "api/rates/index.ts": { methods: { GET: need("manage:rate"), POST: need("manage:rate") } },
   "api/invoices/index.ts": { methods: { GET: need("read:invoice", true) } },
   "api/statements/index.ts": { methods: { GET: need("read:statement", true), POST: need("manage:statement") } },
@@ -231,6 +232,7 @@ export const CROSS_ORGANISATION: Record<
   "batches/[id].astro": { params: (s) => ({ id: s.batchId }), mustNotShow: (s) => [s.batchCode] },
   // Real records of another organisation, created for the matrix: its statement and invoice.
   "statements/[id].astro": { params: (s) => ({ id: s.foreignStatementId ?? NO_STATEMENT }), mustNotShow: (s) => foreignSecrets(s) },
+  "invoices/[id].astro": { params: (s) => ({ id: s.foreignInvoiceId ?? NO_STATEMENT }), mustNotShow: (s) => foreignSecrets(s) },
   "api/statements/[id]/index.ts": { params: (s) => ({ id: s.foreignStatementId ?? NO_STATEMENT }), mustNotShow: (s) => foreignSecrets(s) },
   "api/statements/[id]/statement.pdf.ts": {
     params: (s) => ({ id: s.foreignStatementId ?? NO_STATEMENT }),

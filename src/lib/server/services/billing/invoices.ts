@@ -57,6 +57,15 @@ export async function listInvoices(viewer: SignedInUser): Promise<InvoiceView[]>
   return invoices.map((i) => invoiceView(i, clients.get(i.clientId)!, statements.get(i.statementId)!));
 }
 
+/** One invoice; a client contact gets their organisation's only (404 otherwise, as for a missing one). */
+export async function getInvoice(id: number, viewer: SignedInUser): Promise<InvoiceView> {
+  const invoice = await Invoice.findByPk(id);
+  if (!invoice || !(can(viewer.role, "read:invoice") || invoice.clientId === viewer.clientId))
+    throw new HttpError(404, `No invoice ${id}.`);
+  const [client, statement] = await Promise.all([Client.findByPk(invoice.clientId), Statement.findByPk(invoice.statementId)]);
+  return invoiceView(invoice, client!, statement!);
+}
+
 async function invoiceAction(
   id: number,
   action: "void" | "uncollectible",
