@@ -1,4 +1,5 @@
-/** Reporting periods for the waste view: calendar month, quarter or year (UTC dates, both ends inclusive). */
+/** Reporting periods for the waste view: calendar month, quarter or year (days as `lib/ledger/period.ts` defines them). */
+import { periodInstants } from "../ledger/period";
 
 export type PeriodPreset = "month" | "quarter" | "year";
 
@@ -37,10 +38,7 @@ export function previousPeriod(preset: PeriodPreset, day: Date): Period {
 
 /** Half-open instants for SQL: [from 00:00Z, the day after `to` 00:00Z). */
 export function periodBounds(period: Period): { start: Date; end: Date } {
-  const start = new Date(`${period.from}T00:00:00.000Z`);
-  const end = new Date(`${period.to}T00:00:00.000Z`);
-  end.setUTCDate(end.getUTCDate() + 1);
-  return { start, end };
+  return periodInstants(period);
 }
 
 /** "2026-11" for each month the period touches, in order. */

@@ -6,15 +6,14 @@
 import { costLines, toMicro, type CostLine, type PriceList, type Rate } from "../../billing/rates";
 import type { UsageAnswer, UsageRow } from "../../ledger/types";
 import type { UsageQuery } from "../../schemas/usage";
+import { periodInstants } from "../../ledger/period";
 import { select } from "../query";
 
 const round = (v: number, digits: number) => Math.round(v * 10 ** digits) / 10 ** digits;
 
 /** Half-open UTC bounds of a period whose `from` and `to` days are both included. */
 export function periodBounds(from: string, to: string): [Date, Date] {
-  const start = new Date(`${from}T00:00:00.000Z`);
-  const end = new Date(`${to}T00:00:00.000Z`);
-  end.setUTCDate(end.getUTCDate() + 1);
+  const { start, end } = periodInstants({ from, to });
   return [start, end];
 }
 

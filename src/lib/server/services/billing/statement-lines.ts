@@ -4,7 +4,8 @@
  * force on each day. Drafts, the period overview and issuing all compute through here.
  */
 import type { Transaction } from "sequelize";
-import { buildStatement, nextDay, type CountRow, type StatementComputation, type UsageRow } from "../../../billing/statement";
+import { periodInstants } from "../../../ledger/period";
+import { buildStatement, type CountRow, type StatementComputation, type UsageRow } from "../../../billing/statement";
 import { HttpError } from "../../http";
 import { Client } from "../../models/organisation";
 import { select } from "../../query";
@@ -77,7 +78,8 @@ export async function computeStatement(
   const client = await Client.findByPk(clientId, { transaction });
   if (!client) throw new HttpError(404, `clientId: no client ${clientId}`);
   // Summed by the database per day: rates change at most daily.
-  const options = { replacements: { clientId, start: periodStart, end: nextDay(periodEnd) }, transaction };
+  const { start, end } = periodInstants({ from: periodStart, to: periodEnd });
+  const options = { replacements: { clientId, start, end }, transaction };
   const usage: UsageRow[] = (await select<UsageSumRow>(USAGE_SUMS, options)).map((u) => ({
     projectCode: u.project_code,
     projectName: u.project_name,
