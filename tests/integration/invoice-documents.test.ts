@@ -6,6 +6,7 @@ import { execFileSync } from "node:child_process";
 import { mkdtempSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
+import { QueryTypes } from "sequelize";
 import type Stripe from "stripe";
 import { describe, expect, it } from "vitest";
 import type { InvoiceDetails } from "../../src/lib/billing/invoice";
@@ -136,7 +137,7 @@ function failingAtFinalize(real: Stripe): Stripe {
 describe("invoice numbers", () => {
   it("stay gap-free under 20 concurrent invoice runs, a quarter of which fail half-way", async () => {
     const before = await db.sequelize.query<{ n: number | null }>("SELECT MAX(last_number) AS n FROM invoice_sequences", {
-      type: "SELECT",
+      type: QueryTypes.SELECT,
     });
     const start = before[0]?.n ?? 0;
     // Twenty one-day statements on days with use, in months the tests above left open for each client.
@@ -148,7 +149,7 @@ describe("invoice numbers", () => {
       const days = await db.sequelize.query<{ day: string }>(
         `SELECT DISTINCT DATE_FORMAT(le.occurred_at, '%Y-%m-%d') AS day FROM ledger_entries le JOIN projects p ON p.id = le.project_id
           WHERE p.client_id = :clientId AND le.occurred_at >= :start AND le.occurred_at < DATE_ADD(:end, INTERVAL 1 DAY) ORDER BY day LIMIT 10`,
-        { type: "SELECT", replacements: { clientId, start: month.periodStart, end: month.periodEnd } },
+        { type: QueryTypes.SELECT, replacements: { clientId, start: month.periodStart, end: month.periodEnd } },
       );
       for (const { day } of days) statements.push((await openStatement({ clientId, periodStart: day, periodEnd: day }, manager)).id);
     }

@@ -160,7 +160,8 @@ export function buildStatement(input: {
       exact: 0n,
       grades: new Set<string>(),
     };
-    if (pricedGrade ?? row.grade) group.grades.add((pricedGrade ?? row.grade)!);
+    const grade = pricedGrade ?? row.grade;
+    if (grade) (group.grades ??= new Set()).add(grade);
     group.quantity += quantity;
     group.exact += cost ?? 0n;
     groups.set(key, group);
