@@ -38,3 +38,23 @@ export function formatVolume(mL: number): string {
   if (Math.abs(mL) >= 1000) return `${formatNumber(mL / 1000, 2)} L`;
   return `${formatNumber(mL, 1)} mL`;
 }
+
+/** "2026-12-01 15:05 CET": a moment as the wall clock reads in `timeZone` (an IANA zone), with the zone's short name. */
+export function formatInstantInZone(iso: string | Date, timeZone: string): string {
+  const d = typeof iso === "string" ? new Date(iso) : iso;
+  const parts = Object.fromEntries(
+    new Intl.DateTimeFormat("en-GB", {
+      timeZone,
+      year: "numeric",
+      month: "2-digit",
+      day: "2-digit",
+      hour: "2-digit",
+      minute: "2-digit",
+      hourCycle: "h23",
+      timeZoneName: "short",
+    })
+      .formatToParts(d)
+      .map((p) => [p.type, p.value]),
+  );
+  return `${parts.year}-${parts.month}-${parts.day} ${parts.hour}:${parts.minute} ${parts.timeZoneName}`;
+}

@@ -11,13 +11,14 @@ test("a technician prepares a batch from a demo recipe, records it and prints it
 
   await page.getByLabel("Recipe", { exact: true }).selectOption({ label: "MP-FA-W · 0.1 % formic acid in water (v1, ch. A)" });
   const faTarget = page.getByTestId("target-formic-acid");
-  await expect(faTarget).toHaveText("1.000 mL");
+  // 0.1 % of the final volume, the acid's own volume included: 1.001 mL for 1000 mL of water.
+  await expect(faTarget).toHaveText("1.001 mL");
 
   // The amounts follow the volume as it is typed, computed in the browser.
   const volume = page.getByLabel("Batch volume", { exact: true });
   await volume.fill("");
   await volume.pressSequentially("2500");
-  await expect(faTarget).toHaveText("2.500 mL");
+  await expect(faTarget).toHaveText("2.503 mL");
   await expect(page.getByTestId("target-water")).toHaveText("2500 mL");
   await page.getByLabel("Unit for liquids").selectOption("l");
   await expect(page.getByTestId("target-water")).toHaveText("2.500 L");
@@ -83,7 +84,7 @@ test("a recipe picked while the page is still loading is not lost: the form wait
 
   // Picking waits for the form to be ready, and the choice reaches the amounts.
   await recipe.selectOption({ label: "MP-FA-W · 0.1 % formic acid in water (v1, ch. A)" });
-  await expect(page.getByTestId("target-formic-acid")).toHaveText("1.000 mL");
+  await expect(page.getByTestId("target-formic-acid")).toHaveText("1.001 mL");
 });
 
 test("a technician writes a recipe: the form checks it, says it in words and per litre, and saves it", async ({ page }) => {

@@ -20,6 +20,8 @@ export const NAV_ITEMS: NavItem[] = [
   { href: "/runs", label: "Runs & draws", permission: "read:run" },
   { href: "/instruments", label: "Instruments", permission: "read:instrument" },
   { href: "/methods", label: "Methods", permission: "read:instrument" },
+  { href: "/planning", label: "Plan ahead", permission: "read:planning" },
+  { href: "/planning/supply", label: "Supply", permission: "read:supply" },
   { href: "/imports", label: "Import run logs", permission: "create:import" },
   { href: "/usage", label: "Usage", permission: "read:usage", own: true },
   { href: "/statements", label: "Statements", permission: "read:statement", own: true },
@@ -27,6 +29,7 @@ export const NAV_ITEMS: NavItem[] = [
   { href: "/rates", label: "Rates", permission: "manage:rate" },
   { href: "/waste", label: "Waste", permission: "read:waste" },
   { href: "/users", label: "People", permission: "manage:user" },
+  { href: "/settings/sign-in", label: "Sign-in & sessions", permission: "manage:settings" },
   { href: "/dev/inbox", label: "Mail outbox (dev)", permission: "read:dev-inbox", devMailOnly: true },
   { href: "/account", label: "My account", permission: "read:own-account" },
 ];
