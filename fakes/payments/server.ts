@@ -44,6 +44,17 @@ interface InvoiceItem extends Obj {
   unit_amount_decimal: string;
   metadata: Record<string, string>;
   date: number;
+  tax_rates: string[];
+}
+interface TaxRate extends Obj {
+  display_name: string;
+  percentage: number;
+  inclusive: boolean;
+  description: string | null;
+  jurisdiction: string | null;
+  metadata: Record<string, string>;
+  active: boolean;
+  created: number;
 }
 interface Invoice extends Obj {
   customer: string;
@@ -89,10 +100,11 @@ interface State {
   events: Record<string, WebhookEvent>;
   idempotency: Record<string, Saved>;
   invoiceSequence: Record<string, number>;
+  taxRates: Record<string, TaxRate>;
 }
 
 function load(): State {
-  const empty: State = { customers: {}, invoiceItems: {}, invoices: {}, events: {}, idempotency: {}, invoiceSequence: {} };
+  const empty: State = { customers: {}, invoiceItems: {}, invoices: {}, events: {}, idempotency: {}, invoiceSequence: {}, taxRates: {} };
   if (!existsSync(stateFile)) return empty;
   try {
     return { ...empty, ...(JSON.parse(readFileSync(stateFile, "utf8")) as Partial<State>) };
@@ -182,9 +194,27 @@ function itemsOf(invoiceId: string) {
   return Object.values(state.invoiceItems).filter((item) => item.invoice === invoiceId);
 }
 
+/**
+ * Tax on one item at an exclusive rate, as the service computes it: per line, rounded to the
+ * minor unit half away from zero (percentages with up to four decimals, in integers).
+ */
+function itemTaxes(item: InvoiceItem): { amount: number; tax_rate: string; inclusive: boolean }[] {
+  return (item.tax_rates ?? []).map((id) => {
+    const rate = state.taxRates[id]!;
+    const exact = BigInt(item.amount) * BigInt(Math.round(rate.percentage * 10_000));
+    const abs = exact < 0n ? -exact : exact;
+    const rounded = abs / 1_000_000n + ((abs % 1_000_000n) * 2n >= 1_000_000n ? 1n : 0n);
+    return { amount: Number(exact < 0n ? -rounded : rounded), tax_rate: id, inclusive: false };
+  });
+}
+
 function invoiceView(invoice: Invoice): Obj {
   const items = itemsOf(invoice.id);
-  const total = items.reduce((sum, item) => sum + item.amount, 0);
+  const subtotal = items.reduce((sum, item) => sum + item.amount, 0);
+  const byRate = new Map<string, number>();
+  for (const item of items) for (const t of itemTaxes(item)) byRate.set(t.tax_rate, (byRate.get(t.tax_rate) ?? 0) + t.amount);
+  const tax = [...byRate.values()].reduce((sum, amount) => sum + amount, 0);
+  const total = subtotal + tax;
   const customer = state.customers[invoice.customer];
   const paid = invoice.status === "paid";
   const amountDue = invoice.status === "void" ? 0 : total;
@@ -194,8 +224,11 @@ function invoiceView(invoice: Invoice): Obj {
     livemode: false,
     customer_email: customer?.email ?? null,
     customer_name: customer?.name ?? null,
-    subtotal: total,
+    subtotal,
+    tax,
+    total_excluding_tax: subtotal,
     total,
+    total_tax_amounts: [...byRate].map(([rate, amount]) => ({ amount, inclusive: false, tax_rate: rate })),
     amount_due: amountDue,
     amount_paid: paid ? total : 0,
     amount_remaining: paid || invoice.status === "void" ? 0 : amountDue,
@@ -219,11 +252,18 @@ function invoiceView(invoice: Invoice): Obj {
         livemode: false,
         parent: { type: "invoice_item_details", invoice_item_details: { invoice_item: item.id, proration: false } },
         pricing: { type: "price_details", unit_amount_decimal: item.unit_amount_decimal },
+        tax_amounts: itemTaxes(item),
+        tax_rates: (item.tax_rates ?? []).map((id) => taxRateView(state.taxRates[id]!)),
       })),
     },
   };
 }
-const itemView = (item: InvoiceItem): Obj => ({ ...item, livemode: false });
+const itemView = (item: InvoiceItem): Obj => ({
+  ...item,
+  tax_rates: (item.tax_rates ?? []).map((id) => taxRateView(state.taxRates[id]!)),
+  livemode: false,
+});
+const taxRateView = (rate: TaxRate): Obj => ({ ...rate, livemode: false });
 const customerView = (customer: Customer): Obj => ({ ...customer, livemode: false, currency: null, delinquent: false });
 
 // ── Webhooks ────────────────────────────────────────────────────────────────────────────
@@ -320,9 +360,17 @@ function findInvoice(id: string) {
 function finalize(invoice: Invoice) {
   if (invoice.status !== "draft") throw badState(`This invoice is already finalized, you can't re-finalize a non-draft invoice.`);
   const customer = state.customers[invoice.customer]!;
-  const sequence = (state.invoiceSequence[customer.id] ?? 0) + 1;
-  state.invoiceSequence[customer.id] = sequence;
-  invoice.number = `${customer.invoice_prefix}-${String(sequence).padStart(4, "0")}`;
+  // A number the caller set is kept, as the real service does; otherwise the customer's prefix and a sequence.
+  // Unique per customer here (each test database has its own customers at one shared fake).
+  const taken = (o: Invoice) =>
+    o.id !== invoice.id && o.customer === invoice.customer && o.status !== "draft" && o.number === invoice.number;
+  if (invoice.number && Object.values(state.invoices).some(taken))
+    throw badState(`Invoice number ${invoice.number} is already in use.`, "invoice_duplicate_number");
+  if (!invoice.number) {
+    const sequence = (state.invoiceSequence[customer.id] ?? 0) + 1;
+    state.invoiceSequence[customer.id] = sequence;
+    invoice.number = `${customer.invoice_prefix}-${String(sequence).padStart(4, "0")}`;
+  }
   invoice.status = "open";
   invoice.status_transitions.finalized_at = now();
   if (invoice.collection_method === "send_invoice" && invoice.days_until_due != null)
@@ -415,6 +463,7 @@ function createInvoiceItem(params: Params): Answer {
     "price_data",
     "period",
     "discountable",
+    "tax_rates",
   ]);
   const customerId = r.str("customer", true)!;
   if (!state.customers[customerId]) throw missing("customer", customerId, "customer");
@@ -479,7 +528,11 @@ function createInvoiceItem(params: Params): Answer {
   } else {
     throw new ApiError(400, "invalid_request_error", "Missing required param: amount.", "parameter_missing", "amount");
   }
+  const taxRates = params.tax_rates === undefined || params.tax_rates === "" ? [] : params.tax_rates;
+  if (!Array.isArray(taxRates) || taxRates.some((id) => typeof id !== "string" || !state.taxRates[id]))
+    throw new ApiError(400, "invalid_request_error", "tax_rates must list existing tax rate ids.", "parameter_invalid", "tax_rates");
   const item: InvoiceItem = {
+    tax_rates: taxRates as string[],
     id: newId("ii"),
     object: "invoiceitem",
     customer: customerId,
@@ -497,6 +550,40 @@ function createInvoiceItem(params: Params): Answer {
   return ok(itemView(item));
 }
 
+function createTaxRate(params: Params): Answer {
+  const r = reader(params, ["display_name", "percentage", "inclusive", "description", "jurisdiction", "country", "tax_type", "metadata"]);
+  const percentage = r.decimal("percentage");
+  if (percentage === undefined)
+    throw new ApiError(400, "invalid_request_error", "Missing required param: percentage.", "parameter_missing", "percentage");
+  if (Number(percentage) < 0 || Number(percentage) > 100 || !/^\d+(\.\d{1,4})?$/.test(percentage))
+    throw new ApiError(
+      400,
+      "invalid_request_error",
+      "percentage must be between 0 and 100, four decimals at most.",
+      "parameter_invalid",
+      "percentage",
+    );
+  const inclusive = r.bool("inclusive");
+  if (inclusive === undefined)
+    throw new ApiError(400, "invalid_request_error", "Missing required param: inclusive.", "parameter_missing", "inclusive");
+  if (inclusive)
+    throw new ApiError(400, "invalid_request_error", "This fake supports exclusive tax rates only.", "parameter_invalid", "inclusive");
+  const rate: TaxRate = {
+    id: newId("txr"),
+    object: "tax_rate",
+    display_name: r.str("display_name", true)!,
+    percentage: Number(percentage),
+    inclusive,
+    description: r.str("description") ?? null,
+    jurisdiction: r.str("jurisdiction") ?? null,
+    metadata: r.metadata() ?? {},
+    active: true,
+    created: now(),
+  };
+  state.taxRates[rate.id] = rate;
+  return ok(taxRateView(rate));
+}
+
 function createInvoice(params: Params): Answer {
   const r = reader(params, [
     "customer",
@@ -509,6 +596,7 @@ function createInvoice(params: Params): Answer {
     "currency",
     "pending_invoice_items_behavior",
     "footer",
+    "number",
   ]);
   const customerId = r.str("customer", true)!;
   if (!state.customers[customerId]) throw missing("customer", customerId, "customer");
@@ -543,7 +631,7 @@ function createInvoice(params: Params): Answer {
     metadata: r.metadata() ?? {},
     description: r.str("description") ?? null,
     footer: r.str("footer") ?? null,
-    number: null,
+    number: r.str("number") || null,
     created: now(),
     attempt_count: 0,
     attempted: false,
@@ -599,6 +687,16 @@ const routes: { method: string; pattern: RegExp; handler: Handler; mutates?: boo
     },
   },
   { method: "POST", pattern: /^\/v1\/customers\/([\w]+)$/, handler: (m, p) => updateCustomer(m[1]!, p), mutates: true },
+  { method: "POST", pattern: /^\/v1\/tax_rates$/, handler: (_m, p) => createTaxRate(p), mutates: true },
+  {
+    method: "GET",
+    pattern: /^\/v1\/tax_rates\/(txr_[\w]+)$/,
+    handler: (m) => {
+      const rate = state.taxRates[m[1]!];
+      if (!rate) throw missing("tax_rate", m[1]!);
+      return ok(taxRateView(rate));
+    },
+  },
   { method: "POST", pattern: /^\/v1\/invoiceitems$/, handler: (_m, p) => createInvoiceItem(p), mutates: true },
   {
     method: "GET",

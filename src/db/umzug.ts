@@ -16,6 +16,7 @@ import * as planning from "./migrations/2026.12.04T05.00.00.planning";
 import * as lotAssay from "./migrations/2026.12.04T04.00.00.lot-assay";
 import * as signInSecurity from "./migrations/2026.12.04T03.00.00.sign-in-security";
 import * as ledgerDailyLocalDays from "./migrations/2026.12.04T08.00.00.ledger-daily-local-days";
+import * as invoiceDocuments from "./migrations/2026.12.04T07.00.00.invoice-documents";
 import * as demoFacility from "./seeders/2026.12.01T00.00.00.demo-facility";
 import * as demoPreparation from "./seeders/2026.12.01T02.00.00.demo-preparation";
 import * as wasteDemo from "./seeders/2026.12.01T05.00.00.waste-demo";
@@ -23,6 +24,7 @@ import * as demoBatchRooms from "./seeders/2026.12.01T11.00.00.demo-batch-rooms"
 import * as demoSupply from "./seeders/2026.12.04T05.10.00.demo-supply";
 import * as demoLotAssays from "./seeders/2026.12.04T04.10.00.demo-lot-assays";
 import * as demoFacilityZone from "./seeders/2026.12.04T08.00.00.demo-facility-zone";
+import * as demoInvoiceDetails from "./seeders/2026.12.04T07.10.00.demo-invoice-details";
 
 interface MigrationModule {
   up: RunnableMigration<QueryInterface>["up"];
@@ -48,6 +50,7 @@ export const MIGRATIONS: Record<string, MigrationModule> = {
   "2026.12.04T04.00.00.lot-assay.ts": lotAssay,
   "2026.12.04T03.00.00.sign-in-security.ts": signInSecurity,
   "2026.12.04T08.00.00.ledger-daily-local-days.ts": ledgerDailyLocalDays,
+  "2026.12.04T07.00.00.invoice-documents.ts": invoiceDocuments,
 };
 
 export const SEEDERS: Record<string, MigrationModule> = {
@@ -58,6 +61,7 @@ export const SEEDERS: Record<string, MigrationModule> = {
   "2026.12.04T05.10.00.demo-supply.ts": demoSupply,
   "2026.12.04T04.10.00.demo-lot-assays.ts": demoLotAssays,
   "2026.12.04T08.00.00.demo-facility-zone.ts": demoFacilityZone,
+  "2026.12.04T07.10.00.demo-invoice-details.ts": demoInvoiceDetails,
 };
 
 function umzugFor(sequelize: Sequelize, modules: Record<string, MigrationModule>, tableName: string) {

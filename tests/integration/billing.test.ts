@@ -88,7 +88,9 @@ describe("invoicing an external client through the SDK and the fake", () => {
     providerInvoiceId = invoice.providerInvoiceId!;
     expect(invoice.status).toBe("open");
     expect(invoice.providerInvoiceId).toMatch(/^in_/);
-    expect(invoice.amount_minor).toBe(draft.total_minor);
+    // The demo bills Quillfeather with 21 % VAT: the statement is the invoice's subtotal.
+    expect(invoice.subtotal_minor).toBe(draft.total_minor);
+    expect(invoice.amount_minor).toBe(draft.total_minor + invoice.tax_minor!);
     expect(invoice.hostedUrl).toBe(`${fakeBase()}/i/${invoice.providerInvoiceId}`);
 
     const client = (await Client.findByPk(QUILLFEATHER))!;
@@ -98,7 +100,9 @@ describe("invoicing an external client through the SDK and the fake", () => {
       status: "open",
       collection_method: "send_invoice",
       customer: client.paymentsCustomerId,
-      total: draft.total_minor,
+      subtotal: draft.total_minor,
+      total: invoice.amount_minor,
+      number: invoice.number,
       days_until_due: 30,
     });
     expect(remote.lines.data.length).toBe(draft.lines.filter((l) => l.amount_minor !== 0).length);

@@ -195,6 +195,7 @@ export const ROUTE_RULES: Record<string, RouteRule> = {
   "statements/index.astro": { methods: { GET: need("read:statement", true) } },
   "statements/[id].astro": { methods: { GET: need("read:statement", true) }, params: () => ({ id: NO_STATEMENT }), allowedStatus: 404 },
   "invoices/index.astro": { methods: { GET: need("read:invoice", true) } },
+  "invoices/[id].astro": { methods: { GET: need("read:invoice", true) }, params: () => ({ id: NO_STATEMENT }), allowedStatus: 404 },
   "api/rates/index.ts": { methods: { GET: need("manage:rate"), POST: need("manage:rate") } },
   "api/invoices/index.ts": { methods: { GET: need("read:invoice", true) } },
   "api/statements/index.ts": { methods: { GET: need("read:statement", true), POST: need("manage:statement") } },
@@ -217,6 +218,11 @@ export const ROUTE_RULES: Record<string, RouteRule> = {
   "api/statements/[id]/issue.ts": { methods: { POST: need("manage:statement") }, params: () => ({ id: NO_STATEMENT }) },
   "api/statements/[id]/invoice.ts": { methods: { POST: need("manage:invoice") }, params: () => ({ id: NO_STATEMENT }) },
   "api/invoices/[id]/void.ts": { methods: { POST: need("manage:invoice") }, params: () => ({ id: NO_STATEMENT }) },
+  "api/invoices/[id]/invoice.pdf.ts": {
+    methods: { GET: need("read:invoice", true) },
+    params: () => ({ id: NO_STATEMENT }),
+    allowedStatus: 404,
+  },
   "api/invoices/[id]/uncollectible.ts": { methods: { POST: need("manage:invoice") }, params: () => ({ id: NO_STATEMENT }) },
   // Public: trust comes from the signature; an unsigned request is refused with 400.
   "api/webhooks/payments.ts": { methods: { POST: open(400) } },
@@ -260,6 +266,7 @@ export const CROSS_ORGANISATION: Record<
   "batches/[id].astro": { params: (s) => ({ id: s.batchId }), mustNotShow: (s) => [s.batchCode] },
   // Real records of another organisation, created for the matrix: its statement and invoice.
   "statements/[id].astro": { params: (s) => ({ id: s.foreignStatementId ?? NO_STATEMENT }), mustNotShow: (s) => foreignSecrets(s) },
+  "invoices/[id].astro": { params: (s) => ({ id: s.foreignInvoiceId ?? NO_STATEMENT }), mustNotShow: (s) => foreignSecrets(s) },
   "api/statements/[id]/index.ts": { params: (s) => ({ id: s.foreignStatementId ?? NO_STATEMENT }), mustNotShow: (s) => foreignSecrets(s) },
   "api/statements/[id]/statement.pdf.ts": {
     params: (s) => ({ id: s.foreignStatementId ?? NO_STATEMENT }),
@@ -275,6 +282,10 @@ export const CROSS_ORGANISATION: Record<
     mustNotShow: (s) => foreignSecrets(s),
   },
   "api/invoices/[id]/void.ts": { params: (s) => ({ id: s.foreignInvoiceId ?? NO_STATEMENT }), mustNotShow: (s) => foreignSecrets(s) },
+  "api/invoices/[id]/invoice.pdf.ts": {
+    params: (s) => ({ id: s.foreignInvoiceId ?? NO_STATEMENT }),
+    mustNotShow: (s) => [...foreignSecrets(s), "%PDF"],
+  },
   "api/invoices/[id]/uncollectible.ts": {
     params: (s) => ({ id: s.foreignInvoiceId ?? NO_STATEMENT }),
     mustNotShow: (s) => foreignSecrets(s),

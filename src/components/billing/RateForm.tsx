@@ -73,6 +73,13 @@ export default function RateForm({ reagents, currency, today }: Props) {
           <option value="preparation_fee">Preparation fee (per batch)</option>
           <option value="injection_fee">Injection fee (per injection)</option>
         </select>
+        {kind !== "reagent" && (
+          <p className="text-sm text-[var(--color-muted)]">
+            {kind === "preparation_fee"
+              ? "Charged once per batch, to the project that first draws from it, on the day of that first use."
+              : "Charged per injection of each run, on the day the run started."}
+          </p>
+        )}
       </div>
       {kind === "reagent" && (
         <>

@@ -101,6 +101,14 @@ interface Group {
   line: Omit<StatementLine, "quantity" | "amount_minor">;
   quantity: bigint;
   exact: bigint;
+  /** Grades of the lots used, shown on the line ("Acetonitrile, grade HPLC"). */
+  grades?: Set<string>;
+}
+
+function describe(group: Group): string {
+  const grades = [...(group.grades ?? [])].sort();
+  if (grades.length === 0) return group.line.description;
+  return `${group.line.description}, ${grades.length === 1 ? "grade" : "grades"} ${grades.join(", ")}`;
 }
 
 export function buildStatement(input: {
@@ -132,15 +140,16 @@ export function buildStatement(input: {
     if (quantity === 0n) continue;
     const cost = rate ? exactCost(byMass ? { mass_g: row.mass_g } : { volume_mL: row.volume_mL }, rate) : null;
     if (cost === null) uncosted.add(row.reagentId);
-    const grade = rate?.grade ?? row.grade;
-    const key = ["r", row.projectCode, row.reagentId, grade ?? "", rate?.id ?? "none"].join("|");
+    // One line per price charged: a grade has its own line only when the grade has its own price.
+    const pricedGrade = rate?.grade ?? null;
+    const key = ["r", row.projectCode, row.reagentId, pricedGrade ?? "", rate?.id ?? "none"].join("|");
     const group = groups.get(key) ?? {
       line: {
         projectCode: row.projectCode,
         projectName: row.projectName,
         kind: "reagent" as const,
         reagentId: row.reagentId,
-        description: grade ? `${row.reagentName} (${grade})` : row.reagentName,
+        description: row.reagentName,
         quantityUnit: byMass ? ("g" as const) : ("mL" as const),
         rateId: rate?.id ?? null,
         unitPrice_minor: rate?.amount_minor ?? null,
@@ -149,7 +158,10 @@ export function buildStatement(input: {
       },
       quantity: 0n,
       exact: 0n,
+      grades: new Set<string>(),
     };
+    const grade = pricedGrade ?? row.grade;
+    if (grade) (group.grades ??= new Set()).add(grade);
     group.quantity += quantity;
     group.exact += cost ?? 0n;
     groups.set(key, group);
@@ -190,7 +202,7 @@ export function buildStatement(input: {
 
   const lines: StatementLine[] = [...groups.values()]
     .filter((g) => g.quantity !== 0n)
-    .map((g) => ({ ...g.line, quantity: microToDecimal(g.quantity), amount_minor: roundMinor(g.exact) }))
+    .map((g) => ({ ...g.line, description: describe(g), quantity: microToDecimal(g.quantity), amount_minor: roundMinor(g.exact) }))
     .sort(
       (a, b) =>
         a.projectCode.localeCompare(b.projectCode) ||

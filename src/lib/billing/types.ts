@@ -45,6 +45,11 @@ export interface InvoiceView {
   lastPaymentError: string | null;
   periodStart: string;
   periodEnd: string;
+  statementReference: string;
+  /** Before tax and the tax, minor units; null on invoices sent before tax was kept. */
+  subtotal_minor: number | null;
+  tax_minor: number | null;
+  issuedOn: string | null;
 }
 
 export interface StatementView {

@@ -1,4 +1,4 @@
-/** Reporting periods for the waste view: calendar month, quarter or year (UTC dates, both ends inclusive). */
+/** Reporting periods for the waste view: calendar month, quarter or year (days as `lib/ledger/period.ts` defines them). */
 
 export type PeriodPreset = "month" | "quarter" | "year";
 
@@ -33,14 +33,6 @@ export function previousPeriod(preset: PeriodPreset, day: Date): Period {
         ? new Date(Date.UTC(y, m - (m % 3) - 3, 1))
         : new Date(Date.UTC(y - 1, 0, 1));
   return periodFor(preset, back);
-}
-
-/** Half-open instants for SQL: [from 00:00Z, the day after `to` 00:00Z). */
-export function periodBounds(period: Period): { start: Date; end: Date } {
-  const start = new Date(`${period.from}T00:00:00.000Z`);
-  const end = new Date(`${period.to}T00:00:00.000Z`);
-  end.setUTCDate(end.getUTCDate() + 1);
-  return { start, end };
 }
 
 /** "2026-11" for each month the period touches, in order. */

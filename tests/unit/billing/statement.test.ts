@@ -80,9 +80,20 @@ describe("statement lines at the rates in force", () => {
       currency: "EUR",
     });
     expect(graded.lines.map((l) => [l.description, l.amount_minor])).toEqual([
-      ["Acetonitrile (HPLC)", 7900],
-      ["Acetonitrile (LC-MS)", 12_000],
+      ["Acetonitrile, grade HPLC", 7900],
+      ["Acetonitrile, grade LC-MS", 12_000],
     ]);
+  });
+
+  it("one line per price: lots of several grades at the reagent's general price share a line that names the grades", () => {
+    // Before: "Acetonitrile" and "Acetonitrile (HPLC)" were two lines at the same €79/L.
+    const shared = buildStatement({
+      usage: [use("2026-11-03", "1000", { grade: null }), use("2026-11-04", "500", { grade: "HPLC" })],
+      rates,
+      priceList: "external",
+      currency: "EUR",
+    });
+    expect(shared.lines.map((l) => [l.description, l.quantity, l.amount_minor])).toEqual([["Acetonitrile, grade HPLC", "1500", 11_850]]);
   });
 
   it("flags reagents without a rate instead of charging them", () => {

@@ -2,7 +2,8 @@
 // the institution's rules and local regulations decide the real ones.
 import { describe, expect, it } from "vitest";
 import { accumulationState, alertMessage, containerAlerts, EXAMPLE_LIMITS, fillState } from "../../../src/lib/waste/alerts";
-import { monthsIn, periodBounds, periodFor, previousPeriod } from "../../../src/lib/waste/period";
+import { periodBounds } from "../../../src/lib/ledger/period";
+import { monthsIn, periodFor, previousPeriod } from "../../../src/lib/waste/period";
 
 describe("fillState at an 80 % threshold", () => {
   it.each([
@@ -96,7 +97,8 @@ describe("reporting periods", () => {
     expect(previousPeriod("quarter", new Date("2026-02-15T00:00:00Z"))).toEqual({ from: "2025-10-01", to: "2025-12-31" });
   });
   it("includes the whole last day", () => {
-    const { start, end } = periodBounds({ from: "2026-02-01", to: "2026-02-28" });
+    // A waste period is the one period definition (lib/ledger/period.ts), here in UTC.
+    const [start, end] = periodBounds("2026-02-01", "2026-02-28", "UTC");
     expect(start.toISOString()).toBe("2026-02-01T00:00:00.000Z");
     expect(end.toISOString()).toBe("2026-03-01T00:00:00.000Z");
   });

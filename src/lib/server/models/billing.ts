@@ -1,6 +1,7 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from "sequelize";
 import type { PriceList, RateKind, RateUnit } from "../../billing/rates";
 import type { StatementLine } from "../../billing/statement";
+import type { InvoiceDetails } from "../../billing/invoice";
 import type { InvoiceStatus, StatementStatus } from "../../billing/types";
 
 /** A price; never edited in place: a later effective-from supersedes it. */
@@ -61,6 +62,12 @@ export class Invoice extends Model<InferAttributes<Invoice>, InferCreationAttrib
   declare uncollectibleAt: Date | null;
   declare paymentFailedAt: Date | null;
   declare lastPaymentError: string | null;
+  /** Before tax, the tax, both in minor units; amountMinor is their sum. */
+  declare subtotalMinor: CreationOptional<number | null>;
+  declare taxMinor: CreationOptional<number | null>;
+  declare issuedOn: CreationOptional<string | null>;
+  /** Both parties' details and the lines as printed, frozen when the invoice is sent. */
+  declare details: CreationOptional<InvoiceDetails | null>;
   declare createdBy: number | null;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
@@ -142,6 +149,10 @@ export function initBillingModels(sequelize: Sequelize) {
       uncollectibleAt: { type: DataTypes.DATE(3), allowNull: true },
       paymentFailedAt: { type: DataTypes.DATE(3), allowNull: true },
       lastPaymentError: { type: DataTypes.STRING(255), allowNull: true },
+      subtotalMinor: { type: DataTypes.INTEGER, allowNull: true },
+      taxMinor: { type: DataTypes.INTEGER, allowNull: true },
+      issuedOn: { type: DataTypes.DATEONLY, allowNull: true },
+      details: { type: DataTypes.JSON, allowNull: true },
       createdBy: { type: uint, allowNull: true },
       createdAt: DataTypes.DATE(3),
       updatedAt: DataTypes.DATE(3),

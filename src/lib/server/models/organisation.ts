@@ -1,3 +1,4 @@
+import type { TaxTreatment } from "../../billing/invoice";
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from "sequelize";
 
 export class Client extends Model<InferAttributes<Client>, InferCreationAttributes<Client>> {
@@ -9,6 +10,15 @@ export class Client extends Model<InferAttributes<Client>, InferCreationAttribut
   /** External clients are invoiced at this address. */
   declare billingEmail: string | null;
   declare paymentsCustomerId: string | null;
+  /** Printed on invoices: postal address (lines), tax id, the client's purchase order. */
+  declare billingAddress: CreationOptional<string | null>;
+  declare taxId: CreationOptional<string | null>;
+  declare purchaseOrder: CreationOptional<string | null>;
+  /** How invoices to this client are taxed; the rate applies to "standard" only. */
+  declare taxTreatment: CreationOptional<TaxTreatment>;
+  declare taxRatePercent: CreationOptional<number | null>;
+  /** "VAT", "GST", "Sales tax". */
+  declare taxLabel: CreationOptional<string | null>;
   declare currency: CreationOptional<string>;
   declare active: CreationOptional<boolean>;
   declare createdAt: CreationOptional<Date>;
@@ -36,6 +46,12 @@ export function initOrganisationModels(sequelize: Sequelize) {
       costCentre: { type: DataTypes.STRING(40), allowNull: true },
       billingEmail: { type: DataTypes.STRING(254), allowNull: true },
       paymentsCustomerId: { type: DataTypes.STRING(64), allowNull: true },
+      billingAddress: { type: DataTypes.TEXT, allowNull: true },
+      taxId: { type: DataTypes.STRING(40), allowNull: true },
+      purchaseOrder: { type: DataTypes.STRING(60), allowNull: true },
+      taxTreatment: { type: DataTypes.ENUM("none", "standard", "zero_rated", "reverse_charge"), allowNull: false, defaultValue: "none" },
+      taxRatePercent: { type: DataTypes.DECIMAL(7, 4), allowNull: true },
+      taxLabel: { type: DataTypes.STRING(20), allowNull: true },
       currency: { type: DataTypes.CHAR(3), allowNull: false, defaultValue: "EUR" },
       active: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: true },
       createdAt: DataTypes.DATE(3),

@@ -1,8 +1,7 @@
 /** The home page's figures: recent volume per project and the live waste containers. */
-import { select } from "../query";
+import type { DayPeriod } from "../../ledger/period";
+import { usageByProject } from "./usage";
 import { listContainers } from "./waste/containers";
-
-const DAY = 86_400_000;
 
 export interface ProjectVolume {
   projectCode: string;
@@ -12,26 +11,21 @@ export interface ProjectVolume {
   runs: number;
 }
 
-/** Volume drawn per project over the last `days` days, optionally for one client organisation. */
-export async function recentUsageByProject(days: number, clientId: number | null = null, now = new Date()): Promise<ProjectVolume[]> {
-  const rows = await select<{ code: string; name: string; client: string; volume: number; runs: number }>(
-    `SELECT p.code, p.name, c.name AS client, COALESCE(SUM(l.volume_ml), 0) AS volume,
-            COUNT(DISTINCT CASE WHEN l.kind = 'run' THEN l.source_id END) AS runs
-       FROM projects p
-       JOIN clients c ON c.id = p.client_id
-       LEFT JOIN ledger_entries l ON l.project_id = p.id AND l.occurred_at >= :since AND l.occurred_at < :until
-      WHERE (:clientId IS NULL OR p.client_id = :clientId)
-      GROUP BY p.id, p.code, p.name, c.name
-      ORDER BY volume DESC, p.code`,
-    { replacements: { since: new Date(now.getTime() - days * DAY), until: now, clientId } },
-  );
-  return rows.map((r) => ({
-    projectCode: r.code,
-    projectName: r.name,
-    clientName: r.client,
-    volume_mL: r.volume,
-    runs: r.runs,
-  }));
+/**
+ * Volume and runs per project over a period, optionally for one client organisation: the usage
+ * screen's own figures (`usageByProject`), so the overview and /usage never disagree.
+ */
+export async function recentUsageByProject(period: DayPeriod, clientId: number | null = null): Promise<ProjectVolume[]> {
+  const answer = await usageByProject({ ...period, groupBy: "project" }, { clientId });
+  return answer.rows
+    .map((row) => ({
+      projectCode: row.projectCode,
+      projectName: row.projectName,
+      clientName: row.clientName,
+      volume_mL: Object.values(row.volumes_mL).reduce((sum, v) => sum + v, 0),
+      runs: row.runs,
+    }))
+    .sort((a, b) => b.volume_mL - a.volume_mL || a.projectCode.localeCompare(b.projectCode));
 }
 
 export interface ContainerFill {

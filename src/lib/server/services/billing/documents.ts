@@ -5,9 +5,14 @@
  */
 import { Op } from "sequelize";
 import { journalCsv, statementCsv, statementReference, type JournalStatement } from "../../../billing/statement";
+import type { InvoiceDetails } from "../../../billing/invoice";
+import { renderInvoicePdf } from "../../../billing/invoice-pdf";
 import { renderStatementPdf } from "../../../billing/statement-pdf";
+import { can } from "../../../permissions";
 import type { SignedInUser } from "../../guard";
-import { Statement } from "../../models/billing";
+import { HttpError } from "../../http";
+import { Invoice, Statement } from "../../models/billing";
+import { jsonColumn } from "../../query";
 import { Client } from "../../models/organisation";
 import { facilityName } from "./settings";
 import { getStatement } from "./statements";
@@ -15,6 +20,15 @@ import { getStatement } from "./statements";
 export async function statementPdf(id: number, viewer: SignedInUser): Promise<{ bytes: Uint8Array; fileName: string }> {
   const view = await getStatement(id, viewer); // scopes and refreshes a draft
   return { bytes: await renderStatementPdf({ ...view, facility: await facilityName() }), fileName: `${view.reference}.pdf` };
+}
+
+/** An invoice's own PDF, from the details frozen when it was sent; client contacts get their organisation's only. */
+export async function invoicePdf(id: number, viewer: SignedInUser): Promise<{ bytes: Uint8Array; fileName: string }> {
+  const invoice = await Invoice.findByPk(id);
+  const visible = invoice && (can(viewer.role, "read:invoice") || invoice.clientId === viewer.clientId);
+  if (!invoice || !visible || !invoice.details) throw new HttpError(404, `No invoice ${id}.`);
+  const details = jsonColumn<InvoiceDetails>(invoice.details);
+  return { bytes: await renderInvoicePdf({ details, status: invoice.status }), fileName: `${details.number}.pdf` };
 }
 
 export async function statementCsvFile(id: number, viewer: SignedInUser): Promise<{ text: string; fileName: string }> {

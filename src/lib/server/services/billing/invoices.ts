@@ -3,6 +3,7 @@
  * manager's follow-up on one (/api/invoices/[id]/void, /uncollectible) through the provider's SDK.
  */
 import type Stripe from "stripe";
+import { statementReference } from "../../../billing/statement";
 import type { InvoiceView } from "../../../billing/types";
 import { can } from "../../../permissions";
 import { recordAudit } from "../../audit";
@@ -34,6 +35,10 @@ export function invoiceView(invoice: Invoice, client: Client, statement: Stateme
     lastPaymentError: invoice.lastPaymentError,
     periodStart: String(statement.periodStart),
     periodEnd: String(statement.periodEnd),
+    statementReference: statementReference(statement.id),
+    subtotal_minor: invoice.subtotalMinor ?? null,
+    tax_minor: invoice.taxMinor ?? null,
+    issuedOn: invoice.issuedOn ? String(invoice.issuedOn) : null,
   };
 }
 
@@ -50,6 +55,15 @@ export async function listInvoices(viewer: SignedInUser): Promise<InvoiceView[]>
   const clients = new Map((await Client.findAll()).map((c) => [c.id, c]));
   const statements = new Map((await Statement.findAll({ where: { id: invoices.map((i) => i.statementId) } })).map((s) => [s.id, s]));
   return invoices.map((i) => invoiceView(i, clients.get(i.clientId)!, statements.get(i.statementId)!));
+}
+
+/** One invoice; a client contact gets their organisation's only (404 otherwise, as for a missing one). */
+export async function getInvoice(id: number, viewer: SignedInUser): Promise<InvoiceView> {
+  const invoice = await Invoice.findByPk(id);
+  if (!invoice || !(can(viewer.role, "read:invoice") || invoice.clientId === viewer.clientId))
+    throw new HttpError(404, `No invoice ${id}.`);
+  const [client, statement] = await Promise.all([Client.findByPk(invoice.clientId), Statement.findByPk(invoice.statementId)]);
+  return invoiceView(invoice, client!, statement!);
 }
 
 async function invoiceAction(

@@ -4,7 +4,8 @@
  */
 import type { Transaction } from "sequelize";
 import Stripe from "stripe";
-import { quantityLabel, statementReference } from "../../../billing/statement";
+import { addDays, invoiceLines, invoiceTax, type InvoiceDetails } from "../../../billing/invoice";
+import { statementReference } from "../../../billing/statement";
 import type { InvoiceStatus, InvoiceView } from "../../../billing/types";
 import { recordAudit } from "../../audit";
 import { getSequelize } from "../../db";
@@ -17,7 +18,8 @@ import { inTransaction } from "../sql";
 import { mailInvoice } from "./invoice-mail";
 import { invoiceView } from "./invoices";
 import { fromUnix, providerError, statementKey } from "./provider";
-import { daysUntilDue } from "./settings";
+import { ensureInvoiceSeries, takeInvoiceNumber } from "./invoice-numbers";
+import { facilityDetails } from "./settings";
 import { issueLocked } from "./statement-issue";
 
 /** The client's customer at the provider: reused by its stored id, else created under the statement's key. */
@@ -63,6 +65,7 @@ export async function invoiceStatement(
 ): Promise<{ invoice: InvoiceView; created: boolean }> {
   const now = deps.now ?? new Date();
   const payments = deps.payments ?? getPayments();
+  await ensureInvoiceSeries((await facilityDetails()).invoicePrefix, now.getUTCFullYear());
   const result = await inTransaction(getSequelize(), async (transaction) => {
     const statement = await Statement.findByPk(id, { transaction, lock: transaction.LOCK.UPDATE });
     if (!statement) throw new HttpError(404, `No statement ${id}.`);
@@ -98,54 +101,108 @@ export async function invoiceStatement(
     const key = statementKey(statement);
     const reference = statementReference(statement.id);
     const currency = statement.currency.toLowerCase();
-    const dueDays = await daysUntilDue(transaction);
+    const facility = await facilityDetails(transaction);
+    const issuedOn = now.toISOString().slice(0, 10);
+    // A number already committed to this invoice (a send whose answer was lost) is kept: no gap, no second number.
+    const number = invoice.number ?? (await takeInvoiceNumber(facility.invoicePrefix, now.getUTCFullYear(), transaction));
+    const tax = invoiceTax(client.taxTreatment, client.taxRatePercent, client.taxLabel);
+    const totals = invoiceLines(statement.lines, tax);
+    const details: InvoiceDetails = {
+      number,
+      statementReference: reference,
+      periodStart: String(statement.periodStart),
+      periodEnd: String(statement.periodEnd),
+      issuedOn,
+      dueOn: addDays(issuedOn, facility.paymentTermsDays),
+      facility,
+      client: {
+        name: client.name,
+        address: client.billingAddress ?? null,
+        taxId: client.taxId ?? null,
+        purchaseOrder: client.purchaseOrder ?? null,
+        email: client.billingEmail,
+      },
+      tax,
+      ...totals,
+      currency: statement.currency,
+    };
+    // Keys carry the number: a send that rolled back gave its number back, and the retry's number is new.
+    const sendKey = `${key}-${number}`;
     try {
       const customerId = await ensureCustomer(payments, client, key, transaction);
+      const taxRate =
+        tax.percent === null
+          ? null
+          : await payments.taxRates.create(
+              {
+                display_name: tax.label ?? "VAT",
+                percentage: Number(tax.percent),
+                inclusive: false,
+                ...(tax.legend ? { description: tax.legend } : {}),
+              },
+              { idempotencyKey: `${sendKey}-tax` },
+            );
       const draft = await payments.invoices.create(
         {
           customer: customerId,
           collection_method: "send_invoice",
-          days_until_due: dueDays,
+          days_until_due: facility.paymentTermsDays,
           auto_advance: false,
           currency,
+          number,
           pending_invoice_items_behavior: "exclude",
-          description: `LC core facility use, ${statement.periodStart} to ${statement.periodEnd} (${reference})`,
-          metadata: { decant_statement_id: String(statement.id), decant_statement_ref: reference, decant_client_id: String(client.id) },
+          description: `${facility.legalName}: invoice ${number} for statement ${reference}, ${statement.periodStart} to ${statement.periodEnd}`,
+          ...(tax.legend ? { footer: tax.legend } : {}),
+          metadata: {
+            decant_statement_id: String(statement.id),
+            decant_statement_ref: reference,
+            decant_client_id: String(client.id),
+            decant_invoice_number: number,
+          },
         },
-        { idempotencyKey: `${key}-invoice` },
+        { idempotencyKey: `${sendKey}-invoice` },
       );
       const providerId = draft.id!;
-      const lines = statement.lines.filter((line) => line.amount_minor !== 0);
-      for (const [index, line] of lines.entries()) {
+      for (const [index, line] of totals.lines.entries()) {
         await payments.invoiceItems.create(
           {
             customer: customerId,
             invoice: providerId,
             amount: line.amount_minor,
             currency,
-            description: `${line.projectCode} · ${line.description}: ${quantityLabel(line)}`,
+            description: `${line.projectCode} · ${line.description}`,
+            ...(taxRate ? { tax_rates: [taxRate.id] } : {}),
             metadata: { decant_statement_id: String(statement.id), project_code: line.projectCode },
           },
-          { idempotencyKey: `${key}-item-${index}` },
+          { idempotencyKey: `${sendKey}-item-${index}` },
         );
       }
-      const finalized = await payments.invoices.finalizeInvoice(providerId, { auto_advance: false }, { idempotencyKey: `${key}-finalize` });
-      if (finalized.total !== statement.totalMinor) {
+      const finalized = await payments.invoices.finalizeInvoice(
+        providerId,
+        { auto_advance: false },
+        { idempotencyKey: `${sendKey}-finalize` },
+      );
+      const providerTax = finalized.total - (finalized.subtotal ?? finalized.total);
+      if (finalized.total !== totals.total_minor || providerTax !== totals.tax_minor) {
         throw new HttpError(
           502,
-          `The payments service totals ${finalized.total} but the statement totals ${statement.totalMinor}; nothing was sent.`,
+          `The payments service totals ${finalized.total} (tax ${providerTax}) but invoice ${number} totals ${totals.total_minor} (tax ${totals.tax_minor}); nothing was sent.`,
         );
       }
-      const sent = await payments.invoices.sendInvoice(providerId, {}, { idempotencyKey: `${key}-send` });
+      const sent = await payments.invoices.sendInvoice(providerId, {}, { idempotencyKey: `${sendKey}-send` });
       await invoice.update(
         {
           providerInvoiceId: providerId,
           providerCustomerId: customerId,
-          number: sent.number ?? null,
+          number,
           hostedUrl: sent.hosted_invoice_url ?? null,
           status: (sent.status as InvoiceStatus | null) ?? "open",
-          amountMinor: sent.total,
-          dueOn: sent.due_date ? new Date(sent.due_date * 1000).toISOString().slice(0, 10) : null,
+          amountMinor: totals.total_minor,
+          subtotalMinor: totals.subtotal_minor,
+          taxMinor: totals.tax_minor,
+          issuedOn,
+          details,
+          dueOn: details.dueOn,
           finalizedAt: fromUnix(sent.status_transitions?.finalized_at) ?? now,
           sentAt: now,
           paidAt: sent.status === "paid" ? (fromUnix(sent.status_transitions?.paid_at) ?? now) : null,

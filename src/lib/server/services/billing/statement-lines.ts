@@ -34,6 +34,7 @@ interface CountSumRow {
 // Days are the facility's local days: the offset in force at each instant (facility_utc_offsets).
 const LOCAL_OCCURRED =
   "(le.occurred_at + INTERVAL COALESCE((SELECT o.offset_minutes FROM facility_utc_offsets o WHERE o.starts_at <= le.occurred_at ORDER BY o.starts_at DESC LIMIT 1), 0) MINUTE)";
+const LOCAL_FIRST_USE = LOCAL_OCCURRED.replaceAll("le.occurred_at", "first_use.occurred_at");
 const LOCAL_STARTED =
   "(ru.started_at + INTERVAL COALESCE((SELECT o.offset_minutes FROM facility_utc_offsets o WHERE o.starts_at <= ru.started_at ORDER BY o.starts_at DESC LIMIT 1), 0) MINUTE)";
 
@@ -57,15 +58,20 @@ const INJECTION_SUMS = `
    WHERE p.client_id = :clientId AND ru.started_at >= :start AND ru.started_at < :end
    GROUP BY p.code, p.name, day`;
 
-// A batch prepared for a project carries one preparation fee, on the day it was made.
+// Batches are made for the facility, not for a project: a batch's preparation fee is charged once,
+// to the project that first draws from it (a run or a draw), on the day of that first use.
 const PREPARATION_COUNTS = `
-  SELECT b.project_code, b.project_name, b.day, COUNT(*) AS count FROM (
-    SELECT p.code AS project_code, p.name AS project_name, le.batch_id, DATE_FORMAT(MIN(${LOCAL_OCCURRED}), '%Y-%m-%d') AS day
-      FROM ledger_entries le JOIN projects p ON p.id = le.project_id
-     WHERE p.client_id = :clientId AND le.kind = 'preparation' AND le.batch_id IS NOT NULL
-     GROUP BY p.code, p.name, le.batch_id) b
-   WHERE b.day >= :startDay AND b.day <= :endDay
-   GROUP BY b.project_code, b.project_name, b.day`;
+  SELECT p.code AS project_code, p.name AS project_name, DATE_FORMAT(${LOCAL_FIRST_USE}, '%Y-%m-%d') AS day, COUNT(*) AS count
+    FROM (SELECT DISTINCT le.batch_id FROM ledger_entries le JOIN projects p ON p.id = le.project_id
+           WHERE p.client_id = :clientId AND le.occurred_at >= :start AND le.occurred_at < :end
+             AND le.batch_id IS NOT NULL AND le.kind IN ('run', 'draw')) used
+    JOIN ledger_entries first_use ON first_use.id = (
+         SELECT f.id FROM ledger_entries f
+          WHERE f.batch_id = used.batch_id AND f.project_id IS NOT NULL AND f.kind IN ('run', 'draw')
+          ORDER BY f.occurred_at, f.id LIMIT 1)
+    JOIN projects p ON p.id = first_use.project_id
+   WHERE p.client_id = :clientId AND first_use.occurred_at >= :start AND first_use.occurred_at < :end
+   GROUP BY p.code, p.name, day`;
 
 const counts = (rows: CountSumRow[]): CountRow[] =>
   rows.map((r) => ({ projectCode: r.project_code, projectName: r.project_name, day: r.day, count: r.count }));
