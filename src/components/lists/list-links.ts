@@ -32,5 +32,7 @@ export function csvHref(apiPath: string, current: URLSearchParams): string {
 
 /** Whether the view narrows the list (a search or a filter), so an empty page says "nothing matches" rather than "nothing yet". */
 export function isFiltered(current: URLSearchParams): boolean {
-  return [...current.entries()].some(([key, value]) => !["sort", "dir", "cursor", "limit"].includes(key) && value !== "");
+  return [...current.entries()].some(
+    ([key, value]) => !["sort", "dir", "cursor", "limit", "format"].includes(key) && value !== "" && value !== "all",
+  );
 }
