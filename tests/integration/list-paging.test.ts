@@ -35,6 +35,8 @@ async function insertAudit(entity: string, slots: number[]): Promise<number[]> {
   return ids;
 }
 
+let runSerial = 0;
+
 async function insertRuns(prefix: string, slots: number[]): Promise<number[]> {
   const ids: number[] = [];
   for (const slot of slots) {
@@ -43,7 +45,7 @@ async function insertRuns(prefix: string, slots: number[]): Promise<number[]> {
        VALUES (?, ?, ?, ?, ?, ?, 1, 0, 0, '{}', '{}', NOW(), NOW())`,
       {
         type: QueryTypes.INSERT,
-        replacements: [refs.instrumentId, refs.methodId, refs.projectId, refs.userId, `${prefix}-${ids.length}-${slot}`, timeOf(slot)],
+        replacements: [refs.instrumentId, refs.methodId, refs.projectId, refs.userId, `${prefix}-${++runSerial}-${slot}`, timeOf(slot)],
       },
     );
     ids.push(Number(id));
