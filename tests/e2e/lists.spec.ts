@@ -48,7 +48,7 @@ test("a manager follows a record's History link to its audit trail, filters it b
   await form.getByLabel("System").fill("HPLC, quaternary pump");
   await form.getByLabel("Room").fill("B2.16");
   await form.getByRole("button", { name: "Add the instrument" }).click();
-  await page.goto("/instruments");
+  await expect(page.getByRole("row").filter({ hasText: name })).toBeVisible();
   await page.getByRole("row").filter({ hasText: name }).getByRole("link", { name: "Change" }).click();
   await page.getByTestId("history-link").click();
 
