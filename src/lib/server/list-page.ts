@@ -21,7 +21,7 @@ export interface Condition {
 export interface ListSpec {
   /** The selected columns, without SELECT. */
   columns: string;
-  /** FROM and JOINs, without WHERE. */
+  /** FROM and JOINs, without WHERE: the listed table first (it is joined in this order), lookups after it. */
   from: string;
   /** The unique, never-null tie breaker, e.g. `r.id`. */
   id: string;
@@ -69,7 +69,9 @@ async function fetchRows<Row extends object>(
   }
   replacements.listLimit = limit + 1;
   const rows = await select<Row & { list_sort_value: unknown; list_row_id: number }>(
-    `SELECT ${spec.columns}, ${expression} AS list_sort_value, ${spec.id} AS list_row_id
+    // STRAIGHT_JOIN: the listed table first, as written, so that its (value, id) index gives the order and
+    // the LIMIT stops the walk; otherwise the optimiser may start from a small joined table and sort everything.
+    `SELECT STRAIGHT_JOIN ${spec.columns}, ${expression} AS list_sort_value, ${spec.id} AS list_row_id
        FROM ${spec.from}
       ${where.length ? `WHERE ${where.join(" AND ")}` : ""}
       ORDER BY ${expression} ${dir}, ${spec.id} ${dir}
