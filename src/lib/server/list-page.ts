@@ -29,8 +29,8 @@ export interface ListSpec {
   sorts: Record<string, string>;
   defaultSort: string;
   defaultDir: "asc" | "desc";
-  /** The condition a search text adds, or none when the list has no search. */
-  search?: (q: string) => Condition;
+  /** The condition a search text adds (it may look something up first), or none when the list has no search. */
+  search?: (q: string) => Condition | Promise<Condition>;
 }
 
 interface Resolved {
@@ -46,8 +46,8 @@ function resolveSort(spec: ListSpec, query: Pick<ListQuery, "sort" | "dir">): Re
   return { sort, dir: query.dir ?? (query.sort ? "asc" : spec.defaultDir), expression };
 }
 
-function conditionsOf(spec: ListSpec, query: Pick<ListQuery, "q">, filters: Condition[]): Condition[] {
-  return [...filters, ...(query.q && spec.search ? [spec.search(query.q)] : [])];
+async function conditionsOf(spec: ListSpec, query: Pick<ListQuery, "q">, filters: Condition[]): Promise<Condition[]> {
+  return [...filters, ...(query.q && spec.search ? [await spec.search(query.q)] : [])];
 }
 
 async function fetchRows<Row extends object>(
@@ -101,7 +101,7 @@ export async function listPage<Row extends object>(
     }
     after = { value: cursor.value, id: cursor.id };
   }
-  const { rows, last, more } = await fetchRows<Row>(spec, resolved, conditionsOf(spec, query, filters), after, query.limit);
+  const { rows, last, more } = await fetchRows<Row>(spec, resolved, await conditionsOf(spec, query, filters), after, query.limit);
   const nextCursor =
     more && last
       ? encodeCursor({
@@ -135,7 +135,7 @@ export function csvResponse<Row extends object, Item>(
   fileName: string,
 ): Response {
   const resolved = resolveSort(spec, query);
-  const conditions = conditionsOf(spec, query, filters);
+  let conditions: Condition[] = [];
   const encoder = new TextEncoder();
   let after: { value: unknown; id: number } | null = null;
   let started = false;
@@ -144,6 +144,7 @@ export function csvResponse<Row extends object, Item>(
     async pull(controller) {
       if (!started) {
         started = true;
+        conditions = await conditionsOf(spec, query, filters);
         controller.enqueue(encoder.encode(csvLine(columns.map((c) => c.header))));
         return;
       }
