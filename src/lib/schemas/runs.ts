@@ -1,5 +1,5 @@
 import { z } from "zod";
-import { amount, CHANNELS, day, id, idempotencyKey, instant, optionalId, wholeNumber } from "./fields";
+import { amount, CHANNELS, day, id, idempotencyKey, instant, localInstant, optionalId, wholeNumber } from "./fields";
 import { anyOr, listQuery } from "./lists";
 
 /** The batch on each pump channel; unused channels are left out (or blank). */
@@ -28,6 +28,9 @@ export const runSchema = z.object({
   idempotencyKey,
 });
 export type RunInput = z.infer<typeof runSchema>;
+
+/** The run form: the same, with the start time typed as a wall-clock time in the facility's zone. */
+export const runFormSchema = (timeZone: string) => runSchema.extend({ startedAt: localInstant("Enter the start time", timeZone) });
 
 export const DRAW_PURPOSES = ["wash", "spill", "transfer", "other"] as const;
 
