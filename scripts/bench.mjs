@@ -11,11 +11,11 @@ import { join } from "node:path";
 import { appServerCommand } from "./lib/app-server.mjs";
 import { bin, ensureNodeModules, fail, log, portAnswers, portIsFree, ProcessGroup, ROOT, run, waitFor } from "./lib/util.mjs";
 
-const PARTS = ["usage", "http", "labels", "chem", "import", "pages", "startup"];
+const PARTS = ["usage", "http", "labels", "chem", "import", "pages", "lists", "startup"];
 const asked = process.argv.slice(2);
 for (const a of asked) if (!PARTS.includes(a)) fail(`Unknown benchmark part "${a}"; choose from ${PARTS.join(", ")}.`);
 const wants = (part) => asked.length === 0 || asked.includes(part);
-const needsApp = ["usage", "http", "import", "pages"].some(wants);
+const needsApp = ["usage", "http", "import", "pages", "lists"].some(wants);
 
 const APP_PORT = Number(process.env.DECANT_BENCH_APP_PORT || 4341);
 const START_PORT = Number(process.env.DECANT_BENCH_START_PORT || 4342);
@@ -186,6 +186,7 @@ try {
   await part("chem", async () => rows.push(...(await runModule("chem.bench.ts", {})).ROWS));
   await part("import", async () => rows.push(...(await runModule("import.bench.ts", benchEnv)).ROWS));
   await part("pages", async () => rows.push(...(await runModule("pages.bench.ts", benchEnv)).ROWS));
+  await part("lists", async () => rows.push(...(await runModule("lists.bench.ts", benchEnv)).ROWS));
 } catch (error) {
   process.stderr.write(`decant: ${error instanceof Error ? error.message : error}\n`);
   rows.push({

@@ -17,6 +17,7 @@ import * as lotAssay from "./migrations/2026.12.04T04.00.00.lot-assay";
 import * as signInSecurity from "./migrations/2026.12.04T03.00.00.sign-in-security";
 import * as ledgerDailyLocalDays from "./migrations/2026.12.04T08.00.00.ledger-daily-local-days";
 import * as invoiceDocuments from "./migrations/2026.12.04T07.00.00.invoice-documents";
+import * as listPagingIndexes from "./migrations/2026.12.04T09.00.00.list-paging-indexes";
 import * as demoFacility from "./seeders/2026.12.01T00.00.00.demo-facility";
 import * as demoPreparation from "./seeders/2026.12.01T02.00.00.demo-preparation";
 import * as wasteDemo from "./seeders/2026.12.01T05.00.00.waste-demo";
@@ -51,6 +52,7 @@ export const MIGRATIONS: Record<string, MigrationModule> = {
   "2026.12.04T03.00.00.sign-in-security.ts": signInSecurity,
   "2026.12.04T08.00.00.ledger-daily-local-days.ts": ledgerDailyLocalDays,
   "2026.12.04T07.00.00.invoice-documents.ts": invoiceDocuments,
+  "2026.12.04T09.00.00.list-paging-indexes.ts": listPagingIndexes,
 };
 
 export const SEEDERS: Record<string, MigrationModule> = {

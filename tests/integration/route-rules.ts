@@ -90,6 +90,7 @@ export const ROUTE_RULES: Record<string, RouteRule> = {
   "home.astro": { methods: { GET: need("read:dashboard") } },
   "account.astro": { methods: { GET: need("read:own-account") } },
   "users/index.astro": { methods: { GET: need("manage:user") } },
+  "audit.astro": { methods: { GET: need("read:audit") } },
   "batches/index.astro": { methods: { GET: need("read:batch") } },
   "dev/inbox/index.astro": { methods: { GET: need("read:dev-inbox") } },
   "dev/inbox/[id].astro": { methods: { GET: need("read:dev-inbox") }, params: (s) => ({ id: s.messageId }) },
@@ -127,6 +128,7 @@ export const ROUTE_RULES: Record<string, RouteRule> = {
   // Allowed roles really send a link (to the sample user, who is no sign-in account).
   "api/users/[id]/link.ts": { methods: { POST: need("manage:user") }, params: (s) => ({ id: s.userId }) },
   "api/batches/index.ts": { methods: { GET: need("read:batch"), POST: need("create:batch") } },
+  "api/audit/index.ts": { methods: { GET: need("read:audit") } },
 
   // Preparation, runs, ledger, instruments and usage (issues 4 and 5): each row written from the
   // route's own requirePermission / guardPage call. Whoever changes a route's rule changes its row.

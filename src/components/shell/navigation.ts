@@ -30,6 +30,7 @@ export const NAV_ITEMS: NavItem[] = [
   { href: "/rates", label: "Rates", permission: "manage:rate" },
   { href: "/waste", label: "Waste", permission: "read:waste" },
   { href: "/users", label: "People", permission: "manage:user" },
+  { href: "/audit", label: "Audit trail", permission: "read:audit" },
   { href: "/settings/sign-in", label: "Sign-in & sessions", permission: "manage:settings" },
   { href: "/dev/inbox", label: "Mail outbox (dev)", permission: "read:dev-inbox", devMailOnly: true },
   { href: "/account", label: "My account", permission: "read:own-account" },

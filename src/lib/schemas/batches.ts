@@ -1,11 +1,16 @@
 import { z } from "zod";
+import { day, id } from "./fields";
+import { anyOr, listQuery } from "./lists";
 
-/** `GET /api/batches` query. */
-export const batchListQuery = z
-  .object({
+/** `GET /api/batches` and `/batches`: a page, a search (code, mobile phase), a sort, and the filters of the batch list. */
+export const batchListQuery = listQuery
+  .extend({
     /** Only batches in this state. */
-    status: z.enum(["ready", "in_use", "empty", "discarded"]).optional(),
-    /** At most this many, newest first. */
-    limit: z.coerce.number().int().min(1).max(1000).default(200),
+    status: anyOr(z.enum(["ready", "in_use", "empty", "discarded"])),
+    recipe: anyOr(id()),
+    /** Prepared on or after this day. */
+    from: anyOr(day()),
+    to: anyOr(day()),
   })
   .strict();
+export type BatchListQuery = z.infer<typeof batchListQuery>;

@@ -1,5 +1,6 @@
 import { z } from "zod";
-import { amount, CHANNELS, id, idempotencyKey, instant, localInstant, optionalId, wholeNumber } from "./fields";
+import { amount, CHANNELS, day, id, idempotencyKey, instant, localInstant, optionalId, wholeNumber } from "./fields";
+import { anyOr, listQuery } from "./lists";
 
 /** The batch on each pump channel; unused channels are left out (or blank). */
 const channelBatches = z
@@ -51,4 +52,14 @@ export const drawSchema = z
 export type DrawInput = z.infer<typeof drawSchema>;
 
 /** `GET /api/runs` query. */
-export const runListQuery = z.object({ limit: z.coerce.number().int().min(1).max(500).default(50) }).strict();
+/** `GET /api/runs` and `/runs`: a page, a search, a sort, and the filters of the run list. */
+export const runListQuery = listQuery
+  .extend({
+    instrument: anyOr(id()),
+    project: anyOr(id()),
+    from: anyOr(day()),
+    to: anyOr(day()),
+  })
+  .strict();
+export type RunListQuery = z.infer<typeof runListQuery>;
+export type RunListFilter = Pick<RunListQuery, "instrument" | "project" | "from" | "to">;

@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { anyOr, listQuery } from "./lists";
 import { getReagent } from "../chem/reagents";
 import { day } from "./fields";
 const blankToUndefined = (v: unknown) => (v === "" || v === null ? undefined : v);
@@ -56,11 +57,12 @@ export const stockLotInputSchema = z
   });
 export type StockLotInput = z.infer<typeof stockLotInputSchema>;
 
-export const stockLotListQuery = z
-  .object({
-    reagent: z.string().max(64).optional(),
-    q: z.string().trim().max(64).optional(),
+/** `GET /api/stock-lots` and `/stock-lots`: a page, a search (lot number, supplier, reagent), a sort, and the filters. */
+export const stockLotListQuery = listQuery
+  .extend({
+    reagent: anyOr(z.string().max(64)),
     /** `usable`: in date and not used up (what a batch may take from). */
-    state: z.enum(["all", "usable", "expired", "low"]).default("all"),
+    state: z.preprocess((v) => (v === "" ? undefined : v), z.enum(["all", "usable", "expired", "low"]).default("all")),
   })
   .strict();
+export type StockLotListQuery = z.infer<typeof stockLotListQuery>;

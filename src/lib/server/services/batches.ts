@@ -10,6 +10,18 @@ import { describeSpec } from "../../preparation/plan";
 import type { BatchDetail, BatchSummary, BottleStatus } from "../../preparation/types";
 import { recipeSpecSchema, type RecipeSpec } from "../../schemas/recipes";
 import { HttpError } from "../http";
+import type { ListPage } from "../../lists/types";
+import type { BatchListQuery } from "../../schemas/batches";
+import {
+  csvResponse,
+  likeContains,
+  likePrefix,
+  listPage,
+  periodConditions,
+  type Condition,
+  type CsvColumn,
+  type ListSpec,
+} from "../list-page";
 import { jsonColumn, select, selectOne } from "../query";
 
 interface BatchListRow {
@@ -29,21 +41,36 @@ interface BatchListRow {
   measured_ph: number | null;
 }
 
-/** Batches, newest first, with the recipe they were made from. */
-export async function listBatches(options: { status?: string; limit?: number } = {}, now = new Date()): Promise<BatchSummary[]> {
-  const rows = await select<BatchListRow>(
-    `SELECT b.id, b.code, r.code AS recipe_code, r.name AS recipe_name, v.version, r.channel, b.volume_ml, b.remaining_ml,
-            b.bottles, b.status, b.prepared_at, b.expires_at, u.name AS prepared_by, b.measured_ph
-       FROM batches b
+const BATCH_COLUMNS = `b.id, b.code, r.code AS recipe_code, r.name AS recipe_name, v.version, r.channel, b.volume_ml, b.remaining_ml,
+            b.bottles, b.status, b.prepared_at, b.expires_at, u.name AS prepared_by, b.measured_ph`;
+
+/** The batch list: newest first on batches(prepared_at, id); a search finds a code by its start or a mobile phase by a word. */
+export const BATCH_LIST: ListSpec = {
+  columns: BATCH_COLUMNS,
+  from: `batches b
        JOIN recipe_versions v ON v.id = b.recipe_version_id
        JOIN recipes r ON r.id = v.recipe_id
-       JOIN users u ON u.id = b.prepared_by
-      WHERE (:status IS NULL OR b.status = :status)
-      ORDER BY b.prepared_at DESC, b.id DESC
-      LIMIT :limit`,
-    { replacements: { status: options.status ?? null, limit: options.limit ?? 200 } },
-  );
-  return rows.map((row) => ({
+       JOIN users u ON u.id = b.prepared_by`,
+  id: "b.id",
+  sorts: { prepared: "b.prepared_at", expires: "b.expires_at", code: "b.code", recipe: "r.name" },
+  defaultSort: "prepared",
+  defaultDir: "desc",
+  search: (q) => ({
+    sql: "b.code LIKE :batchCode OR r.name LIKE :batchRecipe OR r.code LIKE :batchCode",
+    replacements: { batchCode: likePrefix(q), batchRecipe: likeContains(q) },
+  }),
+};
+
+function batchFilters(query: BatchListQuery): Condition[] {
+  return [
+    ...(query.status ? [{ sql: "b.status = :batchStatus", replacements: { batchStatus: query.status } }] : []),
+    ...(query.recipe ? [{ sql: "r.id = :batchRecipeId", replacements: { batchRecipeId: query.recipe } }] : []),
+    ...periodConditions("b.prepared_at", "batchPrepared", query.from, query.to),
+  ];
+}
+
+function summariseBatch(row: BatchListRow, now: Date): BatchSummary {
+  return {
     id: row.id,
     code: row.code,
     recipeCode: row.recipe_code,
@@ -59,7 +86,45 @@ export async function listBatches(options: { status?: string; limit?: number } =
     preparedBy: row.prepared_by,
     measuredPH: row.measured_ph,
     expired: new Date(row.expires_at) <= now,
-  }));
+  };
+}
+
+/** One page of batches, newest first unless sorted otherwise, with the recipe each was made from. */
+export async function listBatches(query: BatchListQuery, now = new Date()): Promise<ListPage<BatchSummary>> {
+  const page = await listPage<BatchListRow>(BATCH_LIST, query, batchFilters(query));
+  return { items: page.items.map((row) => summariseBatch(row, now)), nextCursor: page.nextCursor };
+}
+
+const BATCH_CSV: CsvColumn<BatchSummary>[] = [
+  { header: "code", value: (b) => b.code },
+  { header: "recipe", value: (b) => b.recipeCode },
+  { header: "mobile_phase", value: (b) => b.recipeName },
+  { header: "version", value: (b) => b.recipeVersion },
+  { header: "prepared_at", value: (b) => b.preparedAt },
+  { header: "prepared_by", value: (b) => b.preparedBy },
+  { header: "expires_at", value: (b) => b.expiresAt },
+  { header: "volume_ml", value: (b) => b.volume_mL },
+  { header: "remaining_ml", value: (b) => b.remaining_mL },
+  { header: "bottles", value: (b) => b.bottles },
+  { header: "status", value: (b) => b.status },
+  { header: "measured_ph", value: (b) => b.measuredPH },
+];
+
+/** Every batch the query selects, as CSV. */
+export function exportBatches(query: BatchListQuery, now = new Date()): Response {
+  return csvResponse<BatchListRow, BatchSummary>(
+    BATCH_LIST,
+    query,
+    batchFilters(query),
+    (rows) => rows.map((row) => summariseBatch(row, now)),
+    BATCH_CSV,
+    "batches.csv",
+  );
+}
+
+/** Every recipe that has batches, for the list's filter. */
+export async function batchRecipeChoices(): Promise<{ id: number; code: string; name: string }[]> {
+  return select("SELECT id, code, name FROM recipes ORDER BY name");
 }
 
 /** A stored specification (or a snapshot holding one), or null when it no longer parses. */

@@ -4,6 +4,9 @@
  */
 import { round4 } from "../../ledger/plan-run";
 import type { ProjectChoice, RunSummary, UsableBatch } from "../../ledger/types";
+import type { ListPage } from "../../lists/types";
+import type { RunListFilter, RunListQuery } from "../../schemas/runs";
+import { csvResponse, likePrefix, listPage, periodConditions, type Condition, type CsvColumn, type ListSpec } from "../list-page";
 import { jsonColumn, select } from "../query";
 
 interface RunRow {
@@ -56,24 +59,79 @@ async function summarise(rows: RunRow[]): Promise<RunSummary[]> {
   }));
 }
 
-const RUN_SELECT = `
-  SELECT r.id, r.reference, i.name AS instrument, m.name AS method, p.code AS project_code, u.name AS operator, r.started_at,
+const RUN_COLUMNS = `r.id, r.reference, i.name AS instrument, m.name AS method, p.code AS project_code, u.name AS operator, r.started_at,
          r.injections, r.blanks, r.purge_ml, r.channel_batches, r.channel_volumes, r.import_id,
-         (SELECT SUM(l.volume_ml) FROM ledger_entries l WHERE l.source_id = CONCAT('run:', r.id)) AS ledger_ml
-    FROM runs r
+         (SELECT SUM(l.volume_ml) FROM ledger_entries l WHERE l.source_id = CONCAT('run:', r.id)) AS ledger_ml`;
+const RUN_FROM = `runs r
     JOIN instruments i ON i.id = r.instrument_id
     JOIN methods m ON m.id = r.method_id
     JOIN projects p ON p.id = r.project_id
     LEFT JOIN users u ON u.id = r.operator_id`;
+const RUN_SELECT = `SELECT ${RUN_COLUMNS} FROM ${RUN_FROM}`;
+
+/** The run list: newest first on runs(started_at, id); a search finds a run reference or a project code by its start. */
+export const RUN_LIST: ListSpec = {
+  columns: RUN_COLUMNS,
+  from: RUN_FROM,
+  id: "r.id",
+  sorts: {
+    started: "r.started_at",
+    reference: "COALESCE(r.reference, '')",
+    instrument: "i.name",
+    project: "p.code",
+    injections: "r.injections",
+  },
+  defaultSort: "started",
+  defaultDir: "desc",
+  // The projects are looked up first, so that both halves can use an index (runs_reference, runs_project_started);
+  // a subquery in the OR made MariaDB walk every run by its start instead (about 90 ms at 100,000 runs).
+  search: async (q) => {
+    const projects = await select<{ id: number }>("SELECT id FROM projects WHERE code LIKE ?", { replacements: [likePrefix(q)] });
+    return projects.length
+      ? {
+          sql: "r.reference LIKE :runSearch OR r.project_id IN (:runSearchProjects)",
+          replacements: { runSearch: likePrefix(q), runSearchProjects: projects.map((p) => p.id) },
+        }
+      : { sql: "r.reference LIKE :runSearch", replacements: { runSearch: likePrefix(q) } };
+  },
+};
+
+export function runFilters(filter: RunListFilter): Condition[] {
+  return [
+    ...(filter.instrument ? [{ sql: "r.instrument_id = :runInstrument", replacements: { runInstrument: filter.instrument } }] : []),
+    ...(filter.project ? [{ sql: "r.project_id = :runProject", replacements: { runProject: filter.project } }] : []),
+    ...periodConditions("r.started_at", "runStarted", filter.from, filter.to),
+  ];
+}
+
+/** One page of runs, newest first unless sorted otherwise. */
+export async function listRuns(query: RunListQuery): Promise<ListPage<RunSummary>> {
+  const page = await listPage<RunRow>(RUN_LIST, query, runFilters(query));
+  return { items: await summarise(page.items), nextCursor: page.nextCursor };
+}
+
+const RUN_CSV: CsvColumn<RunSummary>[] = [
+  { header: "started_at", value: (r) => r.startedAt },
+  { header: "reference", value: (r) => r.reference },
+  { header: "instrument", value: (r) => r.instrument },
+  { header: "method", value: (r) => r.method },
+  { header: "project", value: (r) => r.projectCode },
+  { header: "operator", value: (r) => r.operator },
+  { header: "injections", value: (r) => r.injections },
+  { header: "blanks", value: (r) => r.blanks },
+  { header: "pumped_ml", value: (r) => r.total_mL },
+  { header: "ledger_ml", value: (r) => r.ledger_mL },
+  { header: "id", value: (r) => r.id },
+];
+
+/** Every run the query selects, as CSV. */
+export function exportRuns(query: RunListQuery): Response {
+  return csvResponse<RunRow, RunSummary>(RUN_LIST, query, runFilters(query), summarise, RUN_CSV, "runs.csv");
+}
 
 export async function getRun(id: number): Promise<RunSummary | null> {
   const rows = await select<RunRow>(`${RUN_SELECT} WHERE r.id = ?`, { replacements: [id] });
   return (await summarise(rows))[0] ?? null;
-}
-
-export async function listRuns(limit = 50): Promise<RunSummary[]> {
-  const rows = await select<RunRow>(`${RUN_SELECT} ORDER BY r.started_at DESC, r.id DESC LIMIT ?`, { replacements: [limit] });
-  return summarise(rows);
 }
 
 /** Batches a run or draw may use now: not used up, not discarded, not expired. */
@@ -108,4 +166,13 @@ export async function openProjects(clientId: number | null = null): Promise<Proj
     "SELECT id, code, name FROM projects WHERE status <> 'closed' AND (:clientId IS NULL OR client_id = :clientId) ORDER BY code",
     { replacements: { clientId } },
   );
+}
+
+/** What the run list's filters offer: every instrument and every project, closed ones too (old runs stay findable). */
+export async function runFilterChoices(): Promise<{ instruments: { id: number; name: string }[]; projects: ProjectChoice[] }> {
+  const [instruments, projects] = await Promise.all([
+    select<{ id: number; name: string }>("SELECT id, name FROM instruments ORDER BY name"),
+    select<ProjectChoice>("SELECT id, code, name FROM projects ORDER BY code"),
+  ]);
+  return { instruments, projects };
 }

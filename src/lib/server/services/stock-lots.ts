@@ -1,9 +1,11 @@
 /** Stock lots: reagents as received, their certificates, and whether a batch may take from them. */
 import { UniqueConstraintError, type Transaction } from "sequelize";
-import { getReagent } from "../../chem";
+import { getReagent, reagents } from "../../chem";
+import type { ListPage } from "../../lists/types";
 import { lotExpired } from "../../preparation/expiry";
 import type { StockLotSummary } from "../../preparation/types";
-import type { StockLotInput } from "../../schemas/stock-lots";
+import type { StockLotInput, StockLotListQuery } from "../../schemas/stock-lots";
+import { csvResponse, likeContains, likePrefix, listPage, type Condition, type CsvColumn, type ListSpec } from "../list-page";
 import { recordAudit } from "../audit";
 import { getSequelize } from "../db";
 import type { SignedInUser } from "../guard";
@@ -69,31 +71,85 @@ function summarise(row: LotRow, now: Date): StockLotSummary {
   };
 }
 
-const SELECT = `SELECT l.id, l.reagent_id, l.lot_number, l.supplier, l.grade, l.received_on, l.opened_on, l.expires_on, l.quantity, l.remaining, l.room,
-                       l.assay_percent, l.density_g_ml, l.certificate_path, l.certificate_name, r.reorder_level, r.unit
-                  FROM stock_lots l LEFT JOIN reagents r ON r.id = l.reagent_id`;
+const LOT_COLUMNS = `l.id, l.reagent_id, l.lot_number, l.supplier, l.grade, l.received_on, l.opened_on, l.expires_on, l.quantity, l.remaining, l.room,
+                       l.assay_percent, l.density_g_ml, l.certificate_path, l.certificate_name, r.reorder_level, r.unit`;
+const LOT_FROM = "stock_lots l LEFT JOIN reagents r ON r.id = l.reagent_id";
+const SELECT = `SELECT ${LOT_COLUMNS} FROM ${LOT_FROM}`;
 
-export async function listStockLots(
-  filter: { reagent?: string | undefined; q?: string | undefined; state?: "all" | "usable" | "expired" | "low" } = {},
-  now = new Date(),
-): Promise<StockLotSummary[]> {
-  const rows = await select<LotRow>(
-    `${SELECT} WHERE (:reagent IS NULL OR l.reagent_id = :reagent)
-        AND (:q IS NULL OR l.lot_number LIKE :like OR l.supplier LIKE :like OR l.reagent_id LIKE :like)
-      ORDER BY l.reagent_id, l.expires_on, l.id`,
-    { replacements: { reagent: filter.reagent ?? null, q: filter.q ?? null, like: `%${filter.q ?? ""}%` } },
+/** Reagent ids whose catalogue name holds the search text (names live in the catalogue, not the database). */
+function reagentsNamed(q: string): string[] {
+  const needle = q.toLowerCase();
+  return reagents.filter((r) => r.name.toLowerCase().includes(needle)).map((r) => r.id);
+}
+
+/** The stock lot list: soonest expiry first, so the lot to use up first leads. */
+export const STOCK_LOT_LIST: ListSpec = {
+  columns: LOT_COLUMNS,
+  from: LOT_FROM,
+  id: "l.id",
+  sorts: { reagent: "l.reagent_id", lot: "l.lot_number", received: "l.received_on", expires: "l.expires_on", left: "l.remaining" },
+  defaultSort: "expires",
+  defaultDir: "asc",
+  search: (q) => ({
+    sql: "l.lot_number LIKE :lotNumber OR l.supplier LIKE :lotWord OR l.reagent_id LIKE :lotWord OR l.reagent_id IN (:lotReagents)",
+    replacements: { lotNumber: likePrefix(q), lotWord: likeContains(q), lotReagents: [...reagentsNamed(q), ""] },
+  }),
+};
+
+const utcDay = (now: Date) => now.toISOString().slice(0, 10);
+
+/** The state filter in SQL (so pages stay whole): the same rules as `summarise` (lotExpired, LOW_STOCK_FRACTION). */
+function lotFilters(query: StockLotListQuery, now: Date): Condition[] {
+  const out: Condition[] = [];
+  if (query.reagent) out.push({ sql: "l.reagent_id = :lotReagent", replacements: { lotReagent: query.reagent } });
+  const today = utcDay(now);
+  if (query.state === "usable") out.push({ sql: "l.expires_on >= :lotToday AND l.remaining > 0", replacements: { lotToday: today } });
+  if (query.state === "expired") out.push({ sql: "l.expires_on < :lotToday", replacements: { lotToday: today } });
+  if (query.state === "low")
+    out.push({
+      sql: "l.remaining < l.quantity * :lotLowShare OR (r.reorder_level IS NOT NULL AND l.remaining < r.reorder_level)",
+      replacements: { lotLowShare: LOW_STOCK_FRACTION },
+    });
+  return out;
+}
+
+/** One page of stock lots. */
+export async function listStockLots(query: StockLotListQuery, now = new Date()): Promise<ListPage<StockLotSummary>> {
+  const page = await listPage<LotRow>(STOCK_LOT_LIST, query, lotFilters(query, now));
+  return { items: page.items.map((r) => summarise(r, now)), nextCursor: page.nextCursor };
+}
+
+const LOT_CSV: CsvColumn<StockLotSummary>[] = [
+  { header: "reagent", value: (l) => l.reagentName },
+  { header: "reagent_id", value: (l) => l.reagent },
+  { header: "lot_number", value: (l) => l.lotNumber },
+  { header: "supplier", value: (l) => l.supplier },
+  { header: "grade", value: (l) => l.grade },
+  { header: "received_on", value: (l) => l.receivedOn },
+  { header: "opened_on", value: (l) => l.openedOn },
+  { header: "expires_on", value: (l) => l.expiresOn },
+  { header: "quantity", value: (l) => l.quantity },
+  { header: "remaining", value: (l) => l.remaining },
+  { header: "unit", value: (l) => l.unit },
+  { header: "room", value: (l) => l.room },
+];
+
+/** Every lot the query selects, as CSV. */
+export function exportStockLots(query: StockLotListQuery, now = new Date()): Response {
+  return csvResponse<LotRow, StockLotSummary>(
+    STOCK_LOT_LIST,
+    query,
+    lotFilters(query, now),
+    (rows) => rows.map((r) => summarise(r, now)),
+    LOT_CSV,
+    "stock-lots.csv",
   );
-  const lots = rows.map((r) => summarise(r, now));
-  switch (filter.state ?? "all") {
-    case "usable":
-      return lots.filter((l) => l.usable);
-    case "expired":
-      return lots.filter((l) => l.expired);
-    case "low":
-      return lots.filter((l) => l.low);
-    default:
-      return lots;
-  }
+}
+
+/** Every lot with something left, for the preparation form's choices. */
+export async function lotsWithStock(now = new Date()): Promise<StockLotSummary[]> {
+  const rows = await select<LotRow>(`${SELECT} WHERE l.remaining > 0 ORDER BY l.reagent_id, l.expires_on, l.id`);
+  return rows.map((r) => summarise(r, now));
 }
 
 export async function getStockLots(

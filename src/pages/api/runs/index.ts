@@ -1,13 +1,15 @@
 import { runListQuery, runSchema } from "../../../lib/schemas/runs";
 import { endpoint, requirePermission } from "../../../lib/server/guard";
 import { json, queryOf, readJson, validate } from "../../../lib/server/http";
-import { listRuns } from "../../../lib/server/services/run-views";
+import { exportRuns, listRuns } from "../../../lib/server/services/run-views";
 import { logRun } from "../../../lib/server/services/runs";
 
+/** `{ items, nextCursor }`, newest first; `format=csv`: every run the search and filters select. */
 export const GET = endpoint(async ({ locals, url }) => {
   requirePermission(locals, "read:run");
-  const { limit } = validate(queryOf(url), runListQuery);
-  return json({ items: await listRuns(limit) });
+  const query = validate(queryOf(url), runListQuery);
+  if (query.format === "csv") return exportRuns(query);
+  return json(await listRuns(query));
 });
 
 /** 201 with the run; 200 with the same run when the idempotency key was seen before. */

@@ -2,11 +2,14 @@ import { stockLotInputSchema, stockLotListQuery } from "../../../lib/schemas/sto
 import { endpoint, requirePermission } from "../../../lib/server/guard";
 import { HttpError, json, queryOf, readBodyBytes, validate } from "../../../lib/server/http";
 import { CERTIFICATE_MAX_BYTES } from "../../../lib/server/storage";
-import { createStockLot, listStockLots } from "../../../lib/server/services/stock-lots";
+import { createStockLot, exportStockLots, listStockLots } from "../../../lib/server/services/stock-lots";
 
+/** `{ items, nextCursor }`, soonest expiry first; `format=csv`: every lot the search and filters select. */
 export const GET = endpoint(async ({ locals, url }) => {
   requirePermission(locals, "read:stock-lot");
-  return json({ items: await listStockLots(validate(queryOf(url), stockLotListQuery)) });
+  const query = validate(queryOf(url), stockLotListQuery);
+  if (query.format === "csv") return exportStockLots(query);
+  return json(await listStockLots(query));
 });
 
 /** multipart/form-data: the lot's fields and an optional `certificate` file (PDF or image). */
