@@ -4,6 +4,7 @@ import type { QueryInterface } from "sequelize";
 import type { MigrationParams } from "umzug";
 import { hashPassword } from "../../lib/server/auth/password";
 import { execute } from "../../lib/server/query";
+import { DEMO_RECIPE_SPECS } from "../demo-recipes";
 import { DAY_MS, demoClock } from "../demo-time";
 
 const DAY = DAY_MS;
@@ -386,7 +387,7 @@ export async function up({ context: qi }: MigrationParams<QueryInterface>) {
       id: 1,
       recipe_id: 1,
       version: 1,
-      spec: spec({ solvents: [{ reagent: "water", percent: 100 }], additives: [{ reagent: "formic-acid", amount: 0.1, unit: "%v/v" }] }),
+      spec: spec(DEMO_RECIPE_SPECS["MP-FA-W"]),
       detection_nm: 254,
       storage: "Room temperature, capped",
       created_by: 3,
@@ -398,10 +399,7 @@ export async function up({ context: qi }: MigrationParams<QueryInterface>) {
       id: 2,
       recipe_id: 2,
       version: 1,
-      spec: spec({
-        solvents: [{ reagent: "acetonitrile", percent: 100 }],
-        additives: [{ reagent: "formic-acid", amount: 0.1, unit: "%v/v" }],
-      }),
+      spec: spec(DEMO_RECIPE_SPECS["MP-FA-ACN"]),
       detection_nm: 254,
       storage: "Flammables cabinet",
       created_by: 3,
@@ -413,16 +411,7 @@ export async function up({ context: qi }: MigrationParams<QueryInterface>) {
       id: 3,
       recipe_id: 3,
       version: 1,
-      spec: spec({
-        solvents: [{ reagent: "water", percent: 100 }],
-        buffer: {
-          reagents: ["potassium-dihydrogen-phosphate", "phosphoric-acid"],
-          targetPH: 3.0,
-          concentration_mM: 25,
-          basis: "first",
-          temperature_C: 25,
-        },
-      }),
+      spec: spec(DEMO_RECIPE_SPECS["MP-PHOS-30"]),
       detection_nm: 210,
       storage: "2–8 °C, use within 7 days",
       created_by: 3,
@@ -434,10 +423,7 @@ export async function up({ context: qi }: MigrationParams<QueryInterface>) {
       id: 4,
       recipe_id: 4,
       version: 1,
-      spec: spec({
-        solvents: [{ reagent: "water", percent: 100 }],
-        buffer: { reagents: ["ammonium-formate", "formic-acid"], targetPH: 3.5, concentration_mM: 10, basis: "first", temperature_C: 25 },
-      }),
+      spec: spec(DEMO_RECIPE_SPECS["MP-AMF-35"]),
       detection_nm: 220,
       storage: "Room temperature, 48 h",
       created_by: 6,

@@ -183,7 +183,11 @@ export function mixMobilePhase(input: MixMobilePhaseInput): MixMobilePhaseResult
     const c = additiveAmount(r, a.amount, a.unit, solventFinal_mL, temperature_C, `${field}.unit`, warnings);
     additiveVolume_mL += c.volume_mL ?? 0;
     components.push(c);
-    concentratedWarning(r, warnings);
+    concentratedWarning(
+      r,
+      warnings,
+      input.solvents.some((s) => s.reagent === "water" && s.percent > 0),
+    );
     flammableWarning(r, warnings);
     nonVolatileWarning(r, warnings);
     uvCutoffWarning(r, input.detectionWavelength_nm, warnings);

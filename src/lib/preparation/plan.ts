@@ -7,6 +7,7 @@ import { designBuffer } from "../chem/buffer";
 import { mixMobilePhase } from "../chem/mixing";
 import { mixtureProperties } from "../chem/mixture-properties";
 import { getReagent } from "../chem/reagents";
+import { orderOfWork } from "./order-of-work";
 import { ChemInputError, type ChemWarning } from "../chem/warnings";
 import type { RecipeSpec } from "../schemas/recipes";
 import type { MixtureKind } from "./expiry";
@@ -51,8 +52,6 @@ function pushUnique(list: ChemWarning[], more: readonly ChemWarning[]) {
   for (const w of more) if (!list.some((x) => x.code === w.code && x.reagent === w.reagent)) list.push(w);
 }
 
-const fmtVol = (mL: number) => (mL >= 100 ? `${mL.toFixed(0)} mL` : mL >= 10 ? `${mL.toFixed(1)} mL` : `${mL.toFixed(2)} mL`);
-
 /** Throws ChemInputError (with the field) when the chemistry cannot be computed. */
 export function preparationPlan(input: PlanInput): PreparationPlan {
   const { spec } = input;
@@ -62,16 +61,27 @@ export function preparationPlan(input: PlanInput): PreparationPlan {
   const warnings: ChemWarning[] = [];
   const components: PlannedComponent[] = [];
 
-  const mix = mixMobilePhase({
-    total_mL: input.volume_mL,
-    solvents: spec.solvents,
-    additives: spec.additives,
-    temperature_C,
-    ...(detection ? { detectionWavelength_nm: detection } : {}),
-  });
+  // The design gives additives per litre of the final mix; mixMobilePhase takes them per litre of
+  // the mixed solvents. Both are linear, so one probe finds the additives' share `a` of the volume:
+  // solvents measured for V(1 − a), additives scaled by 1/(1 − a), and the final mix is the batch volume.
+  const mixAt = (total_mL: number, scale: number) =>
+    mixMobilePhase({
+      total_mL,
+      solvents: spec.solvents,
+      additives: spec.additives?.map((a) => ({ ...a, amount: a.amount * scale })),
+      temperature_C,
+      ...(detection ? { detectionWavelength_nm: detection } : {}),
+    });
+  const V = input.volume_mL;
+  const probe = mixAt(V, 1);
+  const isSolvent = (reagent: string) => spec.solvents.some((s) => s.reagent === reagent);
+  const additives_mL = probe.components.filter((c) => !isSolvent(c.reagent)).reduce((a, c) => a + (c.volume_mL ?? 0), 0);
+  const solventFinal = probe.finalVolume_mL - additives_mL;
+  const share = additives_mL / solventFinal;
+  const mix = mixAt((V * (1 - share) * V) / solventFinal, 1 / (1 - share));
   pushUnique(warnings, mix.warnings);
   const waterShare = spec.solvents.filter((s) => s.reagent === "water").reduce((a, s) => a + s.percent, 0);
-  const aqueous_mL = (waterShare / 100) * input.volume_mL;
+  const aqueous_mL = mix.components.find((c) => c.reagent === "water")?.volume_mL ?? (waterShare / 100) * input.volume_mL;
 
   for (const c of mix.components) {
     const isSolvent = spec.solvents.some((s) => s.reagent === c.reagent);
@@ -128,65 +138,12 @@ export function preparationPlan(input: PlanInput): PreparationPlan {
     props.warnings.filter((w) => w.code !== "no-viscosity-data"),
   );
 
-  // Order of work.
-  const steps: string[] = [];
-  const water = components.find((c) => c.reagent === "water");
-  const organics = components.filter((c) => c.role === "solvent" && c.reagent !== "water");
-  const solids = components.filter((c) => c.unit === "g");
-  const liquidsAdded = components.filter((c) => c.role !== "solvent" && c.unit === "mL");
-  if (spec.buffer && water) {
-    const first = components.find((c) => c.role === "buffer");
-    steps.push(
-      `Weigh the buffer salt${solids.length > 1 ? "s" : ""} and dissolve ${solids.length > 1 ? "them" : "it"} in about 80 % of the water (${fmtVol(water.target * 0.8)}).`,
-    );
-    const titrant = components.find((c) => c.role === "titrant");
-    if (titrant) {
-      const acidBase = getReagent(titrant.reagent)?.concentrated
-        ? ` Add the ${titrant.name.toLowerCase()} slowly to the water, never water to it.`
-        : "";
-      steps.push(
-        `Add the ${titrant.name.toLowerCase()} (about ${titrant.unit === "mL" ? fmtVol(titrant.target) : `${titrant.target.toFixed(3)} g`}), then check the pH at ${spec.buffer.temperature_C} °C and adjust to ${spec.buffer.targetPH.toFixed(2)} with small additions.${acidBase}`,
-      );
-    } else if (first) {
-      steps.push(`Check the pH at ${spec.buffer.temperature_C} °C: it should read ${spec.buffer.targetPH.toFixed(2)}.`);
-    }
-    steps.push(`Make up to ${fmtVol(water.target)} with water and mix.`);
-    if (organics.length)
-      steps.push("Set the pH of the aqueous part before any organic solvent is added: the pH reading in a mix is not comparable.");
-  } else if (water) {
-    steps.push(`Measure ${fmtVol(water.target)} of water in a graduated cylinder.`);
-  }
-  for (const a of components.filter((c) => c.role === "additive")) {
-    const conc = getReagent(a.reagent)?.concentrated;
-    steps.push(
-      `Add ${a.unit === "mL" ? fmtVol(a.target) : `${a.target.toFixed(3)} g`} of ${a.name.toLowerCase()}${water ? " to the water" : ""}${conc ? ", slowly, in a fume hood: acid (or base) to water, never the reverse" : ""}.`,
-    );
-  }
-  for (const o of organics) steps.push(`Measure ${fmtVol(o.target)} of ${o.name.toLowerCase()} separately, in its own cylinder.`);
-  if (organics.length && (water || liquidsAdded.length))
-    steps.push(
-      "Combine the measured parts and mix; the mix contracts slightly and warms: let it reach room temperature, then degas if your method asks for it.",
-    );
-  steps.push("Fill and cap the bottles, and label every bottle before it leaves the bench.");
-
-  // Cautions on screen, deferring to the lab's own rules.
-  const cautions: string[] = [];
-  if (components.some((c) => getReagent(c.reagent)?.flammable))
-    cautions.push(
-      "Flammable liquids: work in a fume hood away from ignition sources, keep containers closed, and store the bottles in a flammables cabinet.",
-    );
-  if (components.some((c) => getReagent(c.reagent)?.concentrated))
-    cautions.push(
-      "Concentrated acid or base: wear eye protection, gloves and a lab coat, work in a fume hood, and add it to water — never water to it.",
-    );
-  if (organics.length) cautions.push("Organic solvents: wear eye protection and suitable gloves; avoid breathing the vapour.");
-  cautions.push("Follow your laboratory's SOPs and local regulations; Decant's figures support them and never replace them.");
+  const finalVolume_mL = mix.finalVolume_mL;
+  const { steps, cautions } = orderOfWork(components, spec, finalVolume_mL);
 
   return {
     components,
-    finalVolume_mL:
-      mix.finalVolume_mL +
-      components.filter((c) => c.role === "buffer" || c.role === "titrant").reduce((a, c) => a + (c.unit === "mL" ? c.target : 0), 0),
+    finalVolume_mL,
     aqueous_mL,
     warnings,
     properties: {
