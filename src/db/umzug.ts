@@ -12,6 +12,7 @@ import * as ledgerSourceIndex from "./migrations/2026.12.01T09.10.00.ledger-sour
 import * as batchRoom from "./migrations/2026.12.01T11.00.00.batch-room";
 import * as dropLedgerSourceKindIndex from "./migrations/2026.12.02T03.00.00.drop-ledger-source-kind-index";
 import * as idempotencyKeyScope from "./migrations/2026.12.04T02.00.00.idempotency-key-scope";
+import * as batchExpiryBasis from "./migrations/2026.12.04T06.00.00.batch-expiry-basis";
 import * as demoFacility from "./seeders/2026.12.01T00.00.00.demo-facility";
 import * as demoPreparation from "./seeders/2026.12.01T02.00.00.demo-preparation";
 import * as wasteDemo from "./seeders/2026.12.01T05.00.00.waste-demo";
@@ -37,6 +38,7 @@ export const MIGRATIONS: Record<string, MigrationModule> = {
   "2026.12.01T11.00.00.batch-room.ts": batchRoom,
   "2026.12.02T03.00.00.drop-ledger-source-kind-index.ts": dropLedgerSourceKindIndex,
   "2026.12.04T02.00.00.idempotency-key-scope.ts": idempotencyKeyScope,
+  "2026.12.04T06.00.00.batch-expiry-basis.ts": batchExpiryBasis,
 };
 
 export const SEEDERS: Record<string, MigrationModule> = {

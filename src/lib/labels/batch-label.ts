@@ -30,7 +30,8 @@ export function labelContentOf(batch: BatchDetail): LabelContent {
     name: batch.recipeName,
     composition: batch.composition + (batch.measuredPH !== null ? ` · measured pH ${batch.measuredPH.toFixed(2)}` : ""),
     prepared: `${when(batch.preparedAt)} UTC`,
-    expires: `${when(batch.expiresAt)} UTC`,
+    // The expiry and the storage line come from the batch's one expiry computation (`batch.expiry`).
+    expires: batch.expiry.expires,
     preparer: batch.preparedBy,
     bottles: batch.bottles,
     storage: batch.storage,

@@ -4,6 +4,7 @@
  */
 import type { RecipeSpec } from "../schemas/recipes";
 import type { Deviation } from "./deviations";
+import type { ExpiryWording } from "./expiry";
 
 export type RecipeState = "approved" | "pending" | "retired";
 
@@ -119,7 +120,12 @@ export interface BatchDetail {
   channel: string | null;
   spec: RecipeSpec | null;
   composition: string;
-  storage: string | null;
+  /** The recipe's conditions and the shelf life the expiry came from (`storageLine`). */
+  storage: string;
+  /** The recipe's storage conditions alone. */
+  storageConditions: string | null;
+  /** The expiry in words, from the same computation as `expiresAt`. */
+  expiry: ExpiryWording;
   detection_nm: number | null;
   volume_mL: number;
   remaining_mL: number;

@@ -1,9 +1,9 @@
 // The daily e-mail to technicians listing the batches that expire within 24 hours.
-import { formatDateTime } from "../../format";
 import { withJobLock } from "../job-lock";
 import { escapeHtml, publicOrigin, sendMail, type OutgoingMail } from "../mail";
 import { Setting } from "../models/audit";
 import { select } from "../query";
+import { batchExpiryOf } from "./batches";
 
 const LAST_SENT_KEY = "digest.expiry.lastSentOn";
 /** The digest goes out on the first check of the day at or after this hour (UTC). */
@@ -20,7 +20,10 @@ export interface ExpiryDigestResult {
 interface ExpiringRow {
   code: string;
   name: string;
+  prepared_at: Date;
   expires_at: Date;
+  expiry_reason: string | null;
+  expiry_basis: unknown;
   remaining_ml: number;
 }
 
@@ -40,7 +43,7 @@ export async function runExpiryDigest(
     const last = await Setting.findByPk(LAST_SENT_KEY);
     if (last?.value === day) return nothing;
     const batches = await select<ExpiringRow>(
-      `SELECT b.code, r.name, b.expires_at, b.remaining_ml
+      `SELECT b.code, r.name, b.prepared_at, b.expires_at, b.expiry_reason, b.expiry_basis, b.remaining_ml
          FROM batches b JOIN recipe_versions v ON v.id = b.recipe_version_id JOIN recipes r ON r.id = v.recipe_id
         WHERE b.status IN ('ready', 'in_use') AND b.expires_at > :now AND b.expires_at <= :until
         ORDER BY b.expires_at, b.code`,
@@ -48,9 +51,10 @@ export async function runExpiryDigest(
     );
     const technicians = await select<{ email: string }>("SELECT email FROM users WHERE role = 'technician' AND active = 1 ORDER BY email");
     if (batches.length > 0) {
-      const lines = batches.map(
-        (b) => `${b.code} · ${b.name} · expires ${formatDateTime(new Date(b.expires_at))} UTC · ${b.remaining_ml} mL left`,
-      );
+      const lines = batches.map((b) => {
+        const { wording } = batchExpiryOf(b);
+        return `${b.code} · ${b.name} · expires ${wording.expires} (${wording.basis}) · ${b.remaining_ml} mL left`;
+      });
       const link = `${publicOrigin()}/home`;
       const subject = `Decant: ${batches.length} batch${batches.length === 1 ? "" : "es"} expire${batches.length === 1 ? "s" : ""} within 24 hours`;
       const advice =

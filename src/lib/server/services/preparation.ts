@@ -10,7 +10,7 @@ import { ChemInputError } from "../../chem";
 import type { NewLedgerEntry } from "../../ledger/types";
 import { batchCodeBase, nextBatchCode } from "../../preparation/batch-code";
 import { findDeviations, type Deviation } from "../../preparation/deviations";
-import { batchExpiry, lotExpired } from "../../preparation/expiry";
+import { batchExpiry, lotExpired, type BatchExpiry } from "../../preparation/expiry";
 import { preparationPlan, type PlannedComponent } from "../../preparation/plan";
 import type { RecordedBatch } from "../../preparation/types";
 import type { BatchCreateInput } from "../../schemas/preparation";
@@ -243,7 +243,7 @@ export async function recordBatch(
 async function insertBatch(
   input: BatchCreateInput,
   snapshot: object,
-  expiry: { expiresAt: Date; reason: string },
+  expiry: Pick<BatchExpiry, "expiresAt" | "reason" | "basis">,
   deviations: Deviation[],
   reason: string,
   actor: SignedInUser,
@@ -262,8 +262,8 @@ async function insertBatch(
     try {
       const { insertId } = await execute(
         `INSERT INTO batches (code, recipe_version_id, spec_snapshot, volume_ml, remaining_ml, bottles, bottle_size_ml, temperature_c, measured_ph, ph_temperature_c,
-                              prepared_by, prepared_at, expires_at, expiry_reason, status, idempotency_key, deviations, deviation_reason, room, created_at, updated_at)
-         VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, 'ready', ?, ?, ?, ?, NOW(3), NOW(3))`,
+                              prepared_by, prepared_at, expires_at, expiry_reason, expiry_basis, status, idempotency_key, deviations, deviation_reason, room, created_at, updated_at)
+         VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, 'ready', ?, ?, ?, ?, NOW(3), NOW(3))`,
         {
           transaction,
           replacements: [
@@ -281,6 +281,7 @@ async function insertBatch(
             now,
             expiry.expiresAt,
             expiry.reason.slice(0, 300),
+            JSON.stringify(expiry.basis),
             input.idempotencyKey,
             deviations.length ? JSON.stringify(deviations) : null,
             deviations.length ? reason : null,
