@@ -13,6 +13,7 @@ import * as batchRoom from "./migrations/2026.12.01T11.00.00.batch-room";
 import * as dropLedgerSourceKindIndex from "./migrations/2026.12.02T03.00.00.drop-ledger-source-kind-index";
 import * as idempotencyKeyScope from "./migrations/2026.12.04T02.00.00.idempotency-key-scope";
 import * as batchExpiryBasis from "./migrations/2026.12.04T06.00.00.batch-expiry-basis";
+import * as bottleUndo from "./migrations/2026.12.04T06.01.00.bottle-undo";
 import * as demoFacility from "./seeders/2026.12.01T00.00.00.demo-facility";
 import * as demoPreparation from "./seeders/2026.12.01T02.00.00.demo-preparation";
 import * as wasteDemo from "./seeders/2026.12.01T05.00.00.waste-demo";
@@ -39,6 +40,7 @@ export const MIGRATIONS: Record<string, MigrationModule> = {
   "2026.12.02T03.00.00.drop-ledger-source-kind-index.ts": dropLedgerSourceKindIndex,
   "2026.12.04T02.00.00.idempotency-key-scope.ts": idempotencyKeyScope,
   "2026.12.04T06.00.00.batch-expiry-basis.ts": batchExpiryBasis,
+  "2026.12.04T06.01.00.bottle-undo.ts": bottleUndo,
 };
 
 export const SEEDERS: Record<string, MigrationModule> = {

@@ -5,6 +5,7 @@
 import type { RecipeSpec } from "../schemas/recipes";
 import type { Deviation } from "./deviations";
 import type { ExpiryWording } from "./expiry";
+import type { UndoOffer } from "../undo";
 
 export type RecipeState = "approved" | "pending" | "retired";
 
@@ -95,6 +96,8 @@ export interface BottleDetail {
   number: number;
   status: BottleStatus;
   discarded_mL: number | null;
+  /** Set while marking it empty or discarding it can still be undone. */
+  undo: UndoOffer | null;
 }
 
 export interface BatchComponentDetail {

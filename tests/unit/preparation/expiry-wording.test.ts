@@ -50,7 +50,7 @@ function batchWith(expiry: BatchExpiry, conditions: string | null): BatchDetail 
     components: [
       { reagent: "water", name: "Water", role: "solvent", unit: "mL", target: 1000, actual: 1000, stockLotId: null, lotNumber: null },
     ],
-    bottleList: [{ number: 1, status: "ready", discarded_mL: null }],
+    bottleList: [{ number: 1, status: "ready", discarded_mL: null, undo: null }],
   };
 }
 

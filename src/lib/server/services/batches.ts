@@ -9,6 +9,7 @@ import { expiryFromBasis, instantText, storageLine, type ExpiryBasis, type Expir
 import { describeSpec } from "../../preparation/plan";
 import type { BatchDetail, BatchSummary, BottleStatus } from "../../preparation/types";
 import { recipeSpecSchema, type RecipeSpec } from "../../schemas/recipes";
+import { undoUntil, withinUndoWindow } from "../../undo";
 import { HttpError } from "../http";
 import { jsonColumn, select, selectOne } from "../query";
 
@@ -149,10 +150,15 @@ export async function getBatch(id: number, now = new Date()): Promise<BatchDetai
        FROM batch_components c LEFT JOIN stock_lots l ON l.id = c.stock_lot_id WHERE c.batch_id = ? ORDER BY c.id`,
     { replacements: [id] },
   );
-  const bottles = await select<{ number: number; status: BottleStatus; discarded_ml: number | null }>(
-    "SELECT number, status, discarded_ml FROM batch_bottles WHERE batch_id = ? ORDER BY number",
-    { replacements: [id] },
-  );
+  const bottles = await select<{
+    number: number;
+    status: BottleStatus;
+    discarded_ml: number | null;
+    previous_status: BottleStatus | null;
+    changed_at: Date | null;
+  }>("SELECT number, status, discarded_ml, previous_status, changed_at FROM batch_bottles WHERE batch_id = ? ORDER BY number", {
+    replacements: [id],
+  });
   // Batches from before snapshots held the specification fall back to their version's.
   const spec = parseSpec(row.spec_snapshot) ?? parseSpec(row.version_spec);
   const deviations = jsonColumn<Deviation[] | null>(row.deviations);
@@ -200,7 +206,21 @@ export async function getBatch(id: number, now = new Date()): Promise<BatchDetai
       stockLotId: c.stock_lot_id,
       lotNumber: c.lot_number,
     })),
-    bottleList: bottles.map((b) => ({ number: b.number, status: b.status, discarded_mL: b.discarded_ml })),
+    bottleList: bottles.map((b) => ({
+      number: b.number,
+      status: b.status,
+      discarded_mL: b.discarded_ml,
+      undo:
+        b.previous_status !== null && b.changed_at !== null && withinUndoWindow(new Date(b.changed_at), now)
+          ? {
+              until: undoUntil(new Date(b.changed_at)).toISOString(),
+              effect:
+                b.status === "discarded"
+                  ? `Puts ${b.discarded_ml ?? 0} mL back into the batch with a reversing ledger entry, and the bottle back to ${b.previous_status === "in_use" ? "in use" : b.previous_status}.`
+                  : `Puts the bottle back to ${b.previous_status === "in_use" ? "in use" : b.previous_status}.`,
+            }
+          : null,
+    })),
   };
 }
 
