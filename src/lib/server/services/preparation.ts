@@ -9,7 +9,7 @@ import { UniqueConstraintError, type Transaction } from "sequelize";
 import { ChemInputError } from "../../chem";
 import type { NewLedgerEntry } from "../../ledger/types";
 import { batchCodeBase, nextBatchCode } from "../../preparation/batch-code";
-import { findDeviations, type Deviation } from "../../preparation/deviations";
+import { actualsProblems, findDeviations, type Deviation } from "../../preparation/deviations";
 import { batchExpiry, lotExpired, type BatchExpiry } from "../../preparation/expiry";
 import { preparationPlan, type PlannedComponent } from "../../preparation/plan";
 import type { RecordedBatch } from "../../preparation/types";
@@ -108,17 +108,29 @@ async function checkBatch(input: BatchCreateInput, now: Date, transaction: Trans
     });
   }
 
+  const made = pairs.map(({ planned, given }) => ({
+    name: planned.name,
+    unit: planned.unit,
+    role: planned.role,
+    target: planned.target,
+    actual: given.actualAmount ?? null,
+  }));
+  // Named by the field the form sent (its index in the submitted components).
+  const refused = actualsProblems(made).map((p) => {
+    const at = Number(p.field.split(".")[1]);
+    return { field: `components.${pairs[at]!.index}.actualAmount`, message: p.message };
+  });
+  if (refused.length)
+    throw new HttpError(400, refused.map((p) => `${p.field}: ${p.message}`).join("; "), {
+      fields: Object.fromEntries(refused.map((p) => [p.field, p.message])),
+    });
+
   const settings = await getPreparationSettings(transaction);
   const deviations = findDeviations({
     tolerances: settings.tolerances,
     targetPH: version.spec.buffer?.targetPH ?? null,
     measuredPH: input.measuredPH ?? null,
-    components: pairs.map(({ planned, given }) => ({
-      name: planned.name,
-      unit: planned.unit,
-      target: planned.target,
-      actual: given.actualAmount ?? null,
-    })),
+    components: made,
   });
   const reason = input.deviationReason?.trim() ?? "";
   const rooms = await knownRooms(transaction);
