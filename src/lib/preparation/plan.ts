@@ -52,6 +52,8 @@ function pushUnique(list: ChemWarning[], more: readonly ChemWarning[]) {
   for (const w of more) if (!list.some((x) => x.code === w.code && x.reagent === w.reagent)) list.push(w);
 }
 
+const HANDLING_CODES = new Set(["flammable", "concentrated-reagent"]);
+
 /** Throws ChemInputError (with the field) when the chemistry cannot be computed. */
 export function preparationPlan(input: PlanInput): PreparationPlan {
   const { spec } = input;
@@ -145,7 +147,9 @@ export function preparationPlan(input: PlanInput): PreparationPlan {
     components,
     finalVolume_mL,
     aqueous_mL,
-    warnings,
+    // Warnings are about this mix (UV cutoff, precipitation, MS); handling a flammable or a
+    // concentrated reagent is in the cautions, once.
+    warnings: warnings.filter((w) => !HANDLING_CODES.has(w.code)),
     properties: {
       polarityIndex: props.polarityIndex,
       uvCutoff_nm: props.uvCutoff_nm,

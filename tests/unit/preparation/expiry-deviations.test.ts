@@ -147,7 +147,9 @@ describe("preparationPlan", () => {
     expect(salt(one)).toBeCloseTo(3.402, 3);
     expect(salt(two)).toBeCloseTo(2 * salt(one), 9);
     expect(one.components.find((c) => c.reagent === "phosphoric-acid")!.role).toBe("titrant");
-    expect(one.warnings.map((w) => w.code)).toContain("concentrated-reagent");
+    // Handling the concentrated acid is a caution, said once, not also a warning about the mix.
+    expect(one.warnings.map((w) => w.code)).not.toContain("concentrated-reagent");
+    expect(one.cautions.join(" ")).toMatch(/Concentrated acid or base/);
     expect(one.steps.join(" ")).toMatch(/never water to the acid/);
   });
 });
