@@ -1,5 +1,5 @@
 import { QueryTypes } from "sequelize";
-import { describe, expect, it } from "vitest";
+import { beforeAll, describe, expect, it } from "vitest";
 import { HttpError } from "../../../src/lib/server/http";
 import { LedgerEntry } from "../../../src/lib/server/models/ledger";
 import { reverseEntries } from "../../../src/lib/server/services/ledger";
@@ -7,9 +7,14 @@ import { logDraw } from "../../../src/lib/server/services/draws";
 import { logRun } from "../../../src/lib/server/services/runs";
 import { usageByProject } from "../../../src/lib/server/services/usage";
 import { runSchema, drawSchema } from "../../../src/lib/schemas/runs";
+import { demoBatchCodes } from "../../support/demo-batches";
 import { actor, useServiceDatabase } from "../../support/service-database";
 
 const db = useServiceDatabase();
+let codes: Record<number, string> = {};
+beforeAll(async () => {
+  codes = await demoBatchCodes(db.sequelize);
+});
 const tech = actor(3, "technician");
 const HOUR = 3_600_000;
 
@@ -110,11 +115,15 @@ describe("logging a run", () => {
   });
 
   it("refuses a used-up batch, a run that would take a batch below zero, and a channel without a batch", async () => {
-    await expectRefused(logRun(scoutRun({ channelBatches: { A: 1, B: 5 } }), tech), 400, /channelBatches\.A: batch B26-0901 is used up/);
+    await expectRefused(
+      logRun(scoutRun({ channelBatches: { A: 1, B: 5 } }), tech),
+      400,
+      new RegExp(`channelBatches\\.A: batch ${codes[1]} is used up`),
+    );
     await expectRefused(
       logRun(scoutRun({ injections: 1000 }), tech),
       400,
-      /batch B26-1103 has [\d.]+ mL left; this run needs 3534\.044 mL/,
+      new RegExp(`batch ${codes[4]} has [\\d.]+ mL left; this run needs 3534\\.044 mL`),
     ); // (1000 + 2) × 3.522 + 5 = 3534.044, by hand
     await expectRefused(
       logRun(scoutRun({ channelBatches: { A: 4 } }), tech),
@@ -136,7 +145,7 @@ describe("logging a run", () => {
     });
     const first = await logDraw(input, tech);
     const again = await logDraw(input, tech);
-    expect(first).toMatchObject({ batchCode: "B26-1103", volume_mL: 12.5, replayed: false });
+    expect(first).toMatchObject({ batchCode: codes[4], volume_mL: 12.5, replayed: false });
     expect(again.replayed).toBe(true);
     expect(await remaining(4)).toBeCloseTo(left - 12.5, 4);
     const rows = await q<{ reason: string; volume_ml: string; kind: string }>(
