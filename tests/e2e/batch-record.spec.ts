@@ -120,4 +120,7 @@ test("8 · a demo batch has its bottles, and its code is its preparation day", a
   // Before: B26-1120 was made two days before the demo was loaded, whatever that day was.
   expect(code).toBe(`B${prepared.slice(2, 4)}-${prepared.slice(5, 7)}${prepared.slice(8, 10)}`);
   await expect(page.getByRole("row").filter({ hasText: "1 of 1" })).toBeVisible();
+  // Before: the preview frame sat dark and empty while the PDF loaded; now a loading line until it is there.
+  await expect(page.locator(".label-preview")).toHaveAttribute("data-state", "ready");
+  await expect(page.getByTestId("label-preview-loading")).toBeHidden();
 });

@@ -28,7 +28,7 @@ async function acetonitrileBatch(volume_mL: number, room?: string) {
       "SELECT id FROM stock_lots WHERE reagent_id = ? AND remaining > 0 AND expires_on > CURRENT_DATE ORDER BY remaining DESC LIMIT 1",
       { type: QueryTypes.SELECT, replacements: [c.reagent] },
     );
-    components.push({ reagent: c.reagent, stockLotId: lot!.id });
+    components.push({ reagent: c.reagent, stockLotId: lot!.id, actualAmount: c.target }); // recorded "as planned"
   }
   return recordBatch(
     {

@@ -544,9 +544,9 @@ export async function up({ context: qi }: MigrationParams<QueryInterface>) {
     ),
   );
   await qi.bulkInsert("batch_components", [
-    { batch_id: 4, reagent_id: "water", stock_lot_id: 6, role: "solvent", unit: "mL", target_amount: 3996, actual_amount: 3996 },
+    { batch_id: 4, reagent_id: "water", stock_lot_id: 6, role: "solvent", unit: "mL", target_amount: 4000, actual_amount: 4000 },
     { batch_id: 4, reagent_id: "formic-acid", stock_lot_id: 3, role: "additive", unit: "mL", target_amount: 4, actual_amount: 4 },
-    { batch_id: 5, reagent_id: "acetonitrile", stock_lot_id: 1, role: "solvent", unit: "mL", target_amount: 3996, actual_amount: 3996 },
+    { batch_id: 5, reagent_id: "acetonitrile", stock_lot_id: 1, role: "solvent", unit: "mL", target_amount: 4000, actual_amount: 4000 },
     { batch_id: 5, reagent_id: "formic-acid", stock_lot_id: 3, role: "additive", unit: "mL", target_amount: 4, actual_amount: 4 },
     { batch_id: 6, reagent_id: "water", stock_lot_id: 6, role: "solvent", unit: "mL", target_amount: 1000, actual_amount: 1000 },
     {

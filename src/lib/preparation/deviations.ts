@@ -45,7 +45,8 @@ export function actualsProblems(components: readonly MadeComponent[]): Deviation
     }
     if (c.role === "titrant" || !(c.target > 0)) return;
     const ratio = c.actual / c.target;
-    if (ratio >= IMPLAUSIBLE_FACTOR || ratio <= 1 / IMPLAUSIBLE_FACTOR)
+    // 1e-9: exactly ten times a target that carries a float's last digit still counts.
+    if (ratio >= IMPLAUSIBLE_FACTOR * (1 - 1e-9) || ratio <= (1 / IMPLAUSIBLE_FACTOR) * (1 + 1e-9))
       out.push({
         field,
         message: `${fmt(c.actual)} ${c.unit} is ${ratio >= 1 ? `${fmt(ratio)}× the` : `1/${fmt(1 / ratio)} of the`} target ${fmt(c.target)} ${c.unit}: check the unit and the decimal point`,

@@ -230,10 +230,10 @@ describe("the waste container an instrument drains to", () => {
 describe("corrections and invoiced periods", () => {
   it("dates a correction of an entry in a locked period at the start of the next open period", async () => {
     const { run } = await logRun(
-      scoutRun({ injections: 1, blanks: 0, purge_mL: 0, startedAt: new Date(Date.now() - 5 * 24 * HOUR).toISOString() }),
+      scoutRun({ injections: 1, blanks: 0, purge_mL: 0, startedAt: new Date(Date.now() - 3 * 24 * HOUR).toISOString() }),
       tech,
     );
-    const day = new Date(Date.now() - 5 * 24 * HOUR).toISOString().slice(0, 10);
+    const day = new Date(Date.now() - 3 * 24 * HOUR).toISOString().slice(0, 10);
     // PMG-ROOT-26 belongs to client 1; lock the run's day as if that period were already charged back.
     await db.sequelize.query("INSERT INTO period_locks (client_id, period_start, period_end, created_at) VALUES (1, ?, ?, NOW())", {
       replacements: [day, day],
