@@ -156,9 +156,9 @@ describe("importing run logs", () => {
     await db.sequelize.query(
       "UPDATE batches SET prepared_at = NOW() - INTERVAL 160 DAY, expires_at = NOW() - INTERVAL 150 DAY WHERE id = 6",
     ); // the demo's phosphate buffer
-    const [{ code }] = await q<{ code: string }>("SELECT code FROM batches WHERE id = 6");
+    const code = (await q<{ code: string }>("SELECT code FROM batches WHERE id = 6"))[0]!.code;
     const report = await checkRunLog(
-      file([row(5000, { batch_A: code!, started_at: new Date(Date.now() - 20 * DAY).toISOString().slice(0, 16) })]),
+      file([row(5000, { batch_A: code, started_at: new Date(Date.now() - 20 * DAY).toISOString().slice(0, 16) })]),
       "x.csv",
       tech,
     );
