@@ -116,7 +116,7 @@ describe("actuals are recorded, not assumed", () => {
 
   it.each<[string, number | null, RegExp]>([
     ["blank", null, /^components\.1\.actualAmount: Record the formic acid actually used, or press "As planned"/],
-    ["ten times the target", 10, /^components\.1\.actualAmount: 10\.0 mL is 10\.0× the target 1\.00 mL/],
+    ["ten times the target", 10, /^components\.1\.actualAmount: 10\.0 mL is 10× the target 1\.00 mL/],
   ])("refuses a %s actual, naming the field", async (_, actual, pattern) => {
     const error = await refusal(recordBatch(input(actual), tech));
     expect(error.status).toBe(400);

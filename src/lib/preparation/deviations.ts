@@ -49,7 +49,7 @@ export function actualsProblems(components: readonly MadeComponent[]): Deviation
     if (ratio >= IMPLAUSIBLE_FACTOR * (1 - 1e-9) || ratio <= (1 / IMPLAUSIBLE_FACTOR) * (1 + 1e-9))
       out.push({
         field,
-        message: `${fmt(c.actual)} ${c.unit} is ${ratio >= 1 ? `${fmt(ratio)}× the` : `1/${fmt(1 / ratio)} of the`} target ${fmt(c.target)} ${c.unit}: check the unit and the decimal point`,
+        message: `${fmt(c.actual)} ${c.unit} is ${ratio >= 1 ? `${times(ratio)}× the` : `1/${times(1 / ratio)} of the`} target ${fmt(c.target)} ${c.unit}: check the unit and the decimal point`,
       });
   });
   return out;
@@ -93,6 +93,9 @@ export function findDeviations(input: {
   });
   return out;
 }
+
+/** 9.9999 → "10", 12.34 → "12.3". */
+const times = (n: number) => String(Math.round(n * 10) / 10);
 
 function fmt(n: number): string {
   return n >= 100 ? n.toFixed(0) : n >= 10 ? n.toFixed(1) : n >= 1 ? n.toFixed(2) : n.toPrecision(3);

@@ -8,8 +8,8 @@ describe("actuals: required, and refused when off by 10× or more", () => {
   it.each<[string, number | null, string | null]>([
     ["blank", null, 'Record the water actually used, or press "As planned"'],
     ["as planned", 999, null],
-    ["a slip of a decimal point (99.9)", 99.9, "99.9 mL is 1/10.0 of the target 999 mL: check the unit and the decimal point"],
-    ["litres typed as millilitres ×10", 9990, "9990 mL is 10.0× the target 999 mL: check the unit and the decimal point"],
+    ["a slip of a decimal point (99.9)", 99.9, "99.9 mL is 1/10 of the target 999 mL: check the unit and the decimal point"],
+    ["litres typed as millilitres ×10", 9990, "9990 mL is 10× the target 999 mL: check the unit and the decimal point"],
     ["5 % short is a deviation, not a slip", 949, null],
   ])("%s", (_, actual, message) => {
     const problems = actualsProblems([{ ...water, actual }]);
