@@ -6,6 +6,7 @@
 import { designBuffer } from "../chem/buffer";
 import { mixMobilePhase } from "../chem/mixing";
 import { mixtureProperties } from "../chem/mixture-properties";
+import type { LotDensities, Purities } from "../chem/lot-assay";
 import { getReagent } from "../chem/reagents";
 import { orderOfWork } from "./order-of-work";
 import { ChemInputError, type ChemWarning } from "../chem/warnings";
@@ -42,6 +43,10 @@ export interface PlanInput {
   volume_mL: number;
   temperature_C?: number;
   detection_nm?: number | null;
+  /** The assay (mass fraction) of the lots picked, by reagent; the catalogue's typical values otherwise. */
+  purities?: Purities;
+  /** The lots' densities at 20 °C (solutions), by reagent. */
+  densities_g_mL?: LotDensities;
 }
 
 function nameOf(id: string): string {
@@ -54,6 +59,11 @@ function pushUnique(list: ChemWarning[], more: readonly ChemWarning[]) {
 
 const HANDLING_CODES = new Set(["flammable", "concentrated-reagent"]);
 
+const lotData = (input: PlanInput) => ({
+  ...(input.purities ? { purities: input.purities } : {}),
+  ...(input.densities_g_mL ? { densities_g_mL: input.densities_g_mL } : {}),
+});
+
 /** Throws ChemInputError (with the field) when the chemistry cannot be computed. */
 export function preparationPlan(input: PlanInput): PreparationPlan {
   const { spec } = input;
@@ -63,24 +73,20 @@ export function preparationPlan(input: PlanInput): PreparationPlan {
   const warnings: ChemWarning[] = [];
   const components: PlannedComponent[] = [];
 
-  // The design gives additives per litre of the final mix; mixMobilePhase takes them per litre of
-  // the mixed solvents. Both are linear, so one probe finds the additives' share `a` of the volume:
-  // solvents measured for V(1 − a), additives scaled by 1/(1 − a), and the final mix is the batch volume.
-  const mixAt = (total_mL: number, scale: number) =>
+  // Additives are per litre of the final mix (mixing.ts), whose volume is also the solvents'
+  // contracted volume plus the additives': the volume is linear in the solvents measured, so one
+  // probe scales them until the final mix is the batch volume the bottles hold.
+  const mixAt = (total_mL: number) =>
     mixMobilePhase({
       total_mL,
       solvents: spec.solvents,
-      additives: spec.additives?.map((a) => ({ ...a, amount: a.amount * scale })),
+      additives: spec.additives,
       temperature_C,
       ...(detection ? { detectionWavelength_nm: detection } : {}),
+      ...lotData(input),
     });
-  const V = input.volume_mL;
-  const probe = mixAt(V, 1);
-  const isSolvent = (reagent: string) => spec.solvents.some((s) => s.reagent === reagent);
-  const additives_mL = probe.components.filter((c) => !isSolvent(c.reagent)).reduce((a, c) => a + (c.volume_mL ?? 0), 0);
-  const solventFinal = probe.finalVolume_mL - additives_mL;
-  const share = additives_mL / solventFinal;
-  const mix = mixAt((V * (1 - share) * V) / solventFinal, 1 / (1 - share));
+  const probe = mixAt(input.volume_mL);
+  const mix = mixAt((input.volume_mL * input.volume_mL) / probe.finalVolume_mL);
   pushUnique(warnings, mix.warnings);
   const waterShare = spec.solvents.filter((s) => s.reagent === "water").reduce((a, s) => a + s.percent, 0);
   const aqueous_mL = mix.components.find((c) => c.reagent === "water")?.volume_mL ?? (waterShare / 100) * input.volume_mL;
@@ -113,6 +119,7 @@ export function preparationPlan(input: PlanInput): PreparationPlan {
       concentration_mM: b.concentration_mM,
       basis: b.basis,
       ...(detection ? { detectionWavelength_nm: detection } : {}),
+      ...lotData(input),
     });
     pushUnique(warnings, result.warnings);
     buffer = { pH: result.pH, ionicStrength_mol_L: result.ionicStrength_mol_L, bufferCapacity_mM_per_pH: result.bufferCapacity_mM_per_pH };
@@ -145,6 +152,7 @@ export function preparationPlan(input: PlanInput): PreparationPlan {
 
   return {
     components,
+    // The buffer is made up to the water's volume, so its reagents add no volume of their own.
     finalVolume_mL,
     aqueous_mL,
     // Warnings are about this mix (UV cutoff, precipitation, MS); handling a flammable or a

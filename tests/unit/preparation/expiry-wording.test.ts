@@ -48,7 +48,17 @@ function batchWith(expiry: BatchExpiry, conditions: string | null): BatchDetail 
     deviations: [],
     deviationReason: null,
     components: [
-      { reagent: "water", name: "Water", role: "solvent", unit: "mL", target: 1000, actual: 1000, stockLotId: null, lotNumber: null },
+      {
+        reagent: "water",
+        name: "Water",
+        role: "solvent",
+        unit: "mL",
+        target: 1000,
+        actual: 1000,
+        stockLotId: null,
+        lotNumber: null,
+        assay: null,
+      },
     ],
     bottleList: [{ number: 1, status: "ready", discarded_mL: null, undo: null }],
   };
@@ -57,7 +67,7 @@ function batchWith(expiry: BatchExpiry, conditions: string | null): BatchDetail 
 describe("one expiry: the label's words and the instant come from batchExpiry", () => {
   it("prints the rule's instant and shelf life, never a second one (aqueous buffer, 48 h: the common-practice default, from memory)", () => {
     const expiry = batchExpiry({ kind: "aqueous-buffer", preparedAt, rules: DEFAULT_EXPIRY_RULES, lots: [] });
-    const label = labelContentOf(batchWith(expiry, "2–8 °C"));
+    const label = labelContentOf(batchWith(expiry, "2–8 °C"), "UTC");
     expect(expiry.expiresAt.toISOString()).toBe("2026-12-06T01:05:00.000Z");
     expect(label.expires).toBe("2026-12-06 01:05 UTC");
     expect(label.storage).toBe("2–8 °C · shelf life: aqueous buffer without organic, 2 days");
@@ -72,7 +82,7 @@ describe("one expiry: the label's words and the instant come from batchExpiry", 
       rules: DEFAULT_EXPIRY_RULES,
       lots: [{ lotNumber: "FA-2290", expiresOn: "2026-12-05" }],
     });
-    const label = labelContentOf(batchWith(expiry, null));
+    const label = labelContentOf(batchWith(expiry, null), "UTC");
     expect(label.expires).toBe("2026-12-06 00:00 UTC");
     expect(label.storage).toBe("Shelf life: lot FA-2290 expires 2026-12-05, before the rule's 7 days");
   });
