@@ -13,7 +13,7 @@ import { newKey } from "../forms/idempotency-key";
 import { IslandForm } from "../forms/island-form";
 import { postJson } from "../forms/post-json";
 import { useServerErrors } from "../forms/server-errors";
-import { fmt, type MassUnit, type VolumeUnit } from "./amounts";
+import { bottleSizeFor, fmt, type MassUnit, type VolumeUnit } from "./amounts";
 import { AmountsTable } from "./AmountsTable";
 import { DeviationNotice, OrderOfWork, PreparationChecks } from "./PreparationChecks";
 
@@ -29,10 +29,6 @@ interface Props {
 
 // With zod and the schema the page would pass its JavaScript budget: they load at the form's first
 // check (a field left, or a submit) instead; the chemistry, which the first view needs, comes first.
-/** Common bottle sizes (mL); a share larger than all of them keeps its own size. */
-const BOTTLE_SIZES = [100, 250, 500, 1000, 2000, 2500, 4000, 5000, 10_000, 20_000];
-const bottleSizeFor = (share_mL: number) => BOTTLE_SIZES.find((s) => s >= share_mL - 1e-9) ?? Math.ceil(share_mL);
-
 const loadBatchSchema = () => import("../../lib/schemas/preparation").then((m) => m.batchCreateSchema);
 
 export default function PreparationForm({ recipes, lots, tolerances, expiryRules, initialRecipeVersionId, rooms = [] }: Props) {
