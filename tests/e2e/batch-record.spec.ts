@@ -43,7 +43,12 @@ test("2 · discarding a bottle asks first, in numbers, and can be undone by a re
   await expect(dialog.getByTestId("confirm-consequences")).toContainText('250.0 mL go to waste as "discard" entries in the ledger');
   await dialog.getByRole("button", { name: "Cancel" }).click();
   await expect(dialog).toBeHidden();
-  const state = page.getByRole("row").filter({ hasText: `${number} of` });
+  // The State cell of that bottle's row (the row also holds the closed dialogs' text).
+  const state = page
+    .getByRole("row")
+    .filter({ hasText: `${number} of` })
+    .getByRole("cell")
+    .nth(1);
   await expect(state).not.toContainText("discarded");
 
   await discard.click();
