@@ -18,6 +18,8 @@ import * as signInSecurity from "./migrations/2026.12.04T03.00.00.sign-in-securi
 import * as ledgerDailyLocalDays from "./migrations/2026.12.04T08.00.00.ledger-daily-local-days";
 import * as invoiceDocuments from "./migrations/2026.12.04T07.00.00.invoice-documents";
 import * as listPagingIndexes from "./migrations/2026.12.04T09.00.00.list-paging-indexes";
+import * as batchExpiryBasis from "./migrations/2026.12.04T06.00.00.batch-expiry-basis";
+import * as bottleUndo from "./migrations/2026.12.04T06.01.00.bottle-undo";
 import * as demoFacility from "./seeders/2026.12.01T00.00.00.demo-facility";
 import * as demoPreparation from "./seeders/2026.12.01T02.00.00.demo-preparation";
 import * as wasteDemo from "./seeders/2026.12.01T05.00.00.waste-demo";
@@ -53,6 +55,8 @@ export const MIGRATIONS: Record<string, MigrationModule> = {
   "2026.12.04T08.00.00.ledger-daily-local-days.ts": ledgerDailyLocalDays,
   "2026.12.04T07.00.00.invoice-documents.ts": invoiceDocuments,
   "2026.12.04T09.00.00.list-paging-indexes.ts": listPagingIndexes,
+  "2026.12.04T06.00.00.batch-expiry-basis.ts": batchExpiryBasis,
+  "2026.12.04T06.01.00.bottle-undo.ts": bottleUndo,
 };
 
 export const SEEDERS: Record<string, MigrationModule> = {

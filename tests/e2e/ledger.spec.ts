@@ -4,7 +4,7 @@ import { signIn } from "./support";
 
 /**
  * Fills the run form as a technician would: the demo scout gradient on Wren for PMG-ROOT-26,
- * 10 injections + 2 blanks + 5 mL purge, batches B26-1103 (A) and B26-1104 (B), and records it.
+ * 10 injections + 2 blanks + 5 mL purge, the demo's current batches 4 (A) and 5 (B), and records it.
  * Worked by hand: A = 12 × 3.522 + 5 = 47.264 mL, B = 12 × 2.478 + 5 = 34.736 mL (see
  * tests/integration/ledger/runs-ledger.test.ts). Answers channel A's batch option as it was before.
  */
@@ -17,11 +17,11 @@ async function recordScoutRun(page: Page) {
   await page.getByLabel("Extra blanks").fill("2");
   await page.getByLabel("Purge / prime per channel, mL").fill("5");
   const channelA = page.getByLabel(/^Channel A/);
-  const optionA = channelA.locator("option", { hasText: "B26-1103" });
+  const optionA = channelA.locator('option[value="4"]');
   const before = Number(await optionA.getAttribute("data-ml"));
   await channelA.selectOption({ value: (await optionA.getAttribute("value")) ?? "" });
   const channelB = page.getByLabel(/^Channel B/);
-  await channelB.selectOption({ value: (await channelB.locator("option", { hasText: "B26-1104" }).getAttribute("value")) ?? "" });
+  await channelB.selectOption({ value: "5" });
   // The live preview shows what the run will take from each bottle.
   await expect(page.getByText("Channel A", { exact: true }).locator("xpath=following-sibling::dd[1]")).toHaveText("47.3 mL");
   await expect(page.getByText("Channel B", { exact: true }).locator("xpath=following-sibling::dd[1]")).toHaveText("34.7 mL");
@@ -35,7 +35,8 @@ test("a technician logs a run in the browser and sees the batch's remaining volu
   const { optionA, before } = await recordScoutRun(page);
 
   const recorded = page.getByTestId("run-recorded");
-  const after = Number(await page.getByTestId("left-B26-1103").getAttribute("data-ml"));
+  const code = /B\d{2}-\d{4}(-\d+)?/.exec(await optionA.innerText())![0];
+  const after = Number(await page.getByTestId(`left-${code}`).getAttribute("data-ml"));
   expect(before - after).toBeCloseTo(47.264, 4);
   // The batch list in the form shows the new remaining volume too.
   await expect(optionA).toHaveAttribute("data-ml", String(after));

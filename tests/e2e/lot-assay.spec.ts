@@ -75,6 +75,8 @@ test("the picked lot's assay sets what is weighed, the form and the batch say wh
   await expect(page.getByTestId("assay-phosphoric-acid")).toHaveText("assay 85.6 % (lot's certificate)");
   await page.getByLabel(/Measured pH/).fill("3.0");
   await shoot(page, "prepare-with-assays");
+  // Actuals are recorded, not assumed (issue 21): each amount made as planned, by its own button.
+  for (const asPlanned of await page.getByRole("button", { name: /: as planned$/ }).all()) await asPlanned.click();
   await page.getByRole("button", { name: "Record the batch" }).click();
   await expect(page).toHaveURL(/\/batches\/\d+\?recorded=1$/);
   await expect(page.getByTestId("assay-potassium-dihydrogen-phosphate")).toHaveText("assay 99.6 % (lot's certificate)");

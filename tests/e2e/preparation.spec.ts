@@ -1,6 +1,7 @@
 import { execFileSync } from "node:child_process";
 import { readFileSync } from "node:fs";
 import { expect, test } from "@playwright/test";
+import { preparationPlan } from "../../src/lib/preparation/plan";
 import { signIn } from "./support";
 
 test("a technician prepares a batch from a demo recipe, records it and prints its labels", async ({ page }) => {
@@ -11,17 +12,19 @@ test("a technician prepares a batch from a demo recipe, records it and prints it
 
   await page.getByLabel("Recipe", { exact: true }).selectOption({ label: "MP-FA-W · 0.1 % formic acid in water (v1, ch. A)" });
   const faTarget = page.getByTestId("target-formic-acid");
-  // 0.1 % of the final volume, the acid's own volume included: 1.001 mL for 1000 mL of water.
-  await expect(faTarget).toHaveText("1.001 mL");
+  // 0.1 % of the final volume, which is the batch volume: 1.000 mL of acid and 999 mL of water.
+  await expect(faTarget).toHaveText("1.000 mL");
 
   // The amounts follow the volume as it is typed, computed in the browser.
   const volume = page.getByLabel("Batch volume", { exact: true });
   await volume.fill("");
   await volume.pressSequentially("2500");
-  await expect(faTarget).toHaveText("2.503 mL");
-  await expect(page.getByTestId("target-water")).toHaveText("2500 mL");
+  await expect(faTarget).toHaveText("2.500 mL");
+  // 0.1 % v/v of the final 2500 mL is 2.500 mL of acid, so 2497.5 mL of water (the final volume is the batch volume).
+  await expect(page.getByTestId("target-water")).toHaveText("2498 mL");
+  await expect(page.getByTestId("final-volume")).toHaveText("2500 mL");
   await page.getByLabel("Unit for liquids").selectOption("l");
-  await expect(page.getByTestId("target-water")).toHaveText("2.500 L");
+  await expect(page.getByTestId("target-water")).toHaveText("2.498 L");
   await page.getByLabel("Unit for liquids").selectOption("ml");
 
   await page.getByLabel("Bottles", { exact: true }).fill("3");
@@ -84,7 +87,7 @@ test("a recipe picked while the page is still loading is not lost: the form wait
 
   // Picking waits for the form to be ready, and the choice reaches the amounts.
   await recipe.selectOption({ label: "MP-FA-W · 0.1 % formic acid in water (v1, ch. A)" });
-  await expect(page.getByTestId("target-formic-acid")).toHaveText("1.001 mL");
+  await expect(page.getByTestId("target-formic-acid")).toHaveText("1.000 mL");
 });
 
 test("a technician writes a recipe: the form checks it, says it in words and per litre, and saves it", async ({ page }) => {
@@ -107,8 +110,21 @@ test("a technician writes a recipe: the form checks it, says it in words and per
   await expect(page.getByLabel("Additive 1")).toHaveValue("formic-acid");
   await expect(words).toHaveText("Water 70 % + Acetonitrile 30 % · formic acid 0.1 %v/v");
   const litre = page.getByTestId("recipe-litre");
-  await expect(litre.getByRole("listitem").filter({ hasText: "Acetonitrile" })).toContainText("300.0 mL");
-  await expect(litre.getByRole("listitem").filter({ hasText: "Water" })).toContainText("700.0 mL");
+  // Measured 70:30 so that the mix, after it contracts, and its acid make 1 L (the same plan as the preparation form).
+  const perLitre = preparationPlan({
+    spec: {
+      solvents: [
+        { reagent: "water", percent: 70 },
+        { reagent: "acetonitrile", percent: 30 },
+      ],
+      additives: [{ reagent: "formic-acid", amount: 0.1, unit: "%v/v" }],
+      labile: false,
+    },
+    volume_mL: 1000,
+  });
+  const shown = (id: string) => perLitre.components.find((c) => c.reagent === id)!.target.toFixed(1);
+  await expect(litre.getByRole("listitem").filter({ hasText: "Acetonitrile" })).toContainText(`${shown("acetonitrile")} mL`);
+  await expect(litre.getByRole("listitem").filter({ hasText: "Water" })).toContainText(`${shown("water")} mL`);
 
   await page.getByRole("button", { name: "Create the recipe" }).click();
   await expect(page).toHaveURL(/\/recipes\/\d+\?saved=1$/);

@@ -15,7 +15,10 @@ import { ensureAppUser, startMariadb } from "../../scripts/lib/mariadb.mjs";
 import { migrator, seeder } from "../../src/db/umzug";
 import { RUN_LOG_HEADER } from "../../src/lib/imports/run-log";
 import { createSequelize } from "../../src/lib/server/db";
+import { demoBatchCodes } from "../support/demo-batches";
 import { freePort } from "../support/ports";
+
+let codes: Record<number, string> = {};
 
 const DAY = 86_400_000;
 const DB = "decant_faults";
@@ -191,6 +194,7 @@ beforeAll(async () => {
   });
   await migrator(sequelize).up();
   await seeder(sequelize).up();
+  codes = await demoBatchCodes(sequelize);
   await sequelize.close();
 
   base = `http://127.0.0.1:${appPort}`;
@@ -290,10 +294,10 @@ describe("the database stops under the app", () => {
         instrument: "Wren",
         method: "Scout gradient 5–95 % B, 12 min",
         project: "PMG-ROOT-26",
-        started_at: new Date(Date.now() - 10 * DAY + i * 600_000).toISOString().slice(0, 16),
+        started_at: new Date(Date.now() - 2 * DAY + i * 300_000).toISOString().slice(0, 16),
         injections: "1",
-        batch_A: "B26-1103",
-        batch_B: "B26-1104",
+        batch_A: codes[4]!,
+        batch_B: codes[5]!,
       };
       return RUN_LOG_HEADER.map((c) => (values[c]?.includes(",") ? `"${values[c]}"` : (values[c] ?? ""))).join(",");
     };

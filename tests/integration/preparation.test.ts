@@ -222,8 +222,8 @@ describe("recording a batch", () => {
       ],
     });
     expect(r.status).toBe(400);
-    // The target is 1.001 mL: 0.1 % of the final 1001 mL, the acid's own volume included.
-    expect(((await r.json()) as { error: string }).error).toMatch(/^deviationReason: outside tolerance \(Formic acid: .*\+29\.9 %/);
+    // 0.1 % v/v of the final 1000 mL is 1.000 mL, so 1.3 mL is +30.0 % (the final volume is the batch volume).
+    expect(((await r.json()) as { error: string }).error).toMatch(/^deviationReason: outside tolerance \(Formic acid: .*\+30\.0 %/);
   });
 
   it("stores what src/lib/chem computes, records once on a double click, lists it and prints N labels", async () => {

@@ -8,6 +8,7 @@ import { QueryTypes } from "sequelize";
 import { beforeAll, describe, expect, it } from "vitest";
 import { RUN_LOG_HEADER, RUN_LOG_MAX_ROWS } from "../../src/lib/imports/run-log";
 import { databaseFingerprint, useAppInstance } from "../support/app-instance";
+import { demoBatchCodes } from "../support/demo-batches";
 import type { Client } from "../support/http";
 
 const app = useAppInstance();
@@ -23,8 +24,10 @@ const lotCount = async (lotNumber: string) =>
   Number((await one<{ n: number }>("SELECT COUNT(*) AS n FROM stock_lots WHERE lot_number = ?", [lotNumber])).n);
 const figures: string[] = [];
 
+let codes: Record<number, string> = {};
 beforeAll(async () => {
   tech = await app.client("tech@demo.test");
+  codes = await demoBatchCodes(app.sequelize);
 });
 
 function lotForm(lotNumber: string, file?: { bytes: Uint8Array<ArrayBuffer>; name: string; type: string }) {
@@ -162,7 +165,7 @@ describe("certificate of analysis uploads", () => {
 });
 
 const row = (i: number, project = "PMG-ROOT-26") =>
-  `SEQ-${unique}-${i},Wren,"Scout gradient 5–95 % B, 12 min",${project},${new Date(Date.now() - 60_000).toISOString().slice(0, 16)},1,0,0,B26-1103,B26-1104,,,`;
+  `SEQ-${unique}-${i},Wren,"Scout gradient 5–95 % B, 12 min",${project},${new Date(Date.now() - 60_000).toISOString().slice(0, 16)},1,0,0,${codes[4]},${codes[5]},,,`;
 const header = RUN_LOG_HEADER.join(",");
 const utf8 = (text: string) => new TextEncoder().encode(text);
 

@@ -28,7 +28,7 @@ async function acetonitrileBatch(volume_mL: number, room?: string) {
       "SELECT id FROM stock_lots WHERE reagent_id = ? AND remaining > 0 AND expires_on > CURRENT_DATE ORDER BY remaining DESC LIMIT 1",
       { type: QueryTypes.SELECT, replacements: [c.reagent] },
     );
-    components.push({ reagent: c.reagent, stockLotId: lot!.id });
+    components.push({ reagent: c.reagent, stockLotId: lot!.id, actualAmount: c.target }); // recorded "as planned"
   }
   return recordBatch(
     {
@@ -134,12 +134,12 @@ describe("flammables on hand per room", () => {
 
   it("counts a batch's flammable share only: more of a water-based batch adds nothing", async () => {
     const before = await flammablesByRoom();
-    // B26-1103 is 0.1 % formic acid in water (neither flammable in the catalogue).
-    await db.query("UPDATE batches SET remaining_ml = remaining_ml + 1000 WHERE code = 'B26-1103' AND status IN ('ready', 'in_use')");
+    // Batch 4 is 0.1 % formic acid in water (neither flammable in the catalogue).
+    await db.query("UPDATE batches SET remaining_ml = remaining_ml + 1000 WHERE id = 4 AND status IN ('ready', 'in_use')");
     const after = await flammablesByRoom();
     expect(after.map((f) => f.batches_L)).toEqual(before.map((f) => f.batches_L));
     // …while more of the acetonitrile mix adds its litre.
-    await db.query("UPDATE batches SET remaining_ml = remaining_ml + 1000 WHERE code = 'B26-1104'");
+    await db.query("UPDATE batches SET remaining_ml = remaining_ml + 1000 WHERE id = 5");
     const more = await flammablesByRoom();
     expect(more.find((f) => f.room === "B2.16")!.batches_L - after.find((f) => f.room === "B2.16")!.batches_L).toBeCloseTo(1, 2);
   });

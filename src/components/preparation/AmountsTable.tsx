@@ -7,7 +7,7 @@ import type { FormLot } from "../../lib/preparation/types";
 import type { BatchCreateInput } from "../../lib/schemas/preparation";
 import { fmt, type MassUnit, type VolumeUnit } from "./amounts";
 
-const ROLE_LABEL: Record<string, string> = { solvent: "solvent", buffer: "buffer", titrant: "to pH", additive: "additive" };
+const ROLE_LABEL: Record<string, string> = { solvent: "solvent", buffer: "buffer", titrant: "titrant", additive: "additive" };
 
 interface Props {
   lines: PlannedComponent[];
@@ -47,7 +47,17 @@ export function AmountsTable({ lines, lots, pickedLots, form, units, texts, onTe
             const options = lots.filter((l) => l.reagent === c.reagent);
             const field = `components.${i}.actualAmount`;
             const lotError = form.formState.errors.components?.[i]?.stockLotId?.message;
+            const actualError = form.formState.errors.components?.[i]?.actualAmount?.message;
             const text = texts[rowKey(i)] ?? "";
+            const setActual = (typed: string) => {
+              onText(rowKey(i), typed);
+              const n = Number(typed.replace(",", "."));
+              form.setValue(
+                `components.${i}.actualAmount` as const,
+                typed.trim() !== "" && Number.isFinite(n) ? canonical(n, c.unit) : null,
+              );
+              if (actualError) form.clearErrors(`components.${i}.actualAmount` as const);
+            };
             return (
               <tr key={rowKey(i)} data-reagent={c.reagent}>
                 <td>
@@ -94,22 +104,33 @@ export function AmountsTable({ lines, lots, pickedLots, form, units, texts, onTe
                   )}
                 </td>
                 <td className="num">
-                  <input
-                    className="input w-28 py-1 text-right"
-                    inputMode="decimal"
-                    aria-label={`Actual amount of ${c.name} (${unitLabel(c.unit)})`}
-                    value={text}
-                    placeholder={fmt(display(c.target, c.unit))}
-                    aria-invalid={deviantFields.has(field) ? true : undefined}
-                    onChange={(e) => {
-                      onText(rowKey(i), e.target.value);
-                      const n = Number(e.target.value.replace(",", "."));
-                      form.setValue(
-                        `components.${i}.actualAmount` as const,
-                        e.target.value.trim() !== "" && Number.isFinite(n) ? canonical(n, c.unit) : null,
-                      );
-                    }}
-                  />
+                  <div className="flex items-center justify-end gap-1.5">
+                    <input
+                      className="input w-28 py-1 text-right"
+                      inputMode="decimal"
+                      aria-label={`Actual amount of ${c.name} (${unitLabel(c.unit)})`}
+                      value={text}
+                      aria-invalid={deviantFields.has(field) || actualError ? true : undefined}
+                      aria-describedby={actualError ? `actual-${i}-error` : undefined}
+                      onChange={(e) => setActual(e.target.value)}
+                    />
+                    <button
+                      type="button"
+                      className="btn btn-quiet whitespace-nowrap px-2 py-1 text-xs"
+                      aria-label={`${c.name}: as planned`}
+                      title={
+                        c.role === "titrant" ? "Copies the estimate; record what you actually added" : "Copies the target into the field"
+                      }
+                      onClick={() => setActual(fmt(display(c.target, c.unit)))}
+                    >
+                      As planned
+                    </button>
+                  </div>
+                  {actualError && (
+                    <p id={`actual-${i}-error`} className="field-error text-left" role="alert">
+                      {actualError}
+                    </p>
+                  )}
                 </td>
               </tr>
             );

@@ -1,3 +1,5 @@
+import type { UseFormRegisterReturn } from "react-hook-form";
+import type { Deviation } from "../../lib/preparation/deviations";
 import type { BatchExpiry } from "../../lib/preparation/expiry";
 import type { PreparationPlan } from "../../lib/preparation/plan";
 import { fmt } from "./amounts";
@@ -47,17 +49,19 @@ export function PreparationChecks({
             <>
               <dt className="text-[var(--color-muted)]">Expires</dt>
               <dd className="num" data-testid="expiry-preview">
-                {expiry.expiresAt.toISOString().slice(0, 16).replace("T", " ")} UTC
+                {expiry.wording.expires}
               </dd>
+              <dt className="text-[var(--color-muted)]">Shelf life from</dt>
+              <dd data-testid="expiry-basis-preview">{expiry.wording.basis}</dd>
             </>
           )}
         </dl>
-        {expiry && <p className="mt-2 text-xs text-[var(--color-muted)]">{expiry.reason}</p>}
+        {expiry && !expiry.limitedBy && <p className="mt-2 text-xs text-[var(--color-muted)]">{expiry.rule.reason}</p>}
       </section>
       {plan.warnings.length > 0 && (
         <section className="notice text-sm" aria-labelledby="warn-heading">
           <h2 id="warn-heading" className="text-base">
-            Warnings
+            Warnings about this mix
           </h2>
           <ul className="ml-4 mt-1 list-disc space-y-1" data-testid="chem-warnings">
             {plan.warnings.map((w) => (
@@ -68,7 +72,7 @@ export function PreparationChecks({
       )}
       <section className="notice notice-danger text-sm" aria-labelledby="caution-heading">
         <h2 id="caution-heading" className="text-base">
-          Cautions
+          Cautions for making it
         </h2>
         <ul className="ml-4 mt-1 list-disc space-y-1">
           {plan.cautions.map((c) => (
@@ -77,5 +81,56 @@ export function PreparationChecks({
         </ul>
       </section>
     </>
+  );
+}
+
+/** The order of work, generated from the components in the mix (`lib/preparation/order-of-work.ts`). */
+export function OrderOfWork({ steps }: { steps: readonly string[] }) {
+  return (
+    <section className="card p-5" aria-labelledby="order-heading">
+      <h2 id="order-heading">Order of work</h2>
+      <ol className="ml-5 mt-2 list-decimal space-y-1 text-sm" data-testid="order-of-work">
+        {steps.map((s) => (
+          <li key={s}>{s}</li>
+        ))}
+      </ol>
+    </section>
+  );
+}
+
+/** Outside the facility's tolerances: what, and the reason the label will carry. */
+export function DeviationNotice({
+  deviations,
+  registration,
+  error,
+}: {
+  deviations: readonly Deviation[];
+  registration: UseFormRegisterReturn;
+  error: string | undefined;
+}) {
+  return (
+    <div className="notice mt-4" role="status">
+      <p className="font-medium">Outside the facility's tolerances:</p>
+      <ul className="ml-5 list-disc">
+        {deviations.map((d) => (
+          <li key={d.field}>{d.message}</li>
+        ))}
+      </ul>
+      <div className="field mt-3">
+        <label htmlFor="prep-reason">Reason for the deviation (printed on the label)</label>
+        <input
+          id="prep-reason"
+          className="input"
+          aria-invalid={error ? true : undefined}
+          aria-describedby={error ? "prep-reason-error" : undefined}
+          {...registration}
+        />
+        {error && (
+          <p id="prep-reason-error" className="field-error" role="alert">
+            {error}
+          </p>
+        )}
+      </div>
+    </div>
   );
 }

@@ -1,7 +1,7 @@
 import convert from "convert-units";
 import { useEffect, useMemo, useRef, useState } from "react";
 import { ChemInputError } from "../../lib/chem/warnings";
-import { findDeviations, type Tolerances } from "../../lib/preparation/deviations";
+import { actualsProblems, findDeviations, type Tolerances } from "../../lib/preparation/deviations";
 import { batchExpiry, lotExpired, type ExpiryRule } from "../../lib/preparation/expiry";
 import { lotChemistry } from "../../lib/preparation/lot-assays";
 import { preparationPlan, type PreparationPlan } from "../../lib/preparation/plan";
@@ -13,9 +13,9 @@ import { newKey } from "../forms/idempotency-key";
 import { IslandForm } from "../forms/island-form";
 import { postJson } from "../forms/post-json";
 import { useServerErrors } from "../forms/server-errors";
-import { fmt, type MassUnit, type VolumeUnit } from "./amounts";
+import { bottleSizeFor, fmt, type MassUnit, type VolumeUnit } from "./amounts";
 import { AmountsTable } from "./AmountsTable";
-import { PreparationChecks } from "./PreparationChecks";
+import { DeviationNotice, OrderOfWork, PreparationChecks } from "./PreparationChecks";
 
 interface Props {
   recipes: FormRecipe[];
@@ -33,7 +33,8 @@ const loadBatchSchema = () => import("../../lib/schemas/preparation").then((m) =
 
 export default function PreparationForm({ recipes, lots, tolerances, expiryRules, initialRecipeVersionId, rooms = [] }: Props) {
   const key = useRef(newKey("batch"));
-  const first = recipes.find((r) => r.versionId === initialRecipeVersionId) ?? recipes[0];
+  // No recipe is preselected unless the page was opened from one ("Prepare from this recipe").
+  const first = recipes.find((r) => r.versionId === initialRecipeVersionId);
   const form = useZodForm<BatchCreateInput>(loadBatchSchema, {
     defaultValues: {
       idempotencyKey: key.current,
@@ -115,7 +116,13 @@ export default function PreparationForm({ recipes, lots, tolerances, expiryRules
         tolerances,
         targetPH: recipe?.spec.buffer?.targetPH ?? null,
         measuredPH: typeof measuredPH === "number" && Number.isFinite(measuredPH) ? measuredPH : null,
-        components: lines.map((c, i) => ({ name: c.name, unit: c.unit, target: c.target, actual: chosenLots[i]?.actualAmount ?? null })),
+        components: lines.map((c, i) => ({
+          name: c.name,
+          unit: c.unit,
+          role: c.role,
+          target: c.target,
+          actual: chosenLots[i]?.actualAmount ?? null,
+        })),
       })
     : [];
   const deviantFields = new Set(deviations.map((d) => d.field));
@@ -134,6 +141,22 @@ export default function PreparationForm({ recipes, lots, tolerances, expiryRules
 
   const onSubmit = handleSubmit(async (values) => {
     setServerError(null);
+    // Blank or implausible actuals are refused here as the service refuses them, each at its field.
+    const refused = actualsProblems(
+      lines.map((c, i) => ({
+        name: c.name,
+        unit: c.unit,
+        role: c.role,
+        target: c.target,
+        actual: values.components[i]?.actualAmount ?? null,
+      })),
+    );
+    if (refused.length) {
+      refused.forEach((p, n) =>
+        form.setError(p.field as `components.${number}.actualAmount`, { type: "refused", message: p.message }, { shouldFocus: n === 0 }),
+      );
+      return;
+    }
     setSaving(true);
     try {
       const result = await postJson<RecordedBatch>("/api/batches", { ...values, idempotencyKey: key.current });
@@ -159,6 +182,9 @@ export default function PreparationForm({ recipes, lots, tolerances, expiryRules
             <div className="field sm:col-span-2">
               <label htmlFor="prep-recipe">Recipe</label>
               <select id="prep-recipe" className="input" {...register("recipeVersionId", { valueAsNumber: true })}>
+                <option value={0} disabled>
+                  Choose a recipe…
+                </option>
                 {recipes.map((r) => (
                   <option
                     key={r.versionId}
@@ -215,7 +241,19 @@ export default function PreparationForm({ recipes, lots, tolerances, expiryRules
             </div>
             <div className="field">
               <label htmlFor="prep-bottles">Bottles</label>
-              <input id="prep-bottles" className="input" inputMode="numeric" {...register("bottles", { valueAsNumber: true })} />
+              <input
+                id="prep-bottles"
+                className="input"
+                inputMode="numeric"
+                {...register("bottles", {
+                  valueAsNumber: true,
+                  // The bottle size follows the number of bottles (the next common size that holds a share); edit it after.
+                  onChange: (e) => {
+                    const n = Number(e.target.value);
+                    if (n >= 1 && volume > 0) setValue("bottleSize_mL", bottleSizeFor(volume / n));
+                  },
+                })}
+              />
               {errors.bottles && (
                 <p className="field-error" role="alert">
                   {errors.bottles.message}
@@ -337,42 +375,11 @@ export default function PreparationForm({ recipes, lots, tolerances, expiryRules
             </div>
           )}
           {deviations.length > 0 && (
-            <div className="notice mt-4" role="status">
-              <p className="font-medium">Outside the facility's tolerances:</p>
-              <ul className="ml-5 list-disc">
-                {deviations.map((d) => (
-                  <li key={d.field}>{d.message}</li>
-                ))}
-              </ul>
-              <div className="field mt-3">
-                <label htmlFor="prep-reason">Reason for the deviation (printed on the label)</label>
-                <input
-                  id="prep-reason"
-                  className="input"
-                  aria-invalid={errors.deviationReason ? true : undefined}
-                  aria-describedby={errors.deviationReason ? "prep-reason-error" : undefined}
-                  {...register("deviationReason")}
-                />
-                {errors.deviationReason && (
-                  <p id="prep-reason-error" className="field-error" role="alert">
-                    {errors.deviationReason.message}
-                  </p>
-                )}
-              </div>
-            </div>
+            <DeviationNotice deviations={deviations} registration={register("deviationReason")} error={errors.deviationReason?.message} />
           )}
         </section>
 
-        {plan && (
-          <section className="card p-5" aria-labelledby="order-heading">
-            <h2 id="order-heading">Order of work</h2>
-            <ol className="ml-5 mt-2 list-decimal space-y-1 text-sm">
-              {plan.steps.map((s) => (
-                <li key={s}>{s}</li>
-              ))}
-            </ol>
-          </section>
-        )}
+        {plan && <OrderOfWork steps={plan.steps} />}
       </div>
 
       <aside className="grid content-start gap-4" aria-label="Checks">

@@ -4,26 +4,28 @@ import { preparationSettingsSchema } from "../../lib/schemas/preparation";
 import { formatZodError } from "../../lib/schemas/zod-error";
 import { errorMessage, postJson } from "../forms/post-json";
 import { IslandForm } from "../forms/island-form";
+import { shelfLifeText } from "../../lib/preparation/expiry";
+import { LabelStockEditor } from "./LabelStockEditor";
 
 /** Expiry rules, deviation tolerances and label stocks, for a manager. */
 export default function PreparationSettingsForm({ initial }: { initial: PreparationSettings }) {
   const [rules, setRules] = useState(initial.expiryRules);
   const [pH, setPH] = useState(String(initial.tolerances.pH));
   const [amount, setAmount] = useState(String(initial.tolerances.amount_percent));
-  const [stocks, setStocks] = useState(JSON.stringify(initial.labelStocks, null, 2));
+  const [stocks, setStocks] = useState(initial.labelStocks);
   const [defaultStock, setDefaultStock] = useState(initial.defaultLabelStockId);
   const [message, setMessage] = useState<{ ok: boolean; text: string } | null>(null);
+  const setLife = (i: number, hours: number) => setRules(rules.map((x, j) => (j === i ? { ...x, shelfLife_h: hours } : x)));
 
   async function save(event: React.FormEvent) {
     event.preventDefault();
     setMessage(null);
-    let labelStocks: unknown;
-    try {
-      labelStocks = JSON.parse(stocks);
-    } catch {
-      return setMessage({ ok: false, text: "labelStocks: not valid JSON" });
-    }
-    const candidate = { expiryRules: rules, tolerances: { pH, amount_percent: amount }, labelStocks, defaultLabelStockId: defaultStock };
+    const candidate = {
+      expiryRules: rules,
+      tolerances: { pH, amount_percent: amount },
+      labelStocks: stocks,
+      defaultLabelStockId: defaultStock,
+    };
     const parsed = preparationSettingsSchema.safeParse(candidate);
     if (!parsed.success) return setMessage({ ok: false, text: formatZodError(parsed.error) });
     try {
@@ -47,7 +49,7 @@ export default function PreparationSettingsForm({ initial }: { initial: Preparat
             <thead>
               <tr>
                 <th>Kind of mobile phase</th>
-                <th className="num">Shelf life (h)</th>
+                <th className="num">Shelf life</th>
                 <th>Reason shown to the technician</th>
               </tr>
             </thead>
@@ -56,13 +58,25 @@ export default function PreparationSettingsForm({ initial }: { initial: Preparat
                 <tr key={r.kind}>
                   <td className="font-medium">{r.label}</td>
                   <td className="num">
-                    <input
-                      aria-label={`Shelf life of ${r.label} in hours`}
-                      className="input w-24 text-right"
-                      inputMode="numeric"
-                      value={String(r.shelfLife_h)}
-                      onChange={(e) => setRules(rules.map((x, j) => (j === i ? { ...x, shelfLife_h: Number(e.target.value) } : x)))}
-                    />
+                    <span className="inline-flex items-center gap-1">
+                      <input
+                        aria-label={`Shelf life of ${r.label}: days`}
+                        className="input w-16 text-right"
+                        inputMode="numeric"
+                        value={String(Math.floor(r.shelfLife_h / 24))}
+                        onChange={(e) => setLife(i, Number(e.target.value) * 24 + (r.shelfLife_h % 24))}
+                      />
+                      d
+                      <input
+                        aria-label={`Shelf life of ${r.label}: hours`}
+                        className="input w-14 text-right"
+                        inputMode="numeric"
+                        value={String(r.shelfLife_h % 24)}
+                        onChange={(e) => setLife(i, Math.floor(r.shelfLife_h / 24) * 24 + Number(e.target.value))}
+                      />
+                      h
+                    </span>
+                    <p className="mt-1 text-xs text-[var(--color-muted)]">{shelfLifeText(r.shelfLife_h)}</p>
                   </td>
                   <td>
                     <input
@@ -94,22 +108,18 @@ export default function PreparationSettingsForm({ initial }: { initial: Preparat
       <section className="card grid gap-3 p-5" aria-labelledby="stocks-heading">
         <h2 id="stocks-heading">Label stocks</h2>
         <p className="text-sm text-[var(--color-muted)]">
-          Each stock: <code>id</code>, <code>name</code>, <code>kind</code> (roll or sheet), <code>width_mm</code>, <code>height_mm</code>;
-          a sheet adds <code>sheet</code> with page size, columns, rows, margins and gaps (mm).
+          A roll prints one label per page; a sheet places a grid of labels on each page. The drawing shows what the printer gets.
         </p>
-        <div className="field">
-          <label htmlFor="stocks-json">Stocks (JSON)</label>
-          <textarea
-            id="stocks-json"
-            className="input min-h-64 font-mono text-xs"
-            value={stocks}
-            onChange={(e) => setStocks(e.target.value)}
-            spellCheck={false}
-          />
-        </div>
-        <div className="field w-64">
-          <label htmlFor="stock-default">Default stock id</label>
-          <input id="stock-default" className="input" value={defaultStock} onChange={(e) => setDefaultStock(e.target.value)} />
+        <LabelStockEditor stocks={stocks} onChange={setStocks} />
+        <div className="field w-72">
+          <label htmlFor="stock-default">Default stock</label>
+          <select id="stock-default" className="input" value={defaultStock} onChange={(e) => setDefaultStock(e.target.value)}>
+            {stocks.map((s) => (
+              <option key={s.id} value={s.id}>
+                {s.name}
+              </option>
+            ))}
+          </select>
         </div>
       </section>
       <div className="flex items-center gap-3">

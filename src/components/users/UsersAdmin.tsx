@@ -6,6 +6,8 @@ import { HydratedControls } from "../forms/island-form";
 import { errorMessage, postJson } from "../forms/post-json";
 import { InviteForm } from "./InviteForm";
 import { RoleEditor } from "./RoleEditor";
+import { undoUntil } from "../../lib/undo";
+import { ConfirmAction, UndoNotice } from "../common/ConfirmAction";
 
 interface Props {
   users: UserRow[];
@@ -52,7 +54,7 @@ export default function UsersAdmin({ users: initial, clients, actor }: Props) {
   const [sort, setSort] = useState<{ key: SortKey; ascending: boolean }>({ key: "name", ascending: true });
   const [inviting, setInviting] = useState(false);
   const [editing, setEditing] = useState<number | null>(null);
-  const [confirming, setConfirming] = useState<number | null>(null);
+  const [deactivated, setDeactivated] = useState<{ id: number; name: string; until: string } | null>(null);
   const [notice, setNotice] = useState<{ text: string; warning: boolean } | null>(null);
 
   const sorted = useMemo(() => {
@@ -90,6 +92,18 @@ export default function UsersAdmin({ users: initial, clients, actor }: Props) {
           </button>
         </div>
         {inviting && <InviteForm clients={clients} actorRole={actor.role} onInvited={(text, warning) => reload(text, warning)} />}
+        {deactivated && (
+          <UndoNotice
+            key={deactivated.until}
+            done={`${deactivated.name} is deactivated.`}
+            offer={{ until: deactivated.until, effect: "Makes the account active again; they sign in anew." }}
+            onUndo={async () => {
+              await postJson(`/api/users/${deactivated.id}`, { active: true }, "PATCH");
+              setDeactivated(null);
+              await reload(`Undone: ${deactivated.name} is active again.`);
+            }}
+          />
+        )}
         {notice && (
           <p
             className={notice.warning ? "notice notice-danger" : "notice border-l-[var(--color-ok)] bg-[var(--color-ok-wash)]"}
@@ -154,26 +168,6 @@ export default function UsersAdmin({ users: initial, clients, actor }: Props) {
                           );
                         }}
                       />
-                    ) : mayChange(u) && confirming === u.id ? (
-                      <div className="flex flex-wrap items-center gap-2" role="group" aria-label={`Confirm deactivating ${u.name}`}>
-                        <span className="text-sm">Deactivate {u.name}? They are signed out at once.</span>
-                        <button
-                          className="btn bg-[var(--color-danger)] border-[var(--color-danger)]"
-                          type="button"
-                          onClick={() => {
-                            setConfirming(null);
-                            void act(
-                              () => postJson(`/api/users/${u.id}`, { active: false }, "PATCH"),
-                              `${u.name} is deactivated and signed out.`,
-                            );
-                          }}
-                        >
-                          Yes, deactivate
-                        </button>
-                        <button className="btn btn-quiet" type="button" onClick={() => setConfirming(null)}>
-                          Keep
-                        </button>
-                      </div>
                     ) : mayChange(u) ? (
                       <div className="flex flex-wrap gap-1.5">
                         {u.active && (
@@ -181,7 +175,6 @@ export default function UsersAdmin({ users: initial, clients, actor }: Props) {
                             className={SMALL}
                             type="button"
                             onClick={() => {
-                              setConfirming(null);
                               setEditing(u.id);
                             }}
                             aria-label={`Change role of ${u.name}`}
@@ -190,17 +183,25 @@ export default function UsersAdmin({ users: initial, clients, actor }: Props) {
                           </button>
                         )}
                         {u.active ? (
-                          <button
-                            className={SMALL}
-                            type="button"
-                            onClick={() => {
+                          <ConfirmAction
+                            label="Deactivate"
+                            ariaLabel={`Deactivate ${u.name}`}
+                            tone="danger"
+                            buttonClassName={SMALL}
+                            title={`Deactivate ${u.name}?`}
+                            consequences={[
+                              `${u.name} (${u.email}) is signed out at once and can no longer sign in.`,
+                              "Their records, runs and ledger entries stay as they are.",
+                              "You can undo this for two minutes, or reactivate the account later.",
+                            ]}
+                            confirmLabel={`Deactivate ${u.name}`}
+                            onConfirm={async () => {
                               setEditing(null);
-                              setConfirming(u.id);
+                              await postJson(`/api/users/${u.id}`, { active: false }, "PATCH");
+                              setDeactivated({ id: u.id, name: u.name, until: undoUntil(new Date()).toISOString() });
+                              await reload(`${u.name} is deactivated and signed out.`);
                             }}
-                            aria-label={`Deactivate ${u.name}`}
-                          >
-                            Deactivate
-                          </button>
+                          />
                         ) : (
                           <button
                             className={SMALL}

@@ -4,9 +4,9 @@ import type { QueryInterface } from "sequelize";
 import type { MigrationParams } from "umzug";
 import { hashPassword } from "../../lib/server/auth/password";
 import { execute } from "../../lib/server/query";
-import { DAY_MS, demoClock } from "../demo-time";
-
-const DAY = DAY_MS;
+import { demoBatchSchedule, demoCodes, demoExpiry, type DemoBatch } from "../demo-batches";
+import { DEMO_RECIPE_SPECS } from "../demo-recipes";
+import { demoClock } from "../demo-time";
 
 /** Small deterministic generator so every fresh seed looks the same. */
 function prng(seed: number) {
@@ -292,7 +292,7 @@ export async function up({ context: qi }: MigrationParams<QueryInterface>) {
       grade: "analytical",
       received_on: at(200),
       opened_on: at(190),
-      expires_on: at(5),
+      expires_on: at(-400),
       quantity: 500,
       remaining: 310,
       room: "B2.16",
@@ -386,7 +386,7 @@ export async function up({ context: qi }: MigrationParams<QueryInterface>) {
       id: 1,
       recipe_id: 1,
       version: 1,
-      spec: spec({ solvents: [{ reagent: "water", percent: 100 }], additives: [{ reagent: "formic-acid", amount: 0.1, unit: "%v/v" }] }),
+      spec: spec(DEMO_RECIPE_SPECS["MP-FA-W"]),
       detection_nm: 254,
       storage: "Room temperature, capped",
       created_by: 3,
@@ -398,10 +398,7 @@ export async function up({ context: qi }: MigrationParams<QueryInterface>) {
       id: 2,
       recipe_id: 2,
       version: 1,
-      spec: spec({
-        solvents: [{ reagent: "acetonitrile", percent: 100 }],
-        additives: [{ reagent: "formic-acid", amount: 0.1, unit: "%v/v" }],
-      }),
+      spec: spec(DEMO_RECIPE_SPECS["MP-FA-ACN"]),
       detection_nm: 254,
       storage: "Flammables cabinet",
       created_by: 3,
@@ -413,18 +410,9 @@ export async function up({ context: qi }: MigrationParams<QueryInterface>) {
       id: 3,
       recipe_id: 3,
       version: 1,
-      spec: spec({
-        solvents: [{ reagent: "water", percent: 100 }],
-        buffer: {
-          reagents: ["potassium-dihydrogen-phosphate", "phosphoric-acid"],
-          targetPH: 3.0,
-          concentration_mM: 25,
-          basis: "first",
-          temperature_C: 25,
-        },
-      }),
+      spec: spec(DEMO_RECIPE_SPECS["MP-PHOS-30"]),
       detection_nm: 210,
-      storage: "2–8 °C, use within 7 days",
+      storage: "2–8 °C",
       created_by: 3,
       approved_by: 2,
       approved_at: t0,
@@ -434,62 +422,16 @@ export async function up({ context: qi }: MigrationParams<QueryInterface>) {
       id: 4,
       recipe_id: 4,
       version: 1,
-      spec: spec({
-        solvents: [{ reagent: "water", percent: 100 }],
-        buffer: { reagents: ["ammonium-formate", "formic-acid"], targetPH: 3.5, concentration_mM: 10, basis: "first", temperature_C: 25 },
-      }),
+      spec: spec(DEMO_RECIPE_SPECS["MP-AMF-35"]),
       detection_nm: 220,
-      storage: "Room temperature, 48 h",
+      storage: "Room temperature, capped",
       created_by: 6,
       created_at: at(10),
     },
   ]);
 
-  // Batches: a few current ones and older ones already used up.
-  const batches = [
-    { id: 1, code: "B26-0901", recipe_version_id: 1, days: 75, volume: 2000, remaining: 0, status: "empty", life: 30 },
-    { id: 2, code: "B26-0902", recipe_version_id: 2, days: 75, volume: 2000, remaining: 0, status: "empty", life: 30 },
-    { id: 3, code: "B26-1014", recipe_version_id: 3, days: 40, volume: 1000, remaining: 0, status: "discarded", life: 7 },
-    { id: 4, code: "B26-1103", recipe_version_id: 1, days: 12, volume: 4000, remaining: 2650, status: "in_use", life: 30 },
-    { id: 5, code: "B26-1104", recipe_version_id: 2, days: 12, volume: 4000, remaining: 2890, status: "in_use", life: 30 },
-    { id: 6, code: "B26-1120", recipe_version_id: 3, days: 2, volume: 1000, remaining: 1000, status: "ready", life: 7 },
-  ];
-  await qi.bulkInsert(
-    "batches",
-    batches.map((b) => ({
-      id: b.id,
-      code: b.code,
-      recipe_version_id: b.recipe_version_id,
-      spec_snapshot: JSON.stringify({ recipeVersionId: b.recipe_version_id }),
-      volume_ml: b.volume,
-      remaining_ml: b.remaining,
-      bottles: b.volume / 1000,
-      bottle_size_ml: 1000,
-      temperature_c: 22,
-      measured_ph: b.recipe_version_id === 3 ? 3.02 : null,
-      prepared_by: b.id % 2 ? 3 : 6,
-      prepared_at: at(b.days, 8),
-      expires_at: new Date(at(b.days, 8).getTime() + b.life * DAY),
-      status: b.status,
-      ...stamp(at(b.days, 8)),
-    })),
-  );
-  await qi.bulkInsert("batch_components", [
-    { batch_id: 4, reagent_id: "water", stock_lot_id: 6, role: "solvent", unit: "mL", target_amount: 4000, actual_amount: 4000 },
-    { batch_id: 4, reagent_id: "formic-acid", stock_lot_id: 3, role: "additive", unit: "mL", target_amount: 4, actual_amount: 4 },
-    { batch_id: 5, reagent_id: "acetonitrile", stock_lot_id: 1, role: "solvent", unit: "mL", target_amount: 4000, actual_amount: 4000 },
-    { batch_id: 5, reagent_id: "formic-acid", stock_lot_id: 3, role: "additive", unit: "mL", target_amount: 4, actual_amount: 4 },
-    { batch_id: 6, reagent_id: "water", stock_lot_id: 6, role: "solvent", unit: "mL", target_amount: 1000, actual_amount: 1000 },
-    {
-      batch_id: 6,
-      reagent_id: "potassium-dihydrogen-phosphate",
-      stock_lot_id: 4,
-      role: "buffer",
-      unit: "g",
-      target_amount: 3.4021,
-      actual_amount: 3.405,
-    },
-  ]);
+  // Batches (demo-batches.ts): inserted after the runs below, whose use sets their volumes.
+  const schedule = demoBatchSchedule();
 
   // Three months of runs with their ledger entries (invented, illustrative volumes).
   const random = prng(20261201);
@@ -519,7 +461,7 @@ export async function up({ context: qi }: MigrationParams<QueryInterface>) {
       const use = perInjection[methodId]!;
       const volumes = { A: +(use.A * injections).toFixed(2), B: +(use.B * injections).toFixed(2) };
       const startedAt = new Date(day.getTime() + Math.floor(random() * 6) * 3_600_000);
-      const [batchA, batchB] = daysAgo > 12 ? [1, 2] : [4, 5];
+      const { A: batchA, B: batchB } = schedule.forRun(daysAgo);
       runs.push({
         id: runId,
         instrument_id: instrumentId,
@@ -553,6 +495,71 @@ export async function up({ context: qi }: MigrationParams<QueryInterface>) {
       ledger.push(entry(batchB, "acetonitrile", volumes.B * 0.999), entry(batchB, "formic-acid", volumes.B * 0.001));
     }
   }
+  // Each batch holds what its runs drew (historical ones used up), in whole bottles of 1 L.
+  const used = new Map<number, number>();
+  for (const e of ledger as { batch_id: number; volume_ml: number }[]) used.set(e.batch_id, (used.get(e.batch_id) ?? 0) + e.volume_ml);
+  const lotExpiry = (lotNumber: string, daysAhead: number) => ({ lotNumber, expiresOn: at(-daysAhead).toISOString().slice(0, 10) });
+  const lotsOf: Record<number, { lotNumber: string; expiresOn: string }[]> = {
+    4: [lotExpiry("UPW-SYSTEM", 3650), lotExpiry("FA-2290", 300)],
+    5: [lotExpiry("AN-58213", 600), lotExpiry("FA-2290", 300)],
+    6: [lotExpiry("UPW-SYSTEM", 3650), lotExpiry("KP-7731", 400)],
+  };
+  const preparedAt = (b: DemoBatch) => at(b.daysAgo, 8);
+  const codes = demoCodes(schedule.batches.map((b) => ({ id: b.id, at: preparedAt(b) })));
+  const batchRows = schedule.batches.map((b) => {
+    const drawn = +(used.get(b.id) ?? 0).toFixed(4);
+    const volume =
+      b.remaining !== undefined ? b.remaining : Math.max(1000, Math.ceil((drawn + (b.status === "in_use" ? 2500 : 0)) / 1000) * 1000);
+    const expiry = demoExpiry(b.recipeVersionId, preparedAt(b), lotsOf[b.id] ?? []);
+    return {
+      id: b.id,
+      code: codes.get(b.id)!,
+      recipe_version_id: b.recipeVersionId,
+      spec_snapshot: JSON.stringify({ recipeVersionId: b.recipeVersionId }),
+      volume_ml: volume,
+      remaining_ml: b.status === "in_use" || b.status === "ready" ? +(volume - drawn).toFixed(4) : 0,
+      bottles: volume / 1000,
+      bottle_size_ml: 1000,
+      temperature_c: 22,
+      measured_ph: b.recipeVersionId === 3 ? 3.02 : null,
+      prepared_by: b.id % 2 ? 3 : 6,
+      prepared_at: preparedAt(b),
+      expires_at: expiry.expiresAt,
+      expiry_reason: expiry.reason.slice(0, 300),
+      expiry_basis: JSON.stringify(expiry.basis),
+      status: b.status,
+      ...stamp(preparedAt(b)),
+    };
+  });
+  await qi.bulkInsert("batches", batchRows);
+  // A row per bottle: in use batches have their first bottles done, the rest ready.
+  await qi.bulkInsert(
+    "batch_bottles",
+    batchRows.flatMap((b) =>
+      Array.from({ length: b.bottles }, (_, i) => {
+        const emptied = Math.floor((b.volume_ml - b.remaining_ml) / (b.volume_ml / b.bottles));
+        const status = b.status !== "in_use" ? b.status : i < emptied ? "empty" : i === emptied ? "in_use" : "ready";
+        return { batch_id: b.id, number: i + 1, status, created_at: b.prepared_at, updated_at: b.prepared_at };
+      }),
+    ),
+  );
+  await qi.bulkInsert("batch_components", [
+    { batch_id: 4, reagent_id: "water", stock_lot_id: 6, role: "solvent", unit: "mL", target_amount: 4000, actual_amount: 4000 },
+    { batch_id: 4, reagent_id: "formic-acid", stock_lot_id: 3, role: "additive", unit: "mL", target_amount: 4, actual_amount: 4 },
+    { batch_id: 5, reagent_id: "acetonitrile", stock_lot_id: 1, role: "solvent", unit: "mL", target_amount: 4000, actual_amount: 4000 },
+    { batch_id: 5, reagent_id: "formic-acid", stock_lot_id: 3, role: "additive", unit: "mL", target_amount: 4, actual_amount: 4 },
+    { batch_id: 6, reagent_id: "water", stock_lot_id: 6, role: "solvent", unit: "mL", target_amount: 1000, actual_amount: 1000 },
+    {
+      batch_id: 6,
+      reagent_id: "potassium-dihydrogen-phosphate",
+      stock_lot_id: 4,
+      role: "buffer",
+      unit: "g",
+      target_amount: 3.4021,
+      actual_amount: 3.405,
+    },
+  ]);
+
   await qi.bulkInsert("runs", runs);
   await qi.bulkInsert("ledger_entries", ledger);
   await execute(

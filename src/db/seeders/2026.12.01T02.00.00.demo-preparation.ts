@@ -4,6 +4,7 @@ import type { QueryInterface } from "sequelize";
 import type { MigrationParams } from "umzug";
 import { batchCodeBase, nextBatchCode } from "../../lib/preparation/batch-code";
 import { select, selectOne } from "../../lib/server/query";
+import { demoExpiry } from "../demo-batches";
 
 const DAY = 86_400_000;
 
@@ -65,7 +66,9 @@ export async function up({ context: qi }: MigrationParams<QueryInterface>) {
   ]);
 
   const taken = (await select<{ code: string }>("SELECT code FROM batches", { sequelize: qi.sequelize })).map((r) => r.code);
-  const batch = async (recipeVersionId: number, preparedAt: Date, expiresAt: Date, volume: number, status: string, ph: number | null) => {
+  const batch = async (recipeVersionId: 1 | 3, preparedAt: Date, volume: number, status: string, ph: number | null) => {
+    // The expiry from the rules, as a recorded batch gets it (demo-batches.ts); no lots are listed.
+    const expiry = demoExpiry(recipeVersionId, preparedAt, []);
     const code = nextBatchCode(batchCodeBase(preparedAt), taken);
     taken.push(code);
     await qi.bulkInsert("batches", [
@@ -81,9 +84,10 @@ export async function up({ context: qi }: MigrationParams<QueryInterface>) {
         measured_ph: ph,
         prepared_by: 3,
         prepared_at: preparedAt,
-        expires_at: expiresAt,
+        expires_at: expiry.expiresAt,
         status,
-        expiry_reason: "Demo data",
+        expiry_reason: expiry.reason.slice(0, 300),
+        expiry_basis: JSON.stringify(expiry.basis),
         created_at: preparedAt,
         updated_at: preparedAt,
       },
@@ -94,10 +98,10 @@ export async function up({ context: qi }: MigrationParams<QueryInterface>) {
   };
   // Acidified water, a week's life: due within the next day.
   const dueAt = new Date(now.getTime() - 6.6 * DAY);
-  await batch(1, dueAt, new Date(dueAt.getTime() + 7 * DAY), 2000, "in_use", null);
+  await batch(1, dueAt, 2000, "in_use", null);
   // Phosphate buffer made four days ago with a 48 h rule: expired, still on the bench.
   const oldAt = new Date(now.getTime() - 4 * DAY);
-  await batch(3, oldAt, new Date(oldAt.getTime() + 2 * DAY), 1000, "ready", 3.01);
+  await batch(3, oldAt, 1000, "ready", 3.01);
 }
 
 export async function down({ context: qi }: MigrationParams<QueryInterface>) {

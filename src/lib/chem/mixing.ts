@@ -210,6 +210,8 @@ export function mixMobilePhase(input: MixMobilePhaseInput): MixMobilePhaseResult
     uvCutoffWarning(v.reagent, input.detectionWavelength_nm, warnings);
   }
 
+  // A concentrated additive's caution says what it goes into: water, or the organic of a neat mix.
+  const hasWater = input.solvents.some((s) => s.reagent === "water" && s.percent > 0);
   const lines: AdditiveLine[] = (input.additives ?? []).map((a, i) => {
     const field = `additives[${i}]`;
     const r = lookupReagent(a.reagent, `${field}.reagent`);
@@ -234,7 +236,7 @@ export function mixMobilePhase(input: MixMobilePhaseInput): MixMobilePhaseResult
   lines.forEach((line, i) => {
     const r = line.r;
     components.push(additiveAmount(line, finalVolume_mL, lotData[i]?.purity ?? 1, lotData[i]?.density, warnings));
-    concentratedWarning(r, warnings);
+    concentratedWarning(r, warnings, hasWater);
     flammableWarning(r, warnings);
     nonVolatileWarning(r, warnings);
     uvCutoffWarning(r, input.detectionWavelength_nm, warnings);

@@ -5,11 +5,13 @@
 import type { Reagent } from "./reagents";
 import { type ChemWarning, pushWarning } from "./warnings";
 
-export function concentratedWarning(r: Reagent, warnings: ChemWarning[]): void {
+/** `intoWater`: the mix has water to add it to; a neat organic mix has none, so the caution says what it is added to. */
+export function concentratedWarning(r: Reagent, warnings: ChemWarning[], intoWater = true): void {
   if (r.concentrated === null) return;
   const kind = r.concentrated === "acid" ? "acid" : "base";
-  const message =
-    r.form === "solid"
+  const message = !intoWater
+    ? `${r.name} is a concentrated ${kind}: measure it with a pipette and add it slowly to the solvent, wear eye and skin protection, work in a fume hood, and follow your lab's SOP.`
+    : r.form === "solid"
       ? `${r.name} is a corrosive ${kind} that heats the water as it dissolves: add it slowly to the water while stirring, never water to it, wear eye and skin protection, and follow your lab's SOP.`
       : `${r.name} is a concentrated ${kind}: add it slowly to the water, never water to the ${kind}, wear eye and skin protection, work in a fume hood, and follow your lab's SOP.`;
   pushWarning(warnings, { code: "concentrated-reagent", message, reagent: r.id });

@@ -31,6 +31,7 @@ export function labelContentOf(batch: BatchDetail, timeZone: string): LabelConte
     name: batch.recipeName,
     composition: batch.composition + (batch.measuredPH !== null ? ` · measured pH ${batch.measuredPH.toFixed(2)}` : ""),
     prepared: formatLabelInstant(batch.preparedAt, timeZone),
+    // The instant from the batch's one expiry computation (batchExpiryOf), its shelf life on the storage line.
     expires: formatLabelInstant(batch.expiresAt, timeZone),
     preparer: batch.preparedBy,
     bottles: batch.bottles,

@@ -57,12 +57,48 @@ export interface LotExpiry {
   expiresOn: string;
 }
 
+/** What a batch's expiry was computed from, stored with the batch so every screen words it the same way. */
+export interface ExpiryBasis {
+  kind: MixtureKind;
+  ruleLabel: string;
+  shelfLife_h: number;
+  ruleReason: string;
+  /** The lot that cut the rule's shelf life short, if any. */
+  limitedBy: LotExpiry | null;
+}
+
+/** The words every screen, the label and the digest use for an expiry. */
+export interface ExpiryWording {
+  /** "2026-12-06 01:05 UTC" */
+  expires: string;
+  /** "48 h" or "7 days": the rule's shelf life. */
+  shelfLife: string;
+  /** "aqueous buffer without organic, 48 h" or "lot KP-7731 expires 2026-12-05 (rule: 7 days)". */
+  basis: string;
+}
+
 export interface BatchExpiry {
   expiresAt: Date;
   rule: ExpiryRule;
   /** Set when a lot expires before the rule would. */
   limitedBy: LotExpiry | null;
   reason: string;
+  basis: ExpiryBasis;
+  wording: ExpiryWording;
+}
+
+/** 168 → "7 days", 36 → "1 day 12 h", 20 → "20 h". */
+export function shelfLifeText(hours: number): string {
+  const days = Math.floor(hours / 24);
+  const rest = hours - days * 24;
+  const d = days === 0 ? "" : `${days} day${days === 1 ? "" : "s"}`;
+  const h = rest === 0 ? "" : `${+rest.toFixed(2)} h`;
+  return [d, h].filter(Boolean).join(" ") || "0 h";
+}
+
+/** "2026-12-06 01:05 UTC" */
+export function instantText(at: Date): string {
+  return `${at.toISOString().slice(0, 16).replace("T", " ")} UTC`;
 }
 
 /** The instant a lot stops being usable: the end of its expiry day (UTC). */
@@ -91,9 +127,35 @@ export function batchExpiry(input: {
       limitedBy = lot;
     }
   }
-  const life = rule.shelfLife_h % 24 === 0 ? `${rule.shelfLife_h / 24} days` : `${rule.shelfLife_h} h`;
+  const life = shelfLifeText(rule.shelfLife_h);
   const reason = limitedBy
     ? `Lot ${limitedBy.lotNumber} expires on ${limitedBy.expiresOn}, before the ${life} of the rule "${rule.label}".`
     : `${rule.label}: ${life}. ${rule.reason}`;
-  return { expiresAt, rule, limitedBy, reason };
+  const basis: ExpiryBasis = { kind: rule.kind, ruleLabel: rule.label, shelfLife_h: rule.shelfLife_h, ruleReason: rule.reason, limitedBy };
+  const wording: ExpiryWording = {
+    expires: instantText(expiresAt),
+    shelfLife: life,
+    basis: limitedBy
+      ? `lot ${limitedBy.lotNumber} expires ${limitedBy.expiresOn}, before the rule's ${life}`
+      : `${rule.label.charAt(0).toLowerCase()}${rule.label.slice(1)}, ${life}`,
+  };
+  return { expiresAt, rule, limitedBy, reason, basis, wording };
 }
+
+/** The same computation from what a batch stored: the instant and its words again, never apart. */
+export function expiryFromBasis(preparedAt: Date, basis: ExpiryBasis): BatchExpiry {
+  return batchExpiry({
+    kind: basis.kind,
+    preparedAt,
+    rules: [{ kind: basis.kind, label: basis.ruleLabel, shelfLife_h: basis.shelfLife_h, reason: basis.ruleReason }],
+    lots: basis.limitedBy ? [basis.limitedBy] : [],
+  });
+}
+
+/** The label's and the batch page's storage line: the recipe's conditions and the shelf life the expiry came from. */
+export function storageLine(conditions: string | null, wording: ExpiryWording): string {
+  return conditions ? `${conditions} · shelf life: ${wording.basis}` : `Shelf life: ${wording.basis}`;
+}
+
+/** Recipe storage text states conditions only: a shelf life there would contradict the expiry rules. */
+export const SHELF_LIFE_IN_TEXT = /\buse\s+within\b|\b\d+(?:[.,]\d+)?\s*(?:h|hrs?|hours?|days?|d|weeks?|months?)\b/i;

@@ -8,6 +8,7 @@ import { mixMobilePhase } from "../chem/mixing";
 import { mixtureProperties } from "../chem/mixture-properties";
 import type { LotDensities, Purities } from "../chem/lot-assay";
 import { getReagent } from "../chem/reagents";
+import { orderOfWork } from "./order-of-work";
 import { ChemInputError, type ChemWarning } from "../chem/warnings";
 import type { RecipeSpec } from "../schemas/recipes";
 import type { MixtureKind } from "./expiry";
@@ -56,7 +57,7 @@ function pushUnique(list: ChemWarning[], more: readonly ChemWarning[]) {
   for (const w of more) if (!list.some((x) => x.code === w.code && x.reagent === w.reagent)) list.push(w);
 }
 
-const fmtVol = (mL: number) => (mL >= 100 ? `${mL.toFixed(0)} mL` : mL >= 10 ? `${mL.toFixed(1)} mL` : `${mL.toFixed(2)} mL`);
+const HANDLING_CODES = new Set(["flammable", "concentrated-reagent"]);
 
 const lotData = (input: PlanInput) => ({
   ...(input.purities ? { purities: input.purities } : {}),
@@ -72,17 +73,23 @@ export function preparationPlan(input: PlanInput): PreparationPlan {
   const warnings: ChemWarning[] = [];
   const components: PlannedComponent[] = [];
 
-  const mix = mixMobilePhase({
-    total_mL: input.volume_mL,
-    solvents: spec.solvents,
-    additives: spec.additives,
-    temperature_C,
-    ...(detection ? { detectionWavelength_nm: detection } : {}),
-    ...lotData(input),
-  });
+  // Additives are per litre of the final mix (mixing.ts), whose volume is also the solvents'
+  // contracted volume plus the additives': the volume is linear in the solvents measured, so one
+  // probe scales them until the final mix is the batch volume the bottles hold.
+  const mixAt = (total_mL: number) =>
+    mixMobilePhase({
+      total_mL,
+      solvents: spec.solvents,
+      additives: spec.additives,
+      temperature_C,
+      ...(detection ? { detectionWavelength_nm: detection } : {}),
+      ...lotData(input),
+    });
+  const probe = mixAt(input.volume_mL);
+  const mix = mixAt((input.volume_mL * input.volume_mL) / probe.finalVolume_mL);
   pushUnique(warnings, mix.warnings);
   const waterShare = spec.solvents.filter((s) => s.reagent === "water").reduce((a, s) => a + s.percent, 0);
-  const aqueous_mL = (waterShare / 100) * input.volume_mL;
+  const aqueous_mL = mix.components.find((c) => c.reagent === "water")?.volume_mL ?? (waterShare / 100) * input.volume_mL;
 
   for (const c of mix.components) {
     const isSolvent = spec.solvents.some((s) => s.reagent === c.reagent);
@@ -140,66 +147,17 @@ export function preparationPlan(input: PlanInput): PreparationPlan {
     props.warnings.filter((w) => w.code !== "no-viscosity-data"),
   );
 
-  // Order of work.
-  const steps: string[] = [];
-  const water = components.find((c) => c.reagent === "water");
-  const organics = components.filter((c) => c.role === "solvent" && c.reagent !== "water");
-  const solids = components.filter((c) => c.unit === "g");
-  const liquidsAdded = components.filter((c) => c.role !== "solvent" && c.unit === "mL");
-  if (spec.buffer && water) {
-    const first = components.find((c) => c.role === "buffer");
-    steps.push(
-      `Weigh the buffer salt${solids.length > 1 ? "s" : ""} and dissolve ${solids.length > 1 ? "them" : "it"} in about 80 % of the water (${fmtVol(water.target * 0.8)}).`,
-    );
-    const titrant = components.find((c) => c.role === "titrant");
-    if (titrant) {
-      const acidBase = getReagent(titrant.reagent)?.concentrated
-        ? ` Add the ${titrant.name.toLowerCase()} slowly to the water, never water to it.`
-        : "";
-      steps.push(
-        `Add the ${titrant.name.toLowerCase()} (about ${titrant.unit === "mL" ? fmtVol(titrant.target) : `${titrant.target.toFixed(3)} g`}), then check the pH at ${spec.buffer.temperature_C} °C and adjust to ${spec.buffer.targetPH.toFixed(2)} with small additions.${acidBase}`,
-      );
-    } else if (first) {
-      steps.push(`Check the pH at ${spec.buffer.temperature_C} °C: it should read ${spec.buffer.targetPH.toFixed(2)}.`);
-    }
-    steps.push(`Make up to ${fmtVol(water.target)} with water and mix.`);
-    if (organics.length)
-      steps.push("Set the pH of the aqueous part before any organic solvent is added: the pH reading in a mix is not comparable.");
-  } else if (water) {
-    steps.push(`Measure ${fmtVol(water.target)} of water in a graduated cylinder.`);
-  }
-  for (const a of components.filter((c) => c.role === "additive")) {
-    const conc = getReagent(a.reagent)?.concentrated;
-    steps.push(
-      `Add ${a.unit === "mL" ? fmtVol(a.target) : `${a.target.toFixed(3)} g`} of ${a.name.toLowerCase()}${water ? " to the water" : ""}${conc ? ", slowly, in a fume hood: acid (or base) to water, never the reverse" : ""}.`,
-    );
-  }
-  for (const o of organics) steps.push(`Measure ${fmtVol(o.target)} of ${o.name.toLowerCase()} separately, in its own cylinder.`);
-  if (organics.length && (water || liquidsAdded.length))
-    steps.push(
-      "Combine the measured parts and mix; the mix contracts slightly and warms: let it reach room temperature, then degas if your method asks for it.",
-    );
-  steps.push("Fill and cap the bottles, and label every bottle before it leaves the bench.");
-
-  // Cautions on screen, deferring to the lab's own rules.
-  const cautions: string[] = [];
-  if (components.some((c) => getReagent(c.reagent)?.flammable))
-    cautions.push(
-      "Flammable liquids: work in a fume hood away from ignition sources, keep containers closed, and store the bottles in a flammables cabinet.",
-    );
-  if (components.some((c) => getReagent(c.reagent)?.concentrated))
-    cautions.push(
-      "Concentrated acid or base: wear eye protection, gloves and a lab coat, work in a fume hood, and add it to water — never water to it.",
-    );
-  if (organics.length) cautions.push("Organic solvents: wear eye protection and suitable gloves; avoid breathing the vapour.");
-  cautions.push("Follow your laboratory's SOPs and local regulations; Decant's figures support them and never replace them.");
+  const finalVolume_mL = mix.finalVolume_mL;
+  const { steps, cautions } = orderOfWork(components, spec, finalVolume_mL);
 
   return {
     components,
     // The buffer is made up to the water's volume, so its reagents add no volume of their own.
-    finalVolume_mL: mix.finalVolume_mL,
+    finalVolume_mL,
     aqueous_mL,
-    warnings,
+    // Warnings are about this mix (UV cutoff, precipitation, MS); handling a flammable or a
+    // concentrated reagent is in the cautions, once.
+    warnings: warnings.filter((w) => !HANDLING_CODES.has(w.code)),
     properties: {
       polarityIndex: props.polarityIndex,
       uvCutoff_nm: props.uvCutoff_nm,

@@ -4,6 +4,8 @@
  */
 import type { RecipeSpec } from "../schemas/recipes";
 import type { Deviation } from "./deviations";
+import type { ExpiryWording } from "./expiry";
+import type { UndoOffer } from "../undo";
 import type { AssayUsed } from "./lot-assays";
 
 export type RecipeState = "approved" | "pending" | "retired";
@@ -102,6 +104,8 @@ export interface BottleDetail {
   number: number;
   status: BottleStatus;
   discarded_mL: number | null;
+  /** Set while marking it empty or discarding it can still be undone. */
+  undo: UndoOffer | null;
 }
 
 export interface BatchComponentDetail {
@@ -129,7 +133,12 @@ export interface BatchDetail {
   channel: string | null;
   spec: RecipeSpec | null;
   composition: string;
-  storage: string | null;
+  /** The recipe's conditions and the shelf life the expiry came from (`storageLine`). */
+  storage: string;
+  /** The recipe's storage conditions alone. */
+  storageConditions: string | null;
+  /** The expiry in words, from the same computation as `expiresAt`. */
+  expiry: ExpiryWording;
   detection_nm: number | null;
   volume_mL: number;
   remaining_mL: number;

@@ -113,14 +113,20 @@ export const batchCreateSchema = z
 export type BatchCreateInput = z.infer<typeof batchCreateSchema>;
 
 /** `POST /api/batches/{id}/bottles/{n}`. */
+/** A change of state, or `undo: true`: take back the last "empty" or "discarded" within the undo window (`lib/undo.ts`). */
 export const bottleUpdateSchema = z
   .object({
-    status: z.enum(["in_use", "empty", "discarded"]),
+    status: z.enum(["in_use", "empty", "discarded"]).optional(),
     /** For "discarded": what was left in the bottle (mL), sent to waste. */
     discarded_mL: z.coerce.number().min(0, "Cannot be negative").max(25_000).optional(),
     reason: z.string().trim().max(255).optional(),
+    undo: z.literal(true).optional(),
   })
-  .strict();
+  .strict()
+  .refine((b) => (b.status === undefined) !== (b.undo === undefined), {
+    message: "Give either a new status or undo: true",
+    path: ["status"],
+  });
 
 export const batchLookupQuery = z.object({ code: z.string().trim().min(2, "Type or scan a batch code").max(40) }).strict();
 

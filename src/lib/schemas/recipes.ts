@@ -1,6 +1,7 @@
 import { z } from "zod";
 import { ADDITIVE_UNITS } from "../chem/additive-units";
 import { getReagent } from "../chem/reagents";
+import { SHELF_LIFE_IN_TEXT } from "../preparation/expiry";
 
 const reagentId = (what: string) =>
   z
@@ -89,7 +90,16 @@ export const recipeInputSchema = z.object({
     .optional()
     .or(z.literal("").transform(() => null)),
   detection_nm: z.coerce.number().int("Whole nanometres").min(190, "190–800 nm").max(800, "190–800 nm").nullable().optional(),
-  storage: z.string().trim().max(160, "At most 160 characters").nullable().optional(),
+  storage: z
+    .string()
+    .trim()
+    .max(160, "At most 160 characters")
+    .refine(
+      (text) => !SHELF_LIFE_IN_TEXT.test(text),
+      "Conditions only (temperature, light, container): the shelf life comes from the expiry rules",
+    )
+    .nullable()
+    .optional(),
   notes: z.string().trim().max(4000).nullable().optional(),
   spec: recipeSpecSchema,
 });

@@ -1,5 +1,5 @@
 import { QueryTypes } from "sequelize";
-import { describe, expect, it } from "vitest";
+import { beforeAll, describe, expect, it } from "vitest";
 import { localDay, nextDay, startOfLocalDay } from "../../../src/lib/format";
 import { HttpError } from "../../../src/lib/server/http";
 import { LedgerEntry } from "../../../src/lib/server/models/ledger";
@@ -8,9 +8,14 @@ import { logDraw } from "../../../src/lib/server/services/draws";
 import { logRun } from "../../../src/lib/server/services/runs";
 import { usageByProject } from "../../../src/lib/server/services/usage";
 import { runSchema, drawSchema } from "../../../src/lib/schemas/runs";
+import { demoBatchCodes } from "../../support/demo-batches";
 import { actor, useServiceDatabase } from "../../support/service-database";
 
 const db = useServiceDatabase();
+let codes: Record<number, string> = {};
+beforeAll(async () => {
+  codes = await demoBatchCodes(db.sequelize);
+});
 const tech = actor(3, "technician");
 const HOUR = 3_600_000;
 
@@ -111,11 +116,15 @@ describe("logging a run", () => {
   });
 
   it("refuses a used-up batch, a run that would take a batch below zero, and a channel without a batch", async () => {
-    await expectRefused(logRun(scoutRun({ channelBatches: { A: 1, B: 5 } }), tech), 400, /channelBatches\.A: batch B26-0901 is used up/);
+    await expectRefused(
+      logRun(scoutRun({ channelBatches: { A: 1, B: 5 } }), tech),
+      400,
+      new RegExp(`channelBatches\\.A: batch ${codes[1]} is used up`),
+    );
     await expectRefused(
       logRun(scoutRun({ injections: 1000 }), tech),
       400,
-      /batch B26-1103 has [\d.]+ mL left; this run needs 3534\.044 mL/,
+      new RegExp(`batch ${codes[4]} has [\\d.]+ mL left; this run needs 3534\\.044 mL`),
     ); // (1000 + 2) × 3.522 + 5 = 3534.044, by hand
     await expectRefused(
       logRun(scoutRun({ channelBatches: { A: 4 } }), tech),
@@ -137,7 +146,7 @@ describe("logging a run", () => {
     });
     const first = await logDraw(input, tech);
     const again = await logDraw(input, tech);
-    expect(first).toMatchObject({ batchCode: "B26-1103", volume_mL: 12.5, replayed: false });
+    expect(first).toMatchObject({ batchCode: codes[4], volume_mL: 12.5, replayed: false });
     expect(again.replayed).toBe(true);
     expect(await remaining(4)).toBeCloseTo(left - 12.5, 4);
     const rows = await q<{ reason: string; volume_ml: string; kind: string }>(
@@ -222,10 +231,10 @@ describe("the waste container an instrument drains to", () => {
 describe("corrections and invoiced periods", () => {
   it("dates a correction of an entry in a locked period at the start of the next open period", async () => {
     const { run } = await logRun(
-      scoutRun({ injections: 1, blanks: 0, purge_mL: 0, startedAt: new Date(Date.now() - 5 * 24 * HOUR).toISOString() }),
+      scoutRun({ injections: 1, blanks: 0, purge_mL: 0, startedAt: new Date(Date.now() - 3 * 24 * HOUR).toISOString() }),
       tech,
     );
-    const day = localDay(new Date(Date.now() - 5 * 24 * HOUR), "Europe/Berlin");
+    const day = localDay(new Date(Date.now() - 3 * 24 * HOUR), "Europe/Berlin");
     // PMG-ROOT-26 belongs to client 1; lock the run's day as if that period were already charged back.
     await db.sequelize.query("INSERT INTO period_locks (client_id, period_start, period_end, created_at) VALUES (1, ?, ?, NOW())", {
       replacements: [day, day],

@@ -155,14 +155,15 @@ describe("importing run logs", () => {
   it("refuses rows whose batch had expired by the run's start, naming the row and channel", async () => {
     await db.sequelize.query(
       "UPDATE batches SET prepared_at = NOW() - INTERVAL 160 DAY, expires_at = NOW() - INTERVAL 150 DAY WHERE id = 6",
-    ); // B26-1120, phosphate
+    ); // the demo's phosphate buffer
+    const code = (await q<{ code: string }>("SELECT code FROM batches WHERE id = 6"))[0]!.code;
     const report = await checkRunLog(
-      file([row(5000, { batch_A: "B26-1120", started_at: new Date(Date.now() - 20 * DAY).toISOString().slice(0, 16) })]),
+      file([row(5000, { batch_A: code, started_at: new Date(Date.now() - 20 * DAY).toISOString().slice(0, 16) })]),
       "x.csv",
       tech,
     );
     expect(report.issues).toEqual([
-      { row: 2, column: "batch_A", message: expect.stringMatching(/^batch B26-1120 expired .* UTC, before the run started$/) },
+      { row: 2, column: "batch_A", message: expect.stringMatching(new RegExp(`^batch ${code} expired .* UTC, before the run started$`)) },
     ]);
   });
 

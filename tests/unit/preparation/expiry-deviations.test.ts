@@ -118,7 +118,7 @@ describe("batch codes", () => {
 });
 
 describe("preparationPlan", () => {
-  it("gives the same solvent and additive amounts as mixMobilePhase", () => {
+  it("measures the solvents in the recipe's ratio and the additive per litre of the final mix (DESIGN: additives per litre)", () => {
     const s = spec({
       solvents: [
         { reagent: "water", percent: 70 },
@@ -127,12 +127,14 @@ describe("preparationPlan", () => {
       additives: [{ reagent: "formic-acid", amount: 0.1, unit: "%v/v" }],
     });
     const plan = preparationPlan({ spec: s, volume_mL: 2000, temperature_C: 22 });
-    const mix = mixMobilePhase({ total_mL: 2000, solvents: s.solvents, additives: s.additives, temperature_C: 22 });
-    expect(plan.components.find((c) => c.reagent === "acetonitrile")!.target).toBeCloseTo(600, 9);
-    expect(plan.components.find((c) => c.reagent === "formic-acid")!.target).toBeCloseTo(
-      mix.components.find((c) => c.reagent === "formic-acid")!.volume_mL!,
-      9,
-    );
+    const target = (id: string) => plan.components.find((c) => c.reagent === id)!.target;
+    expect(target("acetonitrile") / target("water")).toBeCloseTo(30 / 70, 9);
+    // 0.1 % v/v of a 2000 mL mix is 2.000 mL (definition of % v/v).
+    expect(target("formic-acid")).toBeCloseTo(2, 9);
+    expect(plan.finalVolume_mL).toBeCloseTo(2000, 6);
+    // The measured solvents exceed 1998 mL by the contraction on mixing, which mixMobilePhase estimates.
+    const mix = mixMobilePhase({ total_mL: target("water") + target("acetonitrile"), solvents: s.solvents, temperature_C: 22 });
+    expect(mix.finalVolume_mL).toBeCloseTo(1998, 6);
     expect(plan.kind).toBe("aqueous-organic");
     expect(plan.steps.some((step) => /separately/.test(step))).toBe(true);
     expect(plan.cautions.some((c) => /SOPs/.test(c))).toBe(true);
@@ -145,7 +147,9 @@ describe("preparationPlan", () => {
     expect(salt(one)).toBeCloseTo(3.402, 3);
     expect(salt(two)).toBeCloseTo(2 * salt(one), 9);
     expect(one.components.find((c) => c.reagent === "phosphoric-acid")!.role).toBe("titrant");
-    expect(one.warnings.map((w) => w.code)).toContain("concentrated-reagent");
-    expect(one.steps.join(" ")).toMatch(/never water to it/);
+    // Handling the concentrated acid is a caution, said once, not also a warning about the mix.
+    expect(one.warnings.map((w) => w.code)).not.toContain("concentrated-reagent");
+    expect(one.cautions.join(" ")).toMatch(/Concentrated acid or base/);
+    expect(one.steps.join(" ")).toMatch(/never water to the acid/);
   });
 });

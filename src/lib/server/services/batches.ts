@@ -6,9 +6,11 @@
 import type { AssayUsed } from "../../preparation/lot-assays";
 import { getReagent } from "../../chem";
 import type { Deviation } from "../../preparation/deviations";
+import { expiryFromBasis, instantText, storageLine, type ExpiryBasis, type ExpiryWording } from "../../preparation/expiry";
 import { describeSpec } from "../../preparation/plan";
 import type { BatchDetail, BatchSummary, BottleStatus } from "../../preparation/types";
 import { recipeSpecSchema, type RecipeSpec } from "../../schemas/recipes";
+import { undoUntil, withinUndoWindow } from "../../undo";
 import { HttpError } from "../http";
 import type { ListPage } from "../../lists/types";
 import type { BatchListQuery } from "../../schemas/batches";
@@ -23,6 +25,28 @@ import {
   type ListSpec,
 } from "../list-page";
 import { jsonColumn, select, selectOne } from "../query";
+
+interface ExpiryColumns {
+  prepared_at: Date;
+  expires_at: Date;
+  expiry_reason: string | null;
+  expiry_basis: unknown;
+}
+
+/** A batch's expiry and its words from the stored basis (one computation); older rows keep their stored reason. */
+export function batchExpiryOf(row: ExpiryColumns): { expiresAt: Date; reason: string | null; wording: ExpiryWording } {
+  const basis = jsonColumn<ExpiryBasis | null>(row.expiry_basis);
+  if (basis?.kind) {
+    const expiry = expiryFromBasis(new Date(row.prepared_at), basis);
+    return { expiresAt: expiry.expiresAt, reason: expiry.reason, wording: expiry.wording };
+  }
+  const expiresAt = new Date(row.expires_at);
+  return {
+    expiresAt,
+    reason: row.expiry_reason,
+    wording: { expires: instantText(expiresAt), shelfLife: "", basis: row.expiry_reason ?? "as recorded" },
+  };
+}
 
 interface BatchListRow {
   id: number;
@@ -161,6 +185,7 @@ interface BatchRow {
   prepared_at: Date;
   expires_at: Date;
   expiry_reason: string | null;
+  expiry_basis: unknown;
   prepared_by: string;
   status: BottleStatus;
   deviations: unknown;
@@ -172,7 +197,7 @@ export async function getBatch(id: number, now = new Date()): Promise<BatchDetai
   const row = await selectOne<BatchRow>(
     `SELECT b.id, b.code, r.id AS recipe_id, r.code AS recipe_code, r.name AS recipe_name, v.version, v.id AS recipe_version_id, r.channel, b.spec_snapshot, v.spec AS version_spec,
             v.storage, v.detection_nm, b.volume_ml, b.remaining_ml, b.bottles, b.bottle_size_ml, b.temperature_c, b.measured_ph, b.ph_temperature_c, b.prepared_at,
-            b.expires_at, b.expiry_reason, u.name AS prepared_by, b.status, b.deviations, b.deviation_reason, b.room
+            b.expires_at, b.expiry_reason, b.expiry_basis, u.name AS prepared_by, b.status, b.deviations, b.deviation_reason, b.room
        FROM batches b JOIN recipe_versions v ON v.id = b.recipe_version_id JOIN recipes r ON r.id = v.recipe_id JOIN users u ON u.id = b.prepared_by
       WHERE b.id = ?`,
     { replacements: [id] },
@@ -193,14 +218,20 @@ export async function getBatch(id: number, now = new Date()): Promise<BatchDetai
        FROM batch_components c LEFT JOIN stock_lots l ON l.id = c.stock_lot_id WHERE c.batch_id = ? ORDER BY c.id`,
     { replacements: [id] },
   );
-  const bottles = await select<{ number: number; status: BottleStatus; discarded_ml: number | null }>(
-    "SELECT number, status, discarded_ml FROM batch_bottles WHERE batch_id = ? ORDER BY number",
-    { replacements: [id] },
-  );
+  const bottles = await select<{
+    number: number;
+    status: BottleStatus;
+    discarded_ml: number | null;
+    previous_status: BottleStatus | null;
+    changed_at: Date | null;
+  }>("SELECT number, status, discarded_ml, previous_status, changed_at FROM batch_bottles WHERE batch_id = ? ORDER BY number", {
+    replacements: [id],
+  });
   // Batches from before snapshots held the specification fall back to their version's.
   const spec = parseSpec(row.spec_snapshot) ?? parseSpec(row.version_spec);
   const deviations = jsonColumn<Deviation[] | null>(row.deviations);
-  const expiresAt = new Date(row.expires_at);
+  const expiry = batchExpiryOf(row);
+  const expiresAt = expiry.expiresAt;
   return {
     id: row.id,
     code: row.code,
@@ -212,7 +243,9 @@ export async function getBatch(id: number, now = new Date()): Promise<BatchDetai
     channel: row.channel,
     spec,
     composition: spec ? describeSpec(spec) : row.recipe_name,
-    storage: row.storage,
+    storage: storageLine(row.storage, expiry.wording),
+    storageConditions: row.storage,
+    expiry: expiry.wording,
     detection_nm: row.detection_nm,
     volume_mL: row.volume_ml,
     remaining_mL: row.remaining_ml,
@@ -224,7 +257,7 @@ export async function getBatch(id: number, now = new Date()): Promise<BatchDetai
     targetPH: spec?.buffer?.targetPH ?? null,
     preparedAt: new Date(row.prepared_at).toISOString(),
     expiresAt: expiresAt.toISOString(),
-    expiryReason: row.expiry_reason,
+    expiryReason: expiry.reason,
     preparedBy: row.prepared_by,
     status: row.status,
     room: row.room,
@@ -242,7 +275,21 @@ export async function getBatch(id: number, now = new Date()): Promise<BatchDetai
       lotNumber: c.lot_number,
       assay: c.assay_source === null || c.assay_percent === null ? null : { percent: c.assay_percent, source: c.assay_source },
     })),
-    bottleList: bottles.map((b) => ({ number: b.number, status: b.status, discarded_mL: b.discarded_ml })),
+    bottleList: bottles.map((b) => ({
+      number: b.number,
+      status: b.status,
+      discarded_mL: b.discarded_ml,
+      undo:
+        b.previous_status !== null && b.changed_at !== null && withinUndoWindow(new Date(b.changed_at), now)
+          ? {
+              until: undoUntil(new Date(b.changed_at)).toISOString(),
+              effect:
+                b.status === "discarded"
+                  ? `Puts ${b.discarded_ml ?? 0} mL back into the batch with a reversing ledger entry, and the bottle back to ${b.previous_status === "in_use" ? "in use" : b.previous_status}.`
+                  : `Puts the bottle back to ${b.previous_status === "in_use" ? "in use" : b.previous_status}.`,
+            }
+          : null,
+    })),
   };
 }
 
@@ -254,21 +301,26 @@ export async function findBatchByCode(code: string): Promise<number> {
   return row.id;
 }
 
-/** Batches still on the bench whose expiry falls within the next `hours` (or has passed today). */
+/** Batches still on the bench whose expiry falls within the next `hours` (or has passed today), with the rule it came from. */
 export async function batchesDueSoon(
   hours = 24,
   now = new Date(),
-): Promise<{ id: number; code: string; recipeName: string; expiresAt: string; expired: boolean }[]> {
-  const rows = await select<{ id: number; code: string; name: string; expires_at: Date }>(
-    `SELECT b.id, b.code, r.name, b.expires_at FROM batches b JOIN recipe_versions v ON v.id = b.recipe_version_id JOIN recipes r ON r.id = v.recipe_id
+): Promise<{ id: number; code: string; recipeName: string; expiresAt: string; expired: boolean; expiry: ExpiryWording }[]> {
+  const rows = await select<{ id: number; code: string; name: string } & ExpiryColumns>(
+    `SELECT b.id, b.code, r.name, b.prepared_at, b.expires_at, b.expiry_reason, b.expiry_basis
+       FROM batches b JOIN recipe_versions v ON v.id = b.recipe_version_id JOIN recipes r ON r.id = v.recipe_id
       WHERE b.status IN ('ready', 'in_use') AND b.expires_at <= ? ORDER BY b.expires_at`,
     { replacements: [new Date(now.getTime() + hours * 3_600_000)] },
   );
-  return rows.map((r) => ({
-    id: r.id,
-    code: r.code,
-    recipeName: r.name,
-    expiresAt: new Date(r.expires_at).toISOString(),
-    expired: new Date(r.expires_at) <= now,
-  }));
+  return rows.map((r) => {
+    const expiry = batchExpiryOf(r);
+    return {
+      id: r.id,
+      code: r.code,
+      recipeName: r.name,
+      expiresAt: expiry.expiresAt.toISOString(),
+      expired: expiry.expiresAt <= now,
+      expiry: expiry.wording,
+    };
+  });
 }

@@ -1,9 +1,12 @@
 /**
  * One bottle of a batch (`POST /api/batches/:id/bottles/:number`): put in use, marked empty, or
- * discarded, what was left in it going to waste through "discard" ledger entries.
+ * discarded, what was left in it going to waste through "discard" ledger entries. Marking empty
+ * and discarding can be undone within the undo window (`lib/undo.ts`): the discard's entries are
+ * reversed by correction entries, the bottle goes back to the state it left.
  */
 import { wasteStreamOf } from "../../ledger/split";
-import type { BatchDetail } from "../../preparation/types";
+import type { Transaction } from "sequelize";
+import type { BatchDetail, BottleStatus } from "../../preparation/types";
 import { DEFAULT_STREAM_BY_ID } from "../../waste/streams";
 import { recordAudit } from "../audit";
 import { getSequelize } from "../db";
@@ -11,7 +14,8 @@ import type { SignedInUser } from "../guard";
 import { HttpError } from "../http";
 import { execute, select } from "../query";
 import { getBatch } from "./batches";
-import { appendEntries } from "./ledger";
+import { appendEntries, reverseEntriesWithin } from "./ledger";
+import { requireUndoWindow } from "./undo";
 import { inTransaction } from "./sql";
 
 /** The stream a discarded mix goes to: its most restrictive liquid's, by the common-practice ranking. */
@@ -23,6 +27,62 @@ function discardStream(liquids: BatchDetail["components"]): string | null {
       .filter((s): s is string => s !== null)
       .sort((a, b) => rank(b) - rank(a))[0] ?? null
   );
+}
+
+/** The batch's state from its bottles': all discarded, all done, any in use, or ready. */
+async function setBatchStatus(batch: BatchDetail, number: number, status: BottleStatus, transaction: Transaction) {
+  const statuses = batch.bottleList.map((b) => (b.number === number ? status : b.status));
+  const batchStatus = statuses.every((s) => s === "discarded")
+    ? "discarded"
+    : statuses.every((s) => s === "empty" || s === "discarded")
+      ? "empty"
+      : statuses.some((s) => s === "in_use")
+        ? "in_use"
+        : "ready";
+  await execute("UPDATE batches SET status = ?, updated_at = NOW(3) WHERE id = ?", { replacements: [batchStatus, batch.id], transaction });
+}
+
+/** Takes back marking a bottle empty or discarding it, within the undo window; a discard's entries are reversed. */
+export async function undoBottle(batchId: number, number: number, actor: SignedInUser, ip: string | null = null): Promise<BatchDetail> {
+  const batch = await getBatch(batchId);
+  const bottle = batch.bottleList.find((b) => b.number === number);
+  if (!bottle) throw new HttpError(404, `Batch ${batch.code} has no bottle ${number}.`);
+  await inTransaction(getSequelize(), async (transaction) => {
+    await select("SELECT id FROM batches WHERE id = ? FOR UPDATE", { replacements: [batchId], transaction });
+    const [row] = await select<{ status: BottleStatus; previous_status: BottleStatus | null; changed_at: Date | null }>(
+      "SELECT status, previous_status, changed_at FROM batch_bottles WHERE batch_id = ? AND number = ? FOR UPDATE",
+      { replacements: [batchId, number], transaction },
+    );
+    if (!row || row.previous_status === null || (row.status !== "empty" && row.status !== "discarded"))
+      throw new HttpError(409, `undo: bottle ${number} has nothing to undo`, { fields: { undo: "nothing to undo" } });
+    const what = row.status === "discarded" ? `Discarding bottle ${number}` : `Marking bottle ${number} empty`;
+    requireUndoWindow(row.changed_at ? new Date(row.changed_at) : null, what, "a discard is corrected from the batch's ledger entries.");
+    const reversed = await reverseEntriesWithin(
+      { entryIds: [], source: { id: `bottle:${batchId}:${number}`, kind: "discard" }, reason: `Undo: ${what.toLowerCase()}` },
+      actor,
+      ip,
+      transaction,
+    );
+    await execute(
+      `UPDATE batch_bottles SET status = previous_status, previous_status = NULL, changed_at = NULL, discarded_ml = NULL, updated_by = ?, updated_at = NOW(3)
+        WHERE batch_id = ? AND number = ?`,
+      { replacements: [actor.id, batchId, number], transaction },
+    );
+    await setBatchStatus(batch, number, row.previous_status, transaction);
+    await recordAudit(
+      {
+        actorId: actor.id,
+        action: "bottle-undo",
+        entity: "batch",
+        entityId: batchId,
+        ip,
+        before: { bottle: number, status: row.status },
+        after: { bottle: number, status: row.previous_status, reversedEntries: reversed },
+      },
+      transaction,
+    );
+  });
+  return getBatch(batchId);
 }
 
 /** Marks one bottle; discarding sends what was left in it to waste through "discard" ledger entries. */
@@ -46,9 +106,18 @@ export async function updateBottle(
   await inTransaction(getSequelize(), async (transaction) => {
     await select("SELECT id FROM batches WHERE id = ? FOR UPDATE", { replacements: [batchId], transaction });
     await execute(
-      "UPDATE batch_bottles SET status = ?, discarded_ml = ?, updated_by = ?, updated_at = NOW(3) WHERE batch_id = ? AND number = ?",
+      `UPDATE batch_bottles SET status = ?, discarded_ml = ?, previous_status = ?, changed_at = ?, updated_by = ?, updated_at = NOW(3)
+        WHERE batch_id = ? AND number = ?`,
       {
-        replacements: [change.status, change.status === "discarded" ? discarded.toFixed(4) : null, actor.id, batchId, number],
+        replacements: [
+          change.status,
+          change.status === "discarded" ? discarded.toFixed(4) : null,
+          change.status === "in_use" ? null : bottle.status,
+          change.status === "in_use" ? null : now,
+          actor.id,
+          batchId,
+          number,
+        ],
         transaction,
       },
     );
@@ -80,15 +149,7 @@ export async function updateBottle(
         transaction,
       });
     }
-    const statuses = batch.bottleList.map((b) => (b.number === number ? change.status : b.status));
-    const batchStatus = statuses.every((s) => s === "discarded")
-      ? "discarded"
-      : statuses.every((s) => s === "empty" || s === "discarded")
-        ? "empty"
-        : statuses.some((s) => s === "in_use")
-          ? "in_use"
-          : "ready";
-    await execute("UPDATE batches SET status = ?, updated_at = NOW(3) WHERE id = ?", { replacements: [batchStatus, batchId], transaction });
+    await setBatchStatus(batch, number, change.status, transaction);
     await recordAudit(
       {
         actorId: actor.id,

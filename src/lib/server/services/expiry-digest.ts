@@ -4,6 +4,7 @@ import { withJobLock } from "../job-lock";
 import { escapeHtml, publicOrigin, sendMail, type OutgoingMail } from "../mail";
 import { Setting } from "../models/audit";
 import { select } from "../query";
+import { batchExpiryOf } from "./batches";
 import { getFacilitySettings } from "./facility-settings";
 
 const LAST_SENT_KEY = "digest.expiry.lastSentOn";
@@ -21,7 +22,10 @@ export interface ExpiryDigestResult {
 interface ExpiringRow {
   code: string;
   name: string;
+  prepared_at: Date;
   expires_at: Date;
+  expiry_reason: string | null;
+  expiry_basis: unknown;
   remaining_ml: number;
 }
 
@@ -42,7 +46,7 @@ export async function runExpiryDigest(
     const last = await Setting.findByPk(LAST_SENT_KEY);
     if (last?.value === day) return nothing;
     const batches = await select<ExpiringRow>(
-      `SELECT b.code, r.name, b.expires_at, b.remaining_ml
+      `SELECT b.code, r.name, b.prepared_at, b.expires_at, b.expiry_reason, b.expiry_basis, b.remaining_ml
          FROM batches b JOIN recipe_versions v ON v.id = b.recipe_version_id JOIN recipes r ON r.id = v.recipe_id
         WHERE b.status IN ('ready', 'in_use') AND b.expires_at > :now AND b.expires_at <= :until
         ORDER BY b.expires_at, b.code`,
@@ -50,9 +54,10 @@ export async function runExpiryDigest(
     );
     const technicians = await select<{ email: string }>("SELECT email FROM users WHERE role = 'technician' AND active = 1 ORDER BY email");
     if (batches.length > 0) {
-      const lines = batches.map(
-        (b) => `${b.code} · ${b.name} · expires ${formatInstant(new Date(b.expires_at), facility)} · ${b.remaining_ml} mL left`,
-      );
+      const lines = batches.map((b) => {
+        const expiry = batchExpiryOf(b);
+        return `${b.code} · ${b.name} · expires ${formatInstant(expiry.expiresAt, facility)} (${expiry.wording.basis}) · ${b.remaining_ml} mL left`;
+      });
       const link = `${publicOrigin()}/home`;
       const subject = `Decant: ${batches.length} batch${batches.length === 1 ? "" : "es"} expire${batches.length === 1 ? "s" : ""} within 24 hours`;
       const advice =

@@ -206,97 +206,113 @@ export async function reverseEntries(
   actor: SignedInUser,
   ip: string | null = null,
 ): Promise<{ corrections: LedgerLine[] }> {
-  const ids = await inTransaction(getSequelize(), async (transaction) => {
-    const conditions: string[] = [];
-    const replacements: Record<string, unknown> = {};
-    if (input.entryIds.length) {
-      conditions.push("l.id IN (:ids)");
-      replacements.ids = input.entryIds;
-    }
-    if (input.runId !== undefined) {
-      conditions.push("(l.source_id = :runSource AND l.kind = 'run')");
-      replacements.runSource = `run:${input.runId}`;
-    }
-    const originals = await select<LedgerRow & { project_id: number | null; waste_container_id: number | null; occurred_at: Date }>(
-      `SELECT l.*, r.id AS reversed_by FROM ledger_entries l LEFT JOIN ledger_entries r ON r.reverses_id = l.id
-        WHERE ${conditions.join(" OR ")} ORDER BY l.id FOR UPDATE`,
-      { replacements, transaction },
-    );
-    const found = new Set(originals.map((o) => o.id));
-    const missing = input.entryIds.filter((id) => !found.has(id));
-    if (missing.length) throw new HttpError(404, `entryIds: no ledger entry ${missing.join(", ")}`);
-    if (input.runId !== undefined && !originals.some((o) => o.source_id === `run:${input.runId}`))
-      throw new HttpError(404, `runId: run ${input.runId} has no ledger entries`);
-    const corrections = originals.filter((o) => o.kind === "correction" && input.entryIds.includes(o.id));
-    if (corrections.length)
-      throw new HttpError(
-        400,
-        `entryIds: entry ${corrections.map((c) => c.id).join(", ")} is itself a correction; corrections are not reversed`,
-      );
-    const already = originals.filter((o) => o.reversed_by !== null && input.entryIds.includes(o.id));
-    if (already.length)
-      throw new HttpError(
-        409,
-        `entryIds: entry ${already.map((a) => a.id).join(", ")} is already reversed (by entry ${already.map((a) => a.reversed_by).join(", ")})`,
-      );
-    const todo = originals.filter((o) => o.kind !== "correction" && o.reversed_by === null);
-    if (todo.length === 0) throw new HttpError(409, "runId: every entry of this run is already reversed");
-
-    // A correction to a period already invoiced for the client falls into the next open period.
-    const openDates = new Map<string, Date>();
-    for (const o of todo) {
-      const key = `${o.project_id}|${new Date(o.occurred_at).toISOString()}`;
-      if (!openDates.has(key)) openDates.set(key, await openDateForProject(o.project_id, new Date(o.occurred_at), transaction));
-    }
-    const reversing: NewLedgerEntry[] = todo.map((o) => ({
-      occurredAt: openDates.get(`${o.project_id}|${new Date(o.occurred_at).toISOString()}`)!,
-      projectId: o.project_id,
-      kind: "correction",
-      batchId: o.batch_id,
-      reagentId: o.reagent_id,
-      volume_mL: -o.volume_ml,
-      mass_g: o.mass_g === null ? null : -o.mass_g,
-      channel: o.channel,
-      wasteStreamId: o.waste_stream_id,
-      wasteContainerId: o.waste_container_id,
-      sourceKind: "manual",
-      sourceId: o.source_id,
-      authorId: actor.id,
-      reversesId: o.id,
-      reason: input.reason,
-    }));
-    try {
-      await appendEntries(reversing, transaction);
-    } catch (error) {
-      if (error instanceof Error && /Duplicate entry/i.test(`${error.message} ${(error as { parent?: Error }).parent?.message ?? ""}`))
-        throw new HttpError(409, "entryIds: an entry was reversed by someone else just now; reload");
-      throw error;
-    }
-    const backToBatch = new Map<number, number>();
-    for (const o of todo)
-      if (o.batch_id !== null && DRAWN_FROM_BATCH.has(o.kind))
-        backToBatch.set(o.batch_id, (backToBatch.get(o.batch_id) ?? 0) + o.volume_ml);
-    for (const [batchId, volume] of backToBatch) {
-      await execute("UPDATE batches SET remaining_ml = LEAST(volume_ml, remaining_ml + ?), updated_at = NOW(3) WHERE id = ?", {
-        replacements: [volume.toFixed(4), batchId],
-        transaction,
-      });
-    }
-    const originalIds = todo.map((o) => o.id);
-    await recordAudit(
-      {
-        actorId: actor.id,
-        action: "ledger.correct",
-        entity: input.runId !== undefined ? "run" : "ledger_entry",
-        entityId: input.runId ?? originalIds[0] ?? null,
-        ip,
-        before: { entries: originalIds },
-        after: { reason: input.reason, restored_mL: Object.fromEntries(backToBatch) },
-      },
-      transaction,
-    );
-    return originalIds;
-  });
+  const ids = await inTransaction(getSequelize(), (transaction) => reverseEntriesWithin(input, actor, ip, transaction));
   const rows = await select<LedgerRow>(`${SELECT_LINES} WHERE l.reverses_id IN (:ids) ORDER BY l.id`, { replacements: { ids } });
   return { corrections: rows.map(toLine) };
+}
+
+/**
+ * The same in the caller's transaction (an undo reverses its action's entries with the rest of the
+ * undo); `source`: every entry of one kind from one source (`bottle:12:2`). Returns the reversed ids.
+ */
+export async function reverseEntriesWithin(
+  input: { entryIds: number[]; runId?: number | undefined; source?: { id: string; kind: LedgerKind }; reason: string },
+  actor: SignedInUser,
+  ip: string | null,
+  transaction: Transaction,
+): Promise<number[]> {
+  const conditions: string[] = [];
+  const replacements: Record<string, unknown> = {};
+  if (input.entryIds.length) {
+    conditions.push("l.id IN (:ids)");
+    replacements.ids = input.entryIds;
+  }
+  if (input.runId !== undefined) {
+    conditions.push("(l.source_id = :runSource AND l.kind = 'run')");
+    replacements.runSource = `run:${input.runId}`;
+  }
+  if (input.source) {
+    conditions.push("(l.source_id = :source AND l.kind = :sourceKind)");
+    replacements.source = input.source.id;
+    replacements.sourceKind = input.source.kind;
+  }
+  const originals = await select<LedgerRow & { project_id: number | null; waste_container_id: number | null; occurred_at: Date }>(
+    `SELECT l.*, r.id AS reversed_by FROM ledger_entries l LEFT JOIN ledger_entries r ON r.reverses_id = l.id
+        WHERE ${conditions.join(" OR ")} ORDER BY l.id FOR UPDATE`,
+    { replacements, transaction },
+  );
+  const found = new Set(originals.map((o) => o.id));
+  const missing = input.entryIds.filter((id) => !found.has(id));
+  if (missing.length) throw new HttpError(404, `entryIds: no ledger entry ${missing.join(", ")}`);
+  if (input.runId !== undefined && !originals.some((o) => o.source_id === `run:${input.runId}`))
+    throw new HttpError(404, `runId: run ${input.runId} has no ledger entries`);
+  const corrections = originals.filter((o) => o.kind === "correction" && input.entryIds.includes(o.id));
+  if (corrections.length)
+    throw new HttpError(
+      400,
+      `entryIds: entry ${corrections.map((c) => c.id).join(", ")} is itself a correction; corrections are not reversed`,
+    );
+  const already = originals.filter((o) => o.reversed_by !== null && input.entryIds.includes(o.id));
+  if (already.length)
+    throw new HttpError(
+      409,
+      `entryIds: entry ${already.map((a) => a.id).join(", ")} is already reversed (by entry ${already.map((a) => a.reversed_by).join(", ")})`,
+    );
+  const todo = originals.filter((o) => o.kind !== "correction" && o.reversed_by === null);
+  if (todo.length === 0 && input.source) return [];
+  if (todo.length === 0) throw new HttpError(409, "runId: every entry of this run is already reversed");
+
+  // A correction to a period already invoiced for the client falls into the next open period.
+  const openDates = new Map<string, Date>();
+  for (const o of todo) {
+    const key = `${o.project_id}|${new Date(o.occurred_at).toISOString()}`;
+    if (!openDates.has(key)) openDates.set(key, await openDateForProject(o.project_id, new Date(o.occurred_at), transaction));
+  }
+  const reversing: NewLedgerEntry[] = todo.map((o) => ({
+    occurredAt: openDates.get(`${o.project_id}|${new Date(o.occurred_at).toISOString()}`)!,
+    projectId: o.project_id,
+    kind: "correction",
+    batchId: o.batch_id,
+    reagentId: o.reagent_id,
+    volume_mL: -o.volume_ml,
+    mass_g: o.mass_g === null ? null : -o.mass_g,
+    channel: o.channel,
+    wasteStreamId: o.waste_stream_id,
+    wasteContainerId: o.waste_container_id,
+    sourceKind: "manual",
+    sourceId: o.source_id,
+    authorId: actor.id,
+    reversesId: o.id,
+    reason: input.reason,
+  }));
+  try {
+    await appendEntries(reversing, transaction);
+  } catch (error) {
+    if (error instanceof Error && /Duplicate entry/i.test(`${error.message} ${(error as { parent?: Error }).parent?.message ?? ""}`))
+      throw new HttpError(409, "entryIds: an entry was reversed by someone else just now; reload");
+    throw error;
+  }
+  const backToBatch = new Map<number, number>();
+  for (const o of todo)
+    if (o.batch_id !== null && DRAWN_FROM_BATCH.has(o.kind)) backToBatch.set(o.batch_id, (backToBatch.get(o.batch_id) ?? 0) + o.volume_ml);
+  for (const [batchId, volume] of backToBatch) {
+    await execute("UPDATE batches SET remaining_ml = LEAST(volume_ml, remaining_ml + ?), updated_at = NOW(3) WHERE id = ?", {
+      replacements: [volume.toFixed(4), batchId],
+      transaction,
+    });
+  }
+  const originalIds = todo.map((o) => o.id);
+  await recordAudit(
+    {
+      actorId: actor.id,
+      action: "ledger.correct",
+      entity: input.runId !== undefined ? "run" : input.source ? "batch" : "ledger_entry",
+      entityId: input.runId ?? originalIds[0] ?? null,
+      ip,
+      before: { entries: originalIds },
+      after: { reason: input.reason, restored_mL: Object.fromEntries(backToBatch) },
+    },
+    transaction,
+  );
+  return originalIds;
 }

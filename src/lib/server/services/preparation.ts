@@ -9,8 +9,8 @@ import { UniqueConstraintError, type Transaction } from "sequelize";
 import { ChemInputError } from "../../chem";
 import type { NewLedgerEntry } from "../../ledger/types";
 import { batchCodeBase, nextBatchCode } from "../../preparation/batch-code";
-import { findDeviations, type Deviation } from "../../preparation/deviations";
-import { batchExpiry, lotExpired } from "../../preparation/expiry";
+import { actualsProblems, findDeviations, type Deviation } from "../../preparation/deviations";
+import { batchExpiry, lotExpired, type BatchExpiry } from "../../preparation/expiry";
 import { assayUsed, lotChemistry } from "../../preparation/lot-assays";
 import { preparationPlan, type PlannedComponent } from "../../preparation/plan";
 import type { RecordedBatch } from "../../preparation/types";
@@ -123,17 +123,29 @@ async function checkBatch(input: BatchCreateInput, now: Date, transaction: Trans
     });
   }
 
+  const made = pairs.map(({ planned, given }) => ({
+    name: planned.name,
+    unit: planned.unit,
+    role: planned.role,
+    target: planned.target,
+    actual: given.actualAmount ?? null,
+  }));
+  // Named by the field the form sent (its index in the submitted components).
+  const refused = actualsProblems(made).map((p) => {
+    const at = Number(p.field.split(".")[1]);
+    return { field: `components.${pairs[at]!.index}.actualAmount`, message: p.message };
+  });
+  if (refused.length)
+    throw new HttpError(400, refused.map((p) => `${p.field}: ${p.message}`).join("; "), {
+      fields: Object.fromEntries(refused.map((p) => [p.field, p.message])),
+    });
+
   const settings = await getPreparationSettings(transaction);
   const deviations = findDeviations({
     tolerances: settings.tolerances,
     targetPH: version.spec.buffer?.targetPH ?? null,
     measuredPH: input.measuredPH ?? null,
-    components: pairs.map(({ planned, given }) => ({
-      name: planned.name,
-      unit: planned.unit,
-      target: planned.target,
-      actual: given.actualAmount ?? null,
-    })),
+    components: made,
   });
   const reason = input.deviationReason?.trim() ?? "";
   const rooms = await knownRooms(transaction);
@@ -262,7 +274,7 @@ export async function recordBatch(
 async function insertBatch(
   input: BatchCreateInput,
   snapshot: object,
-  expiry: { expiresAt: Date; reason: string },
+  expiry: Pick<BatchExpiry, "expiresAt" | "reason" | "basis">,
   deviations: Deviation[],
   reason: string,
   actor: SignedInUser,
@@ -281,8 +293,8 @@ async function insertBatch(
     try {
       const { insertId } = await execute(
         `INSERT INTO batches (code, recipe_version_id, spec_snapshot, volume_ml, remaining_ml, bottles, bottle_size_ml, temperature_c, measured_ph, ph_temperature_c,
-                              prepared_by, prepared_at, expires_at, expiry_reason, status, idempotency_key, deviations, deviation_reason, room, created_at, updated_at)
-         VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, 'ready', ?, ?, ?, ?, NOW(3), NOW(3))`,
+                              prepared_by, prepared_at, expires_at, expiry_reason, expiry_basis, status, idempotency_key, deviations, deviation_reason, room, created_at, updated_at)
+         VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, 'ready', ?, ?, ?, ?, NOW(3), NOW(3))`,
         {
           transaction,
           replacements: [
@@ -300,6 +312,7 @@ async function insertBatch(
             now,
             expiry.expiresAt,
             expiry.reason.slice(0, 300),
+            JSON.stringify(expiry.basis),
             input.idempotencyKey,
             deviations.length ? JSON.stringify(deviations) : null,
             deviations.length ? reason : null,
