@@ -16,6 +16,7 @@ import * as demoFacility from "./seeders/2026.12.01T00.00.00.demo-facility";
 import * as demoPreparation from "./seeders/2026.12.01T02.00.00.demo-preparation";
 import * as wasteDemo from "./seeders/2026.12.01T05.00.00.waste-demo";
 import * as demoBatchRooms from "./seeders/2026.12.01T11.00.00.demo-batch-rooms";
+import * as demoYear from "./dev-seeders/2026.12.04T10.00.00.demo-year";
 
 interface MigrationModule {
   up: RunnableMigration<QueryInterface>["up"];
@@ -46,6 +47,11 @@ export const SEEDERS: Record<string, MigrationModule> = {
   "2026.12.01T11.00.00.demo-batch-rooms.ts": demoBatchRooms,
 };
 
+// The development profile's demo year, on top of SEEDERS (which the tests read); never in the test profile.
+export const DEV_SEEDERS: Record<string, MigrationModule> = {
+  "2026.12.04T10.00.00.demo-year.ts": demoYear,
+};
+
 function umzugFor(sequelize: Sequelize, modules: Record<string, MigrationModule>, tableName: string) {
   return new Umzug<QueryInterface>({
     migrations: Object.entries(modules)
@@ -59,4 +65,6 @@ function umzugFor(sequelize: Sequelize, modules: Record<string, MigrationModule>
 
 export const migrator = (sequelize: Sequelize) => umzugFor(sequelize, MIGRATIONS, "schema_migrations");
 // Seeders are tracked like migrations, so the demo data is loaded once and a restart keeps user changes.
-export const seeder = (sequelize: Sequelize) => umzugFor(sequelize, SEEDERS, "schema_seeders");
+// `{ year: true }` (the development profile) adds the demo year.
+export const seeder = (sequelize: Sequelize, options: { year?: boolean } = {}) =>
+  umzugFor(sequelize, options.year ? { ...SEEDERS, ...DEV_SEEDERS } : SEEDERS, "schema_seeders");
