@@ -151,10 +151,7 @@ export async function loadDemoHistory(qi: QueryInterface, now = new Date()): Pro
   const windows = await q<{ note: string; started: Date; collected: Date | null }>(
     "SELECT location_note AS note, accumulation_started_at AS started, collected_at AS collected FROM waste_containers WHERE location_kind = 'instrument'",
   );
-  const instrumentIds = { ...instruments, sandpiper: instruments.Sandpiper ?? (await byName("instruments", "name")).Sandpiper } as Record<
-    string,
-    number
-  >;
+  const instrumentIds = await byName("instruments", "name");
   const keyed = Object.fromEntries(INSTRUMENTS.map((p) => [p.key, instrumentIds[p.name]!])) as Record<InstrumentKey, number>;
   const instrumentContainers = Object.fromEntries(
     INSTRUMENTS.map((p) => [
