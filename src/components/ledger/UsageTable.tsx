@@ -165,11 +165,12 @@ function UsageView({
   // One unit per column: the reagent and mobile-phase lists and the totals each pick mL or L once.
   const units = useMemo(
     () => ({
-      reagents: volumeUnitFor(rows.flatMap((r) => Object.values(r.volumes_mL))),
+      // Each reagent is a column of its own (as in the CSV): formic acid stays in mL beside acetonitrile in L.
+      reagents: new Map(reagents.map((id) => [id, volumeUnitFor(rows.map((r) => r.volumes_mL[id] ?? 0))])),
       phases: volumeUnitFor(rows.flatMap((r) => Object.values(r.mobilePhases_mL))),
       total: volumeUnitFor(rows.map(total)),
     }),
-    [rows],
+    [rows, reagents],
   );
   const chartSeries = useMemo(() => usageChartSeries(rows.map((r) => ({ label: r.label, volume_mL: total(r), costs: r.costs }))), [rows]);
   const groupNoun = GROUP_LABEL[shown].toLowerCase();
@@ -324,7 +325,8 @@ function UsageView({
                         .filter(([, v]) => v !== 0)
                         .map(([id, v]) => (
                           <div key={id} title={id}>
-                            {reagentName(id)}: <span className="num whitespace-nowrap">{formatVolumeIn(v, units.reagents)}</span>
+                            {reagentName(id)}:{" "}
+                            <span className="num whitespace-nowrap">{formatVolumeIn(v, units.reagents.get(id) ?? "mL")}</span>
                           </div>
                         ))}
                       {Object.entries(r.masses_g)
