@@ -152,10 +152,10 @@ export function simulateYear(anchors: Anchors, seed = 20261204): Simulation {
     }
     return { row, remaining: volume, perLitre: plan.perLitre, expires, used: 0 };
   };
-  const finish = (batch: Batch, at: Date) => {
-    // Used up but for the bottle's dead volume, or past its expiry with the rest discarded.
+  const finish = (batch: Batch, at: Date, handover = false) => {
+    // Used up but for the bottle's dead volume, or past its expiry (or handed over) with the rest discarded.
     const expired = at >= batch.expires;
-    const status = expired && batch.remaining > 150 ? "discarded" : "empty";
+    const status = (expired || handover) && batch.remaining > 150 ? "discarded" : "empty";
     batch.row.status = status;
     batch.row.remaining_ml = status === "discarded" ? round(batch.remaining, 1) : 0;
     batch.row.updated_at = expired ? batch.expires : at;
@@ -221,9 +221,26 @@ export function simulateYear(anchors: Anchors, seed = 20261204): Simulation {
   const containers = new Map<InstrumentKey, Container>();
   const washes = ["SW-ACN-10", "NW-IPA-50"];
 
+  const inSmallDemoWindow = (key: InstrumentKey, start: Date) =>
+    anchors.instrumentContainers[key].some((w) => start >= new Date(w.from.getTime() - DAY_MS) && (!w.to || start <= w.to));
+
   for (let daysAgo = 364; daysAgo >= 1; daysAgo--) {
     const start = dayStart(daysAgo);
     const weekday = start.getUTCDay();
+    // An instrument that hands over to the small demo's batches and carboys (its last history day passed, or
+    // one of the small demo's carboys stands under it) finishes its batches and sends its carboy away the evening before.
+    for (const plan of INSTRUMENTS) {
+      if (daysAgo >= plan.untilDaysAgo && !inSmallDemoWindow(plan.key, start)) continue;
+      const evening = new Date(start.getTime() - 6 * 3_600_000);
+      for (const channel of ["A", "B"]) {
+        const batch = batchesInUse.get(`${plan.key}:${channel}`);
+        if (batch) finish(batch, evening, true);
+        batchesInUse.delete(`${plan.key}:${channel}`);
+      }
+      const container = containers.get(plan.key);
+      if (container) collect(container, evening);
+      containers.delete(plan.key);
+    }
     // Waste is collected on Tuesdays and Fridays.
     if (weekday === 2 || weekday === 5) pickUp(new Date(start.getTime() + 9 * 3_600_000));
     if (weekday === 0 || weekday === 6) continue;
@@ -268,13 +285,14 @@ export function simulateYear(anchors: Anchors, seed = 20261204): Simulation {
         container.volume += volumes.A + volumes.B;
         const runId = next.run++;
         const projectId = pick(projects);
+        const operator = pick(anchors.technicians);
         const startedAt = clock;
         out.runs.push({
           id: runId,
           instrument_id: anchors.instruments[plan.key],
           method_id: anchors.methods[plan.method],
           project_id: projectId,
-          operator_id: pick(anchors.technicians),
+          operator_id: operator,
           reference: `${plan.prefix}-${day(start).slice(2).replaceAll("-", "")}-${n}`,
           started_at: startedAt,
           injections,
@@ -302,25 +320,13 @@ export function simulateYear(anchors: Anchors, seed = 20261204): Simulation {
               waste_container_id: container.row.id,
               source_kind: "seed",
               source_id: `run:${runId}`,
-              author_id: pick(anchors.technicians),
+              author_id: operator,
               created_at: startedAt,
             });
         }
         clock = new Date(clock.getTime() + (injections * plan.runMinutes + between(10, 40)) * 60_000);
       }
     }
-    // The first three instruments hand over to the small demo's batches and carboys.
-    for (const plan of INSTRUMENTS)
-      if (daysAgo === plan.untilDaysAgo || anchors.instrumentContainers[plan.key].some((w) => day(w.from) === day(start))) {
-        for (const channel of ["A", "B"]) {
-          const batch = batchesInUse.get(`${plan.key}:${channel}`);
-          if (batch) finish(batch, new Date(start.getTime() + 18 * 3_600_000));
-          batchesInUse.delete(`${plan.key}:${channel}`);
-        }
-        const container = containers.get(plan.key);
-        if (container) collect(container, new Date(start.getTime() + 18 * 3_600_000));
-        containers.delete(plan.key);
-      }
   }
   pickUp(new Date(midnight.getTime() - DAY_MS));
   // What is still under an instrument at the end of the year stays in use.
