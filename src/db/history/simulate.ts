@@ -70,11 +70,16 @@ export function simulateYear(anchors: Anchors, seed = 20261204): Simulation {
   // Stock: the lot in use per reagent; a new one arrives when it cannot cover a preparation.
   const lots = new Map<string, { row: Row; remaining: number }>();
   const lotCounter: Record<string, number> = {};
-  const drawStock = (reagent: string, amount: number, at: Date): number => {
+  const drawStock = (reagent: string, needed: number, at: Date): number => {
+    let amount = needed;
     if (reagent === "water") return anchors.waterLotId;
     let lot = lots.get(reagent);
     if (!lot || lot.remaining < amount) {
-      if (lot) lot.row.remaining = round(lot.remaining, 3);
+      // The last of the old bottle goes into the batch first; the new lot gives the rest.
+      if (lot) {
+        amount -= lot.remaining;
+        lot.row.remaining = 0;
+      }
       const stock = STOCK[reagent]!;
       lotCounter[reagent] = (lotCounter[reagent] ?? 0) + 1;
       const received = new Date(at.getTime() - between(1, 6) * DAY_MS);
