@@ -1,7 +1,8 @@
 import { randomBytes } from "node:crypto";
 import { defineMiddleware, sequence } from "astro:middleware";
-import { clearSessionCookie, setSessionCookie } from "./lib/server/auth/cookies";
+import { clearSessionCookie } from "./lib/server/auth/cookies";
 import { lucia } from "./lib/server/auth/lucia";
+import { validateSession } from "./lib/server/auth/sessions";
 import { getSequelize } from "./lib/server/db";
 import { startSchedules } from "./lib/server/scheduler";
 import { errorResponse, json } from "./lib/server/http";
@@ -85,20 +86,25 @@ const sameOrigin = defineMiddleware(({ request, url }, next) => {
   return next();
 });
 
-/** Puts the signed-in user and session on locals; renews or clears the cookie as lucia says. */
+/**
+ * Puts the signed-in user and session on locals (a half-finished sign-in on `signInStep` only);
+ * clears the cookie of a session that has ended (idle or absolute limit, sessions.ts).
+ */
 const session = defineMiddleware(async (context, next) => {
   getSequelize(); // binds the models on the first request
   startSchedules();
   context.locals.user = null;
   context.locals.session = null;
+  context.locals.signInStep = null;
   const sessionId = context.cookies.get(lucia.sessionCookieName)?.value ?? null;
   if (sessionId) {
     try {
-      const { session, user } = await lucia.validateSession(sessionId);
-      if (session?.fresh) setSessionCookie(context.cookies, lucia.createSessionCookie(session.id), context.url, context.request);
-      if (!session) clearSessionCookie(context.cookies, context.url, context.request);
-      context.locals.session = session;
-      context.locals.user = user;
+      const found = await validateSession(sessionId);
+      if (!found) clearSessionCookie(context.cookies, context.url, context.request);
+      else if (found.session.stage === "signed-in") {
+        context.locals.session = found.session;
+        context.locals.user = found.user;
+      } else context.locals.signInStep = found;
     } catch (error) {
       // The database is down: health still answers; everything else says 503.
       if (context.url.pathname !== "/api/health") return errorResponse(error);

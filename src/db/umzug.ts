@@ -12,10 +12,17 @@ import * as ledgerSourceIndex from "./migrations/2026.12.01T09.10.00.ledger-sour
 import * as batchRoom from "./migrations/2026.12.01T11.00.00.batch-room";
 import * as dropLedgerSourceKindIndex from "./migrations/2026.12.02T03.00.00.drop-ledger-source-kind-index";
 import * as idempotencyKeyScope from "./migrations/2026.12.04T02.00.00.idempotency-key-scope";
+import * as planning from "./migrations/2026.12.04T05.00.00.planning";
+import * as lotAssay from "./migrations/2026.12.04T04.00.00.lot-assay";
+import * as signInSecurity from "./migrations/2026.12.04T03.00.00.sign-in-security";
+import * as ledgerDailyLocalDays from "./migrations/2026.12.04T08.00.00.ledger-daily-local-days";
 import * as demoFacility from "./seeders/2026.12.01T00.00.00.demo-facility";
 import * as demoPreparation from "./seeders/2026.12.01T02.00.00.demo-preparation";
 import * as wasteDemo from "./seeders/2026.12.01T05.00.00.waste-demo";
 import * as demoBatchRooms from "./seeders/2026.12.01T11.00.00.demo-batch-rooms";
+import * as demoSupply from "./seeders/2026.12.04T05.10.00.demo-supply";
+import * as demoLotAssays from "./seeders/2026.12.04T04.10.00.demo-lot-assays";
+import * as demoFacilityZone from "./seeders/2026.12.04T08.00.00.demo-facility-zone";
 import * as demoYear from "./dev-seeders/2026.12.04T10.00.00.demo-year";
 
 interface MigrationModule {
@@ -38,6 +45,10 @@ export const MIGRATIONS: Record<string, MigrationModule> = {
   "2026.12.01T11.00.00.batch-room.ts": batchRoom,
   "2026.12.02T03.00.00.drop-ledger-source-kind-index.ts": dropLedgerSourceKindIndex,
   "2026.12.04T02.00.00.idempotency-key-scope.ts": idempotencyKeyScope,
+  "2026.12.04T05.00.00.planning.ts": planning,
+  "2026.12.04T04.00.00.lot-assay.ts": lotAssay,
+  "2026.12.04T03.00.00.sign-in-security.ts": signInSecurity,
+  "2026.12.04T08.00.00.ledger-daily-local-days.ts": ledgerDailyLocalDays,
 };
 
 export const SEEDERS: Record<string, MigrationModule> = {
@@ -45,6 +56,9 @@ export const SEEDERS: Record<string, MigrationModule> = {
   "2026.12.01T02.00.00.demo-preparation.ts": demoPreparation,
   "2026.12.01T05.00.00.waste-demo.ts": wasteDemo,
   "2026.12.01T11.00.00.demo-batch-rooms.ts": demoBatchRooms,
+  "2026.12.04T05.10.00.demo-supply.ts": demoSupply,
+  "2026.12.04T04.10.00.demo-lot-assays.ts": demoLotAssays,
+  "2026.12.04T08.00.00.demo-facility-zone.ts": demoFacilityZone,
 };
 
 // The development profile's demo year, on top of SEEDERS (which the tests read); never in the test profile.

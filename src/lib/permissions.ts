@@ -46,6 +46,16 @@ export const PERMISSIONS = [
   "manage:settings",
   /** Expiry rules, deviation tolerances and label stocks (preparation settings). */
   "manage:preparation-settings",
+  /** Greener variants, solvent swaps and column transfers of methods; the facility-wide view. */
+  "read:planning",
+  /** Proposing a variant and submitting it as a new method version. */
+  "manage:planning",
+  /** Approving a pending method version (four eyes: never one's own). */
+  "approve:method",
+  /** Reagents on hand, days of supply and reorder points. */
+  "read:supply",
+  /** Each reagent's lead time and safety stock. */
+  "manage:supply",
   "read:audit",
   "read:dev-inbox",
   "read:own-account",
@@ -73,6 +83,9 @@ const TECHNICIAN: Permission[] = [
   "update:own-account",
   "manage:method",
   "create:correction",
+  "read:planning",
+  "manage:planning",
+  "read:supply",
 ];
 
 const MANAGER: Permission[] = [
@@ -90,8 +103,20 @@ const MANAGER: Permission[] = [
   "manage:rate",
   "read:user",
   "manage:user",
+  /** Greener variants, solvent swaps and column transfers of methods; the facility-wide view. */
+  "read:planning",
+  /** Proposing a variant and submitting it as a new method version. */
+  "manage:planning",
+  /** Approving a pending method version (four eyes: never one's own). */
+  "approve:method",
+  /** Reagents on hand, days of supply and reorder points. */
+  "read:supply",
+  /** Each reagent's lead time and safety stock. */
+  "manage:supply",
   "read:audit",
   "manage:preparation-settings",
+  "approve:method",
+  "manage:supply",
 ];
 
 export const ROLE_PERMISSIONS: Record<Role, readonly Permission[]> = {
@@ -106,6 +131,7 @@ export const ROLE_PERMISSIONS: Record<Role, readonly Permission[]> = {
     "read:stock-lot",
     "read:run",
     "read:project",
+    "read:planning",
     "read:own-account",
     "update:own-account",
   ],

@@ -11,13 +11,14 @@ test("a technician prepares a batch from a demo recipe, records it and prints it
 
   await page.getByLabel("Recipe", { exact: true }).selectOption({ label: "MP-FA-W · 0.1 % formic acid in water (v1, ch. A)" });
   const faTarget = page.getByTestId("target-formic-acid");
-  await expect(faTarget).toHaveText("1.000 mL");
+  // 0.1 % of the final volume, the acid's own volume included: 1.001 mL for 1000 mL of water.
+  await expect(faTarget).toHaveText("1.001 mL");
 
   // The amounts follow the volume as it is typed, computed in the browser.
   const volume = page.getByLabel("Batch volume", { exact: true });
   await volume.fill("");
   await volume.pressSequentially("2500");
-  await expect(faTarget).toHaveText("2.500 mL");
+  await expect(faTarget).toHaveText("2.503 mL");
   await expect(page.getByTestId("target-water")).toHaveText("2500 mL");
   await page.getByLabel("Unit for liquids").selectOption("l");
   await expect(page.getByTestId("target-water")).toHaveText("2.500 L");
@@ -46,8 +47,8 @@ test("a technician prepares a batch from a demo recipe, records it and prints it
   const code = (await page.getByRole("heading", { level: 1 }).innerText()).trim();
   expect(code).toMatch(/^B\d{2}-\d{4}(-\d+)?$/);
   await expect(page.getByTestId("batch-room")).toHaveText("B2.16");
-  const prepared = (await page.getByTestId("prepared-at").innerText()).slice(0, 10);
-  const expires = (await page.getByTestId("expires-at").innerText()).slice(0, 10);
+  // The page shows the facility's locale and zone (the demo's Europe/Berlin), the label ISO order and the zone.
+  await expect(page.getByTestId("prepared-at")).toContainText(/\d{2} \w{3} \d{4}, \d{2}:\d{2} CES?T/);
 
   await page.getByLabel("Copies", { exact: true }).fill("3");
   const [download] = await Promise.all([page.waitForEvent("download"), page.getByTestId("download-labels").click()]);
@@ -55,8 +56,8 @@ test("a technician prepares a batch from a demo recipe, records it and prints it
   expect(readFileSync(file).subarray(0, 5).toString()).toBe("%PDF-");
   const text = execFileSync("pdftotext", [file, "-"], { encoding: "utf8" });
   expect(text.match(new RegExp(code, "g"))).toHaveLength(3);
-  expect(text).toContain(`Prepared ${prepared}`);
-  expect(text).toContain(`Expires ${expires}`);
+  expect(text).toMatch(/Prepared \d{4}-\d{2}-\d{2} \d{2}:\d{2} CES?T/);
+  expect(text).toMatch(/Expires \d{4}-\d{2}-\d{2} \d{2}:\d{2} CES?T/);
   expect(text).toContain("Rowan Ellery");
   expect(text).toContain("Bottle 3 of 3");
 
@@ -83,7 +84,7 @@ test("a recipe picked while the page is still loading is not lost: the form wait
 
   // Picking waits for the form to be ready, and the choice reaches the amounts.
   await recipe.selectOption({ label: "MP-FA-W · 0.1 % formic acid in water (v1, ch. A)" });
-  await expect(page.getByTestId("target-formic-acid")).toHaveText("1.000 mL");
+  await expect(page.getByTestId("target-formic-acid")).toHaveText("1.001 mL");
 });
 
 test("a technician writes a recipe: the form checks it, says it in words and per litre, and saves it", async ({ page }) => {

@@ -4,6 +4,7 @@ import { QueryTypes } from "sequelize";
 import Stripe from "stripe";
 import { describe, expect, it } from "vitest";
 import { monthBounds } from "../../src/lib/billing/statement";
+import { localDay, startOfLocalDay } from "../../src/lib/format";
 import { getEnv } from "../../src/lib/server/env";
 import type { SignedInUser } from "../../src/lib/server/guard";
 import { HttpError } from "../../src/lib/server/http";
@@ -259,8 +260,12 @@ describe("internal chargeback and period locks", () => {
     expect(await isPeriodLocked(PLANT_GROUP, earlier.periodStart)).toBe(false);
     expect(await isPeriodLocked(2, mid)).toBe(false);
     const relocated = await openDateFor(PLANT_GROUP, mid);
+    // The next open period starts at local midnight in the demo's Europe/Berlin.
     expect(relocated.toISOString()).toBe(
-      `${monthBounds(new Date(Date.UTC(now.getUTCFullYear(), now.getUTCMonth(), 1)).toISOString().slice(0, 7)).periodStart}T00:00:00.000Z`,
+      startOfLocalDay(
+        monthBounds(new Date(Date.UTC(now.getUTCFullYear(), now.getUTCMonth(), 1)).toISOString().slice(0, 7)).periodStart,
+        "Europe/Berlin",
+      ).toISOString(),
     );
     expect((await openDateFor(2, mid)).getTime()).toBe(mid.getTime());
 
@@ -272,7 +277,8 @@ describe("internal chargeback and period locks", () => {
       { replacements: { at: relocated } },
     );
     expect((await getStatement(statementId, manager)).lines).toEqual(issued.lines);
-    const next = await computeStatement(PLANT_GROUP, relocated.toISOString().slice(0, 10), relocated.toISOString().slice(0, 10));
+    const openDay = localDay(relocated, "Europe/Berlin");
+    const next = await computeStatement(PLANT_GROUP, openDay, openDay);
     expect(next.lines.find((l) => l.reagentId === "acetonitrile")?.quantity).toBe("-100");
   });
 

@@ -9,7 +9,8 @@ const db = useServiceDatabase();
 describe("the daily expiry digest", () => {
   it("mails every technician once a day the batches that expire within 24 hours, even when two instances run it at once", async () => {
     const now = new Date();
-    now.setUTCHours(Math.max(now.getUTCHours(), 7));
+    // Between 08:00 and 22:00 in the demo's Europe/Berlin, after the digest hour and on one local day.
+    now.setUTCHours(Math.min(Math.max(now.getUTCHours(), 7), 20));
     const due = await db.sequelize.query<{ code: string }>(
       "SELECT code FROM batches WHERE status IN ('ready', 'in_use') AND expires_at > :now AND expires_at <= :until ORDER BY expires_at, code",
       { type: QueryTypes.SELECT, replacements: { now, until: new Date(now.getTime() + 24 * 3_600_000) } },

@@ -102,6 +102,26 @@ export const ROUTE_RULES: Record<string, RouteRule> = {
   "api/auth/forgot-password.ts": { methods: { POST: open(400) } },
   "api/auth/set-password.ts": { methods: { POST: open(400) } },
   "api/account/password.ts": { methods: { POST: need("update:own-account") } },
+  // Sign-in security (issue 16). The two steps of a sign-in are public; without a half-finished
+  // sign-in behind them they answer 400 for the empty body, or (the set-up, whose body may be
+  // empty) 401 anonymous and 400 signed in (the password is asked again).
+  "sign-in/code.astro": { methods: { GET: open(302) } },
+  "sign-in/two-factor-setup.astro": { methods: { GET: open(302) } },
+  "settings/sign-in.astro": { methods: { GET: need("manage:settings") } },
+  "api/auth/two-factor/index.ts": { methods: { POST: open(400) } },
+  "api/auth/two-factor/setup.ts": { methods: { POST: open(401, 400) } },
+  "api/auth/two-factor/confirm.ts": { methods: { POST: open(400) } },
+  "api/account/two-factor.ts": { methods: { DELETE: need("update:own-account") } },
+  "api/account/recovery-codes.ts": { methods: { POST: need("update:own-account") } },
+  "api/account/sessions/index.ts": { methods: { GET: need("read:own-account"), DELETE: need("read:own-account") } },
+  // A handle no session has: allowed roles get 404, which ends nothing.
+  "api/account/sessions/[handle].ts": { methods: { DELETE: need("read:own-account") }, params: () => ({ handle: "0000000000000000" }) },
+  // An invalid limit, so an allowed role's 400 changes no setting of the shared test app.
+  "api/settings/sign-in.ts": {
+    methods: { GET: need("manage:settings"), PUT: need("manage:settings") },
+    body: { throttle: { pairFailures: 0 } },
+  },
+  "api/users/[id]/two-factor.ts": { methods: { DELETE: need("manage:user") }, params: () => ({ id: 999_999 }) },
   "api/users/index.ts": { methods: { GET: need("manage:user"), POST: need("manage:user") } },
   "api/users/[id].ts": { methods: { PATCH: need("manage:user") }, params: (s) => ({ id: s.userId }) },
   // Allowed roles really send a link (to the sample user, who is no sign-in account).
@@ -128,6 +148,7 @@ export const ROUTE_RULES: Record<string, RouteRule> = {
   "api/recipes/index.ts": { methods: { GET: need("read:recipe"), POST: need("create:recipe") } },
   "api/runs/[id].ts": { methods: { GET: need("read:run") }, params: (s) => ({ id: s.ids.run }) },
   "api/runs/index.ts": { methods: { GET: need("read:run"), POST: need("create:run") } },
+  "api/settings/facility.ts": { methods: { GET: need("read:own-account"), PUT: need("manage:settings") } },
   "api/settings/preparation.ts": { methods: { GET: need("read:batch"), PUT: need("manage:preparation-settings") } },
   // The demo lots have no certificate file: allowed roles get the 404 that says so.
   "api/stock-lots/[id]/certificate.ts": {
@@ -145,6 +166,18 @@ export const ROUTE_RULES: Record<string, RouteRule> = {
   "methods/[id].astro": { methods: { GET: need("read:instrument") }, params: (s) => ({ id: s.ids.method }) },
   "methods/index.astro": { methods: { GET: need("read:instrument") } },
   "methods/new.astro": { methods: { GET: need("manage:method") } },
+  "planning/index.astro": { methods: { GET: need("read:planning") } },
+  "planning/supply.astro": { methods: { GET: need("read:supply") } },
+  "planning/methods/[id].astro": { methods: { GET: need("read:planning") }, params: (s) => ({ id: s.ids.method }) },
+  "api/planning/preview.ts": { methods: { POST: need("read:planning") } },
+  "api/planning/methods.ts": { methods: { GET: need("read:planning") } },
+  "api/planning/supply.ts": { methods: { GET: need("read:supply"), PUT: need("manage:supply") } },
+  "api/planning/variants/index.ts": {
+    methods: { GET: need("read:planning"), POST: need("manage:planning") },
+    query: (s) => `?methodId=${s.ids.method}`,
+  },
+  "api/planning/variants/[id]/submit.ts": { methods: { POST: need("manage:planning") }, params: () => ({ id: 999_999 }) },
+  "api/planning/versions/[id].ts": { methods: { POST: need("approve:method") }, params: () => ({ id: 999_999 }) },
   "recipes/[id].astro": { methods: { GET: need("read:recipe") }, params: (s) => ({ id: s.ids.recipe }) },
   "recipes/index.astro": { methods: { GET: need("read:recipe") } },
   "recipes/new.astro": { methods: { GET: need("create:recipe") } },
@@ -152,6 +185,7 @@ export const ROUTE_RULES: Record<string, RouteRule> = {
   "runs/draw.astro": { methods: { GET: need("create:draw") } },
   "runs/index.astro": { methods: { GET: need("read:run") } },
   "runs/new.astro": { methods: { GET: need("create:run") } },
+  "settings/facility.astro": { methods: { GET: need("manage:settings") } },
   "settings/preparation.astro": { methods: { GET: need("manage:preparation-settings") } },
   "stock-lots/index.astro": { methods: { GET: need("read:stock-lot") } },
   "usage/index.astro": { methods: { GET: need("read:usage", true) } },

@@ -87,7 +87,11 @@ describe("the session cookie", () => {
       body: JSON.stringify({ email: "safety@demo.test", password: "decant-demo" }),
     });
     expect(response.status).toBe(200);
-    const parts = attributes(response.headers.get("set-cookie")!);
+    // The session cookie comes first; the signed device cookie follows (sign-in routes only, never cross-site).
+    const [session, device] = response.headers.getSetCookie();
+    const parts = attributes(session!);
+    expect(attributes(device!)).toEqual(expect.arrayContaining(["httponly", "samesite=strict", "path=/api/auth"]));
+    expect(attributes(device!)).not.toContain("secure");
     expect(parts[0]).toMatch(/^decant_session=\w+/);
     expect(parts).toContain("httponly");
     expect(parts).toContain("samesite=lax");
@@ -103,7 +107,9 @@ describe("the session cookie", () => {
       body: JSON.stringify({ email: "safety@demo.test", password: "decant-demo" }),
     });
     expect(response.status).toBe(200);
-    const parts = attributes(response.headers.get("set-cookie")!);
+    const [session, device] = response.headers.getSetCookie();
+    const parts = attributes(session!);
+    expect(attributes(device!)).toContain("secure");
     expect(parts).toContain("secure");
     expect(parts).toContain("httponly");
     expect(parts).toContain("samesite=lax");

@@ -1,28 +1,30 @@
 import { useEffect, useMemo, useState } from "react";
 // The module itself, not the chem index, which would ship the reagent catalogue to this page.
 import { solventUse, type ProgramPoint } from "../../lib/chem/solvent-use";
-import { formatVolume } from "../../lib/format";
+import { formatVolume, localInputValue, zoneName } from "../../lib/format";
 import { programChannels } from "../../lib/ledger/program";
 import type { LoggedRun, ProjectChoice, UsableBatch } from "../../lib/ledger/types";
 import { CHANNELS } from "../../lib/schemas/fields";
-import { runSchema, type RunInput } from "../../lib/schemas/runs";
+import { runFormSchema, type RunInput } from "../../lib/schemas/runs";
 import { Field, SelectField, useZodForm } from "../forms/form";
 import { newKey } from "../forms/idempotency-key";
 import { IslandForm } from "../forms/island-form";
 import { postJson } from "../forms/post-json";
 import { useServerErrors } from "../forms/server-errors";
-import { utcInputValue } from "./utc-input";
 
 interface Props {
   instruments: { id: number; name: string; channels: string[]; wasteContainerCode: string | null }[];
   methods: { id: number; name: string; program: ProgramPoint[] }[];
   projects: ProjectChoice[];
   batches: Omit<UsableBatch, "expiresAt">[];
+  /** The facility's zone and locale: the start time is typed as its wall-clock time. */
+  facility: { timeZone: string; locale: string };
 }
 
 /** Log a sequence: the volumes follow from the method's program, live, before anything is sent. */
-export default function RunForm({ instruments, methods, projects, batches: initialBatches }: Props) {
-  const form = useZodForm<RunInput>(runSchema);
+export default function RunForm({ instruments, methods, projects, batches: initialBatches, facility }: Props) {
+  const form = useZodForm<RunInput>(runFormSchema(facility.timeZone));
+  const nowInput = () => localInputValue(new Date(), facility.timeZone) as unknown as Date;
   const { register, handleSubmit, formState, watch, setValue, reset } = form;
   const showServerError = useServerErrors(form);
   const [batches, setBatches] = useState(initialBatches);
@@ -31,7 +33,8 @@ export default function RunForm({ instruments, methods, projects, batches: initi
 
   useEffect(() => {
     setValue("idempotencyKey", newKey("run"));
-    setValue("startedAt", utcInputValue() as unknown as Date);
+    setValue("startedAt", nowInput());
+    // eslint-disable-next-line react-hooks/exhaustive-deps
   }, [setValue]);
 
   const instrumentId = Number(watch("instrumentId"));
@@ -61,7 +64,7 @@ export default function RunForm({ instruments, methods, projects, batches: initi
       setBatches((bs) =>
         bs.map((b) => ({ ...b, remaining_mL: result.batches.find((x) => x.id === b.id)?.remaining_mL ?? b.remaining_mL })),
       );
-      reset({ ...values, startedAt: utcInputValue() as unknown as Date, idempotencyKey: newKey("run") });
+      reset({ ...values, startedAt: nowInput(), idempotencyKey: newKey("run") });
     } catch (error) {
       setProblem(showServerError(error));
     }
@@ -94,7 +97,14 @@ export default function RunForm({ instruments, methods, projects, batches: initi
             registration={register("projectId")}
             error={e.projectId?.message}
           />
-          <Field label="Start time (UTC)" type="datetime-local" registration={register("startedAt")} error={e.startedAt?.message} />
+          <Field
+            label={`Start time (${facility.timeZone}, ${zoneName(new Date(), facility)})`}
+            type="datetime-local"
+            lang={facility.locale}
+            registration={register("startedAt")}
+            error={e.startedAt?.message}
+            hint="The facility's local time. In the hour the clocks go back, the first occurrence is meant."
+          />
           <Field label="Injections" inputMode="numeric" registration={register("injections")} error={e.injections?.message} />
           <Field label="Extra blanks" inputMode="numeric" placeholder="0" registration={register("blanks")} error={e.blanks?.message} />
           <Field

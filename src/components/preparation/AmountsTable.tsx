@@ -1,6 +1,7 @@
 import convert from "convert-units";
 import type { UseFormReturn } from "react-hook-form";
 import { lotExpired } from "../../lib/preparation/expiry";
+import { assayNote, assayUsed } from "../../lib/preparation/lot-assays";
 import type { PlannedComponent } from "../../lib/preparation/plan";
 import type { FormLot } from "../../lib/preparation/types";
 import type { BatchCreateInput } from "../../lib/schemas/preparation";
@@ -11,6 +12,8 @@ const ROLE_LABEL: Record<string, string> = { solvent: "solvent", buffer: "buffer
 interface Props {
   lines: PlannedComponent[];
   lots: FormLot[];
+  /** The lot picked on each line, if any: its assay sets the amount and is said under the pick. */
+  pickedLots: (FormLot | undefined)[];
   form: UseFormReturn<BatchCreateInput>;
   units: { liquid: VolumeUnit; mass: MassUnit };
   /** What was typed as each line's actual amount, by row key (the form keeps the canonical number). */
@@ -22,7 +25,7 @@ interface Props {
 }
 
 /** The planned components: target amount, the lot used and the amount actually weighed or measured. */
-export function AmountsTable({ lines, lots, form, units, texts, onText, rowKey, deviantFields }: Props) {
+export function AmountsTable({ lines, lots, pickedLots, form, units, texts, onText, rowKey, deviantFields }: Props) {
   const display = (amount: number, unit: "mL" | "g") =>
     unit === "mL" ? convert(amount).from("ml").to(units.liquid) : convert(amount).from("g").to(units.mass);
   const canonical = (value: number, unit: "mL" | "g") =>
@@ -72,6 +75,18 @@ export function AmountsTable({ lines, lots, form, units, texts, onText, rowKey, 
                     })}
                   </select>
                   {options.length === 0 && <p className="field-error">No lot of {c.name} is recorded: add it under Stock lots.</p>}
+                  {(() => {
+                    const lot = pickedLots[i];
+                    const note = lot ? assayNote(assayUsed(c.reagent, c.role, lot)) : null;
+                    return note ? (
+                      <p
+                        className={lot?.assayPercent === null ? "text-xs text-[var(--color-amber)]" : "text-xs text-[var(--color-muted)]"}
+                        data-testid={`assay-${c.reagent}`}
+                      >
+                        {note}
+                      </p>
+                    ) : null;
+                  })()}
                   {lotError && (
                     <p id={`lot-${i}-error`} className="field-error" role="alert">
                       {lotError}

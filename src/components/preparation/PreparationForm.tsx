@@ -3,6 +3,7 @@ import { useEffect, useMemo, useRef, useState } from "react";
 import { ChemInputError } from "../../lib/chem/warnings";
 import { findDeviations, type Tolerances } from "../../lib/preparation/deviations";
 import { batchExpiry, lotExpired, type ExpiryRule } from "../../lib/preparation/expiry";
+import { lotChemistry } from "../../lib/preparation/lot-assays";
 import { preparationPlan, type PreparationPlan } from "../../lib/preparation/plan";
 import type { FormLot, FormRecipe } from "../../lib/preparation/types";
 import type { BatchCreateInput } from "../../lib/schemas/preparation";
@@ -65,6 +66,9 @@ export default function PreparationForm({ recipes, lots, tolerances, expiryRules
   const measuredPH = watch("measuredPH");
   const chosenLots = watch("components");
   const recipe = recipes.find((r) => r.versionId === versionId);
+  // The lots picked, matched to their lines: their assays set the amounts to weigh.
+  const pickedLots = (chosenLots ?? []).map((c) => lots.find((l) => l.id === Number(c.stockLotId) && l.reagent === c.reagent));
+  const lotKey = pickedLots.map((l) => (l ? `${l.id}:${l.assayPercent ?? ""}:${l.density_g_mL ?? ""}` : "")).join(",");
 
   // The amounts, computed in the browser as the user types: no round trip.
   const computed = useMemo((): { plan: PreparationPlan | null; error: string | null } => {
@@ -77,13 +81,16 @@ export default function PreparationForm({ recipes, lots, tolerances, expiryRules
           volume_mL: volume,
           temperature_C: Number.isFinite(temperature) ? temperature : 22,
           detection_nm: recipe.detection_nm,
+          ...lotChemistry(pickedLots),
         }),
         error: null,
       };
     } catch (error) {
       return { plan: null, error: error instanceof ChemInputError ? error.message : "These numbers cannot be computed." };
     }
-  }, [recipe, volume, temperature]);
+    // pickedLots is summed up by lotKey.
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+  }, [recipe, volume, temperature, lotKey]);
   const plan = computed.plan;
 
   const rowKey = (i: number) => `${versionId}:${i}`;
@@ -290,6 +297,7 @@ export default function PreparationForm({ recipes, lots, tolerances, expiryRules
             <AmountsTable
               lines={lines}
               lots={lots}
+              pickedLots={pickedLots}
               form={form}
               units={{ liquid: liquidUnit, mass: massUnit }}
               texts={actualText}

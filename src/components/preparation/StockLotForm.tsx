@@ -32,6 +32,9 @@ export default function StockLotForm({ reagents }: { reagents: LotReagentChoice[
   const [saving, setSaving] = useState(false);
   const reagent = reagents.find((r) => r.id === watch("reagent"));
   const errors = formState.errors;
+  const typical = reagent?.purity_w_w?.value;
+  // A lot density is used for liquids measured by volume into a buffer or as an additive, not for solvents.
+  const asksDensity = reagent?.form === "liquid" && reagent.role !== "solvent";
 
   const onSubmit = handleSubmit(async (values) => {
     setProblem(null);
@@ -78,6 +81,30 @@ export default function StockLotForm({ reagents }: { reagents: LotReagentChoice[
         error={errors.quantity?.message}
       />
       <Field label="Room" registration={register("room")} error={errors.room?.message} />
+      <div>
+        <Field
+          label="Assay (% w/w, from the certificate)"
+          inputMode="decimal"
+          registration={register("assayPercent")}
+          error={errors.assayPercent?.message}
+        />
+        <p className="text-xs text-[var(--color-muted)]">
+          {typical !== undefined
+            ? `Sets the amounts weighed; when left empty the typical ${+(typical * 100).toFixed(1)} % is used and batches say so.`
+            : "Sets the amounts weighed; when left empty 100 % is assumed and batches say so."}
+        </p>
+      </div>
+      {asksDensity && (
+        <div>
+          <Field
+            label="Density at 20 °C (g/mL, optional)"
+            inputMode="decimal"
+            registration={register("density_g_mL")}
+            error={errors.density_g_mL?.message}
+          />
+          <p className="text-xs text-[var(--color-muted)]">From the certificate, if it gives one: the volume to measure uses it.</p>
+        </div>
+      )}
       <Field label="Received" type="date" registration={register("receivedOn")} error={errors.receivedOn?.message} />
       <Field label="Opened (optional)" type="date" registration={register("openedOn")} error={errors.openedOn?.message} />
       <Field label="Expires" type="date" registration={register("expiresOn")} error={errors.expiresOn?.message} />

@@ -228,6 +228,21 @@ export default function UsersAdmin({ users: initial, clients, actor }: Props) {
                             {u.invited ? "Resend invitation" : "Send reset link"}
                           </button>
                         )}
+                        {u.active && u.twoFactor && (
+                          <button
+                            className={SMALL}
+                            type="button"
+                            onClick={() =>
+                              void act(
+                                () => postJson(`/api/users/${u.id}/two-factor`, {}, "DELETE"),
+                                `Two-factor sign-in is off for ${u.name}, who is signed out; they set it up again at their next sign-in if their role requires it.`,
+                              )
+                            }
+                            aria-label={`Turn off two-factor sign-in for ${u.name} (lost phone and recovery codes)`}
+                          >
+                            Reset two-factor
+                          </button>
+                        )}
                       </div>
                     ) : null}
                   </td>

@@ -388,38 +388,11 @@ export async function up({ context: qi }: MigrationParams<QueryInterface>) {
   });
 }
 
-const TABLES_IN_CREATION_ORDER = [
-  "clients",
-  "users",
-  "sessions",
-  "auth_tokens",
-  "sign_in_attempts",
-  "projects",
-  "waste_streams",
-  "pickups",
-  "waste_containers",
-  "waste_readings",
-  "instruments",
-  "methods",
-  "reagents",
-  "stock_lots",
-  "recipes",
-  "recipe_versions",
-  "batches",
-  "batch_components",
-  "imports",
-  "runs",
-  "ledger_entries",
-  "rates",
-  "statements",
-  "invoices",
-  "period_locks",
-  "processed_events",
-  "idempotency_keys",
-  "job_locks",
-  "audit_log",
-  "settings",
-];
+/** In creation order, which `down` reverses. */
+const TABLES_IN_CREATION_ORDER = `clients users sessions auth_tokens sign_in_attempts projects waste_streams pickups waste_containers
+  waste_readings instruments methods reagents stock_lots recipes recipe_versions batches batch_components
+  imports runs ledger_entries rates statements invoices period_locks processed_events idempotency_keys
+  job_locks audit_log settings`.split(/\s+/);
 
 export async function down({ context: qi }: MigrationParams<QueryInterface>) {
   for (const table of [...TABLES_IN_CREATION_ORDER].reverse()) await qi.dropTable(table);

@@ -16,7 +16,8 @@ export type AcidSystemId =
   | "tris"
   | "borate"
   | "phthalate"
-  | "tartrate";
+  | "tartrate"
+  | "trifluoroacetate";
 
 export interface AcidSystem {
   id: AcidSystemId;
@@ -56,10 +57,10 @@ export const ACID_SYSTEMS: Readonly<Record<AcidSystemId, AcidSystem>> = Object.f
     z0: 0,
     species: ["HCOOH", "HCOO-"],
     pKa25: [3.745],
-    dH_kJ_mol: [0],
+    dH_kJ_mol: [-0.167],
     dCp_J_K_mol: [null],
     volatile: true,
-    source: { pKa: "NIST46", note: "CRC lists 3.75 (from memory); ΔH° taken as about 0 (from memory, not in the sources seen)" },
+    source: { pKa: "NIST46", thermo: "NIST46", note: "protonation log K 3.745, ΔH° +0.1674 kJ/mol; CRC lists 3.75 (from memory)" },
   }),
   acetate: sys({
     id: "acetate",
@@ -70,7 +71,11 @@ export const ACID_SYSTEMS: Readonly<Record<AcidSystemId, AcidSystem>> = Object.f
     dH_kJ_mol: [-0.41],
     dCp_J_K_mol: [-142],
     volatile: true,
-    source: { pKa: "Harris", thermo: "GKL02", note: "NIST 46 gives 4.757; sign of ΔH° from the Ka maximum near 22–23 °C" },
+    source: {
+      pKa: "Harris",
+      thermo: "NIST46",
+      note: "NIST 46 gives log K 4.757 and protonation ΔH° +0.41 kJ/mol (so −0.41 for the dissociation); ΔCp° from Goldberg et al. 2002 (from memory)",
+    },
   }),
   citrate: sys({
     id: "citrate",
@@ -78,10 +83,14 @@ export const ACID_SYSTEMS: Readonly<Record<AcidSystemId, AcidSystem>> = Object.f
     z0: 0,
     species: ["H3Cit", "H2Cit-", "HCit^2-", "Cit^3-"],
     pKa25: [3.128, 4.761, 6.396],
-    dH_kJ_mol: [4.07, 2.23, -3.38],
+    dH_kJ_mol: [4.058, 2.05, -3.347],
     dCp_J_K_mol: [-131, -178, -254],
     volatile: false,
-    source: { pKa: "GKL02", thermo: "GKL02" },
+    source: {
+      pKa: "NIST46",
+      thermo: "NIST46",
+      note: "cumulative protonation log K 6.396 / 11.157 / 14.285 with ΔH° 3.347 / 1.297 / −2.761 kJ/mol; Goldberg et al. 2002 give 4.07 / 2.23 / −3.38 (from memory); ΔCp° from Goldberg et al. (from memory)",
+    },
   }),
   ammonium: sys({
     id: "ammonium",
@@ -141,21 +150,43 @@ export const ACID_SYSTEMS: Readonly<Record<AcidSystemId, AcidSystem>> = Object.f
     z0: 0,
     species: ["H2Phth", "HPhth-", "Phth^2-"],
     pKa25: [2.95, 5.408],
-    dH_kJ_mol: [null, null],
-    dCp_J_K_mol: [null, null],
+    dH_kJ_mol: [-2.678, -2.176],
+    dCp_J_K_mol: [-184, -184],
     volatile: false,
-    source: { pKa: "HPA45", note: "CRC lists 2.94 / 5.43 (from memory); no ΔH° in the sources used" },
+    source: {
+      pKa: "NIST46",
+      thermo: "NIST46",
+      note: "cumulative protonation log K 5.408 / 8.358 with ΔH° 2.1757 / 4.8534 kJ/mol, the pKa of Hamer, Pinching & Acree 1945. ΔCp° is derived, not measured: the sum −367 J/(K·mol) from the curvature of Hamer's KHP equation (pH = 1336.08/T − 5.2678 + 0.016069 T, so ΔCp1 + ΔCp2 ≈ −4·R·ln10·0.016069·T), split equally",
+    },
   }),
   tartrate: sys({
     id: "tartrate",
     name: "L-(+)-tartaric acid",
     z0: 0,
     species: ["H2Tart", "HTart-", "Tart^2-"],
-    pKa25: [3.0, 4.36],
-    dH_kJ_mol: [null, null],
+    pKa25: [3.036, 4.366],
+    dH_kJ_mol: [2.929, -0.753],
     dCp_J_K_mol: [null, null],
     volatile: false,
-    source: { pKa: "Dalton94", note: "no ΔH° in the sources used" },
+    source: {
+      pKa: "NIST46",
+      thermo: "NIST46",
+      note: "cumulative protonation log K 4.366 / 7.402 with ΔH° −0.7531 / −3.6819 kJ/mol, the values of Bates & Canham 1951; a study extrapolated from 0.5–3 M NaClO4 gave 3.00 / 4.36 (replaced); no ΔCp° held",
+    },
+  }),
+  trifluoroacetate: sys({
+    id: "trifluoroacetate",
+    name: "trifluoroacetic acid",
+    z0: 0,
+    species: ["CF3COOH", "CF3COO-"],
+    pKa25: [0.47],
+    dH_kJ_mol: [null],
+    dCp_J_K_mol: [null],
+    volatile: true,
+    source: {
+      pKa: "Bowden96",
+      note: "published values run from about 0.2 to 0.5 (0.23 on an encyclopedia page, Ka 0.65 mol/L by conductivity); at 0.1 % v/v the spread moves the pH by under 0.01",
+    },
   }),
 });
 
@@ -183,10 +214,9 @@ export function systemPKa(system: AcidSystem, temperature_C: number): number[] {
 }
 
 /** Strong (fully dissociated) ions carried by reagents. */
-export type StrongIonId = "Na+" | "K+" | "Cl-" | "CF3COO-";
+export type StrongIonId = "Na+" | "K+" | "Cl-";
 export const STRONG_ION_CHARGE: Readonly<Record<StrongIonId, number>> = Object.freeze({
   "Na+": 1,
   "K+": 1,
   "Cl-": -1,
-  "CF3COO-": -1,
 });

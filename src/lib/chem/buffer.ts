@@ -15,12 +15,12 @@ import {
   solutionPH,
   systemMoments,
   ionicStrengthWarning,
-  temperatureWarnings,
   validateTemperature,
 } from "./equilibrium";
 import { STRONG_ION_CHARGE, systemPKa, type AcidSystem } from "./acid-systems";
 import { debyeHuckelA_molar } from "./activity";
-import { reagentDensity, reagentPurity, type Reagent } from "./reagents";
+import { densityOf, purityOf, validateLotData, type LotDensities, type Purities } from "./lot-assay";
+import type { Reagent } from "./reagents";
 import { concentratedWarning, nonVolatileWarning, uvCutoffWarning } from "./safety";
 import { mLToL, mMToMolar, molarToMM } from "./units";
 import { ChemInputError, type ChemWarning, isList, pushWarning, requireFinite } from "./warnings";
@@ -43,6 +43,10 @@ export interface DesignBufferInput {
   basis: BufferBasis;
   /** Optional: warn about components that absorb above this wavelength. */
   detectionWavelength_nm?: number;
+  /** The assay (mass fraction 0–1) of the lot used, by reagent id; the catalogue's typical value otherwise. */
+  purities?: Purities;
+  /** The lot's density at 20 °C (solutions), by reagent id; the catalogue's otherwise. */
+  densities_g_mL?: LotDensities;
 }
 
 export interface BufferComponent {
@@ -110,16 +114,17 @@ function sharedSystem(a: Reagent, b: Reagent): { system: AcidSystem; n1: number;
   return undefined;
 }
 
-/** Amount of reagent as a weighable mass or a measurable volume. */
+/** Amount of reagent as a weighable mass or a measurable volume of the product (the lot's assay and density when given). */
 export function amountToMeasure(
   r: Reagent,
   amount_mol: number,
   temperature_C: number,
   warnings: ChemWarning[],
+  lot: { purities?: Purities | undefined; densities_g_mL?: LotDensities | undefined } = {},
 ): { mass_g?: number; volume_mL?: number } {
-  const productMass_g = (amount_mol * r.molarMass_g_mol) / reagentPurity(r);
+  const productMass_g = (amount_mol * r.molarMass_g_mol) / purityOf(r, lot.purities);
   if (r.form === "solid") return { mass_g: productMass_g };
-  const density = reagentDensity(r, temperature_C);
+  const density = densityOf(r, temperature_C, lot.purities, lot.densities_g_mL, warnings);
   if (density === undefined) {
     pushWarning(warnings, {
       code: "no-density-data",
@@ -187,6 +192,7 @@ export function designBuffer(input: DesignBufferInput): DesignBufferResult {
     throw new ChemInputError("invalid-input", "targetPH must be between 0 and 14.", "targetPH");
   requireFinite(input.volume_mL, "volume_mL", { positive: true });
   requireFinite(input.concentration_mM, "concentration_mM", { positive: true });
+  validateLotData(input.purities, input.densities_g_mL);
   if (input.basis !== "first" && input.basis !== "total")
     throw new ChemInputError("invalid-input", "basis must be 'first' or 'total'.", "basis");
   if (!isList(input.reagents) || input.reagents.length !== 2)
@@ -255,7 +261,7 @@ export function designBuffer(input: DesignBufferInput): DesignBufferResult {
       reagent: reagent.id,
       amount_mol,
       concentration_mM: molarToMM(c as number),
-      ...amountToMeasure(reagent, amount_mol, temperature_C, warnings),
+      ...amountToMeasure(reagent, amount_mol, temperature_C, warnings, { purities: input.purities, densities_g_mL: input.densities_g_mL }),
     };
   });
 
@@ -277,7 +283,6 @@ export function designBuffer(input: DesignBufferInput): DesignBufferResult {
     uvCutoffWarning(r, input.detectionWavelength_nm, warnings);
   }
   for (const w of check.warnings) pushWarning(warnings, w);
-  temperatureWarnings(temperature_C, warnings);
   ionicStrengthWarning(check.ionicStrength_mol_L, warnings);
 
   return {

@@ -286,15 +286,6 @@ export function speciesList(p: Problem, state: EquilibriumState): SpeciesConcent
   return out;
 }
 
-export function temperatureWarnings(temperature_C: number, warnings: ChemWarning[]): void {
-  if (temperature_C < A_TABLE_MIN_C || temperature_C > A_TABLE_MAX_C) {
-    pushWarning(warnings, {
-      code: "temperature-out-of-range",
-      message: `${temperature_C} °C is outside 0–50 °C, the range of the activity and pKa data; the result is an extrapolation.`,
-    });
-  }
-}
-
 export function ionicStrengthWarning(I: number, warnings: ChemWarning[]): void {
   if (I > IONIC_STRENGTH_LIMIT_MOL_L) {
     pushWarning(warnings, {
@@ -304,10 +295,18 @@ export function ionicStrengthWarning(I: number, warnings: ChemWarning[]): void {
   }
 }
 
+/**
+ * Refuses a temperature outside what the data cover: the Debye–Hückel A table and the
+ * temperature corrections of the pKa hold for 0–50 °C.
+ */
 export function validateTemperature(temperature_C: number, field = "temperature_C"): void {
   requireFinite(temperature_C, field);
-  if (temperature_C < 0 || temperature_C > 100)
-    throw new ChemInputError("invalid-input", "temperature_C must be between 0 and 100 °C.", field);
+  if (temperature_C < A_TABLE_MIN_C || temperature_C > A_TABLE_MAX_C)
+    throw new ChemInputError(
+      "invalid-input",
+      `${field} must be between ${A_TABLE_MIN_C} and ${A_TABLE_MAX_C} °C, the range of the activity and pKa data.`,
+      field,
+    );
 }
 
 export interface SolutionPHInput {
@@ -331,7 +330,6 @@ export function solutionPH(input: SolutionPHInput): SolutionPHResult {
   const p = buildProblem(input.components, temperature_C);
   const state = solveEquilibrium(p);
   const warnings: ChemWarning[] = [];
-  temperatureWarnings(temperature_C, warnings);
   ionicStrengthWarning(state.ionicStrength_mol_L, warnings);
   return {
     pH: state.pH,

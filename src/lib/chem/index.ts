@@ -12,6 +12,9 @@ export type { SolutionPHInput, SolutionPHResult, SpeciesConcentration, Component
 export { designBuffer } from "./buffer";
 export type { DesignBufferInput, DesignBufferResult, BufferComponent, BufferBasis } from "./buffer";
 export { mixMobilePhase } from "./mixing";
+export { mobilePhasePH, mobilePhaseLimits, aqueousPHLimits } from "./hydro-organic";
+export type { MobilePhasePHInput, MobilePhasePHResult, MixedPKa } from "./hydro-organic";
+export type { Purities, LotDensities } from "./lot-assay";
 export type { MixMobilePhaseInput, MixMobilePhaseResult, MixComponent, SolventShare } from "./mixing";
 export { ADDITIVE_UNITS } from "./additive-units";
 export type { AdditiveUnit } from "./additive-units";
@@ -25,3 +28,16 @@ export { WARNING_CODES, ERROR_CODES, ChemInputError } from "./warnings";
 export type { ChemWarning, WarningCode, ChemErrorCode } from "./warnings";
 export { SOURCES } from "./sources";
 export type { Source, SourceKey, Confidence } from "./sources";
+export {
+  substituteSolvent,
+  fromMethanolEquivalent,
+  toMethanolEquivalent,
+  lssStrengthRatio,
+  ORGANIC_MODIFIERS,
+  SOLVENT_STRENGTH,
+} from "./substitution";
+export type { SubstituteSolventInput, SubstituteSolventResult, OrganicModifier, ModifierBlend } from "./substitution";
+export { transferMethod, columnVolume_mL } from "./column-transfer";
+export type { TransferMethodInput, TransferMethodResult, ColumnGeometry, TransferKeep } from "./column-transfer";
+export { methodGreenness, EHS_INDICES, HPLC_EAT } from "./greenness";
+export type { MethodGreennessInput, MethodGreennessResult } from "./greenness";

@@ -69,7 +69,7 @@ export function mixtureProperties(input: MixturePropertiesInput): MixturePropert
   input.solvents.forEach((s, i) => {
     const field = `solvents[${i}]`;
     const r = lookupReagent(s.reagent, `${field}.reagent`);
-    requireFinite(s.percent, `${field}.percent`, { min: 0 });
+    requireFinite(s.percent, `${field}.percent`, { min: 0, max: 100 });
     const p = r.polarityIndex?.value;
     if (p === undefined)
       throw new ChemInputError("invalid-input", `${r.name} has no polarity index; it is not a mobile-phase solvent.`, `${field}.reagent`);

@@ -6,7 +6,9 @@
  */
 import { ACID_SYSTEMS, type AcidSystem, type StrongIonId } from "./acid-systems";
 import { molarMass } from "./formula";
+import { anchoredDensity, PERRY_105, type Dippr105 } from "./liquid-density";
 import type { SourceKey } from "./sources";
+import { waterDensity_g_mL } from "./water";
 
 export type PhysicalForm = "liquid" | "solid";
 export type ReagentRole = "solvent" | "acid" | "base" | "salt";
@@ -46,7 +48,12 @@ export interface Reagent {
   role: ReagentRole;
   /** For liquids: g/mL at 20 and 25 °C (of the product as sold, e.g. 85 % H3PO4). */
   density_g_mL?: { at20_C?: Sourced<number>; at25_C?: Sourced<number> };
-  /** Mass fraction of the formula substance in the product as sold (solutions such as 85 % H3PO4). */
+  /** Temperature dependence of the density (organic liquids: Perry's DIPPR 105 coefficients). */
+  densityCorrelation?: Dippr105;
+  /**
+   * Typical mass fraction of the formula substance in the product as sold (85 % H3PO4, KOH pellets
+   * about 85 %); used when the lot's own assay is not recorded. Absent means taken as 100 %.
+   */
   purity_w_w?: Sourced<number>;
   acidBase: AcidBaseData;
   /** UV cutoff (absorbance about 1 in a 1 cm cell); for additives at the stated usual concentration. */
@@ -63,7 +70,7 @@ export interface Reagent {
   flashPoint_C?: Sourced<number>;
 }
 
-type ReagentInput = Omit<Reagent, "molarMass_g_mol" | "acidBase"> & {
+type ReagentInput = Omit<Reagent, "molarMass_g_mol" | "acidBase" | "densityCorrelation"> & {
   systems?: readonly { system: AcidSystem; count: number }[] | undefined;
   ions?: readonly { ion: StrongIonId; count: number }[] | undefined;
 };
@@ -82,8 +89,10 @@ const PHOSPHATE_UV: Sourced<number> = { value: 200, source: "SKD10", note: "10 m
 
 function reagent(input: ReagentInput): Reagent {
   const { systems = [], ions = [], ...rest } = input;
+  const correlation = PERRY_105[input.id];
   return Object.freeze({
     ...rest,
+    ...(correlation !== undefined ? { densityCorrelation: correlation } : {}),
     molarMass_g_mol: molarMass(input.formula),
     acidBase: Object.freeze({ systems, ions }),
   });
@@ -182,7 +191,7 @@ const list: Reagent[] = [
     formula: "C2H5OH",
     form: "liquid",
     role: "solvent",
-    density_g_mL: { at20_C: { value: 0.7893, source: "CRCconc" }, at25_C: { value: 0.7849, source: "MerckM" } },
+    density_g_mL: { at20_C: { value: 0.7893, source: "CRCconc" } },
     uvCutoff_nm: { value: 210, source: "SKD10" },
     polarityIndex: { value: 4.3, source: "Snyder78" },
     ghs: {
@@ -204,10 +213,7 @@ const list: Reagent[] = [
     formula: "(CH3)2CHOH",
     form: "liquid",
     role: "solvent",
-    density_g_mL: {
-      at20_C: { value: 0.7848, source: "CRCconc", note: "100 % row of the 2-propanol table" },
-      at25_C: { value: 0.7813, source: "MerckM" },
-    },
+    density_g_mL: { at20_C: { value: 0.7848, source: "CRCconc", note: "100 % row of the 2-propanol table" } },
     uvCutoff_nm: { value: 205, source: "SKD10" },
     polarityIndex: { value: 3.9, source: "Snyder78" },
     ghs: { pictograms: ["GHS02", "GHS07"], signalWord: "Danger", hazardStatements: ["H225", "H319", "H336"], source: "SDSipa" },
@@ -245,7 +251,7 @@ const list: Reagent[] = [
     formula: "HCOOH",
     form: "liquid",
     role: "acid",
-    density_g_mL: { at20_C: { value: 1.22, source: "MerckM" }, at25_C: { value: 1.214, source: "MerckM" } },
+    density_g_mL: { at20_C: { value: 1.2197, source: "Perry105", note: "the Merck Index gives 1.220 (from memory)" } },
     systems: [{ system: S.formate, count: 1 }],
     uvCutoff_nm: { value: 210, source: "SKD10", note: "0.1 % v/v" },
     ghs: {
@@ -266,7 +272,7 @@ const list: Reagent[] = [
     formula: "CH3COOH",
     form: "liquid",
     role: "acid",
-    density_g_mL: { at20_C: { value: 1.0477, source: "CRCconc" }, at25_C: { value: 1.0446, source: "MerckM" } },
+    density_g_mL: { at20_C: { value: 1.0477, source: "CRCconc" } },
     systems: [{ system: S.acetate, count: 1 }],
     uvCutoff_nm: { value: 230, source: "SKD10", note: "1 % v/v" },
     ghs: { pictograms: ["GHS02", "GHS05"], signalWord: "Danger", hazardStatements: ["H226", "H314"], source: "CLPM" },
@@ -286,7 +292,7 @@ const list: Reagent[] = [
       at20_C: { value: 1.489, source: "MerckM" },
       at25_C: { value: 1.48, source: "MerckM", note: "one data page gives 1.5351 (conflict)" },
     },
-    ions: [{ ion: "CF3COO-", count: 1 }],
+    systems: [{ system: S.trifluoroacetate, count: 1 }],
     uvCutoff_nm: { value: 210, source: "SKD10", note: "0.1 % v/v" },
     ghs: { pictograms: ["GHS05", "GHS07"], signalWord: "Danger", hazardStatements: ["H332", "H314", "H412"], source: "CLPM" },
     wasteStream: {
@@ -305,7 +311,7 @@ const list: Reagent[] = [
     form: "liquid",
     role: "acid",
     density_g_mL: { at20_C: { value: 1.69, source: "MerckM" }, at25_C: { value: 1.685, source: "MerckM" } },
-    purity_w_w: { value: 0.85, source: "MerckM", note: "the usual product as sold" },
+    purity_w_w: { value: 0.85, source: "CPassay", note: "the usual product as sold; products are 85–88 %: use the lot's assay" },
     systems: [{ system: S.phosphate, count: 1 }],
     uvCutoff_nm: PHOSPHATE_UV,
     ghs: { pictograms: ["GHS05"], signalWord: "Danger", hazardStatements: ["H314", "H290"], source: "CLPM" },
@@ -351,6 +357,7 @@ const list: Reagent[] = [
     formula: "NaOH",
     form: "solid",
     role: "base",
+    purity_w_w: { value: 0.98, source: "CPassay", note: "pellets; the lot's certificate of analysis governs" },
     ions: [{ ion: "Na+", count: 1 }],
     ghs: { pictograms: ["GHS05"], signalWord: "Danger", hazardStatements: ["H290", "H314"], source: "CLPM" },
     wasteStream: { value: "basic-corrosive", source: "CPwaste" },
@@ -364,6 +371,7 @@ const list: Reagent[] = [
     formula: "KOH",
     form: "solid",
     role: "base",
+    purity_w_w: { value: 0.85, source: "CPassay", note: "pellets are about 85 % KOH; the lot's certificate of analysis governs" },
     ions: [{ ion: "K+", count: 1 }],
     ghs: {
       pictograms: ["GHS05", "GHS07"],
@@ -611,18 +619,26 @@ export function getReagent(id: string): Reagent | undefined {
   return byId.get(id);
 }
 
-/** Density of a liquid reagent at a temperature: linear between the 20 and 25 °C values, held outside. */
+/**
+ * Density of a liquid reagent (the product as sold) at a temperature, g/mL. Water from Tanaka et al.;
+ * organic liquids from their DIPPR 105 correlation anchored at the catalogue's 25 °C value (or 20 °C);
+ * other liquids linear through their 20 and 25 °C values, or the one value held (concentrated aqueous
+ * acids and bases: no temperature data are held, see DEVELOPERS.md).
+ */
 export function reagentDensity(reagent: Reagent, temperature_C: number): number | undefined {
+  if (reagent.id === "water") return waterDensity_g_mL(temperature_C);
   const d20 = reagent.density_g_mL?.at20_C?.value;
   const d25 = reagent.density_g_mL?.at25_C?.value;
-  if (d20 !== undefined && d25 !== undefined) {
-    const t = Math.min(25, Math.max(20, temperature_C));
-    return d20 + ((d25 - d20) * (t - 20)) / 5;
+  const c = reagent.densityCorrelation;
+  if (c !== undefined && (d25 ?? d20) !== undefined) {
+    const anchor = d25 !== undefined ? { temperature_C: 25, value_g_mL: d25 } : { temperature_C: 20, value_g_mL: d20 ?? 0 };
+    return anchoredDensity(c, anchor, temperature_C);
   }
+  if (d20 !== undefined && d25 !== undefined) return d20 + ((d25 - d20) * (temperature_C - 20)) / 5;
   return d25 ?? d20;
 }
 
-/** Mass fraction of the formula substance in the product (1 when not given). */
-export function reagentPurity(reagent: Reagent): number {
-  return reagent.purity_w_w?.value ?? 1;
+/** Mass fraction of the formula substance in the product: the lot's assay when given, else the catalogue's typical value (1 when none). */
+export function reagentPurity(reagent: Reagent, lotAssay?: number): number {
+  return lotAssay ?? reagent.purity_w_w?.value ?? 1;
 }

@@ -29,9 +29,8 @@ export function fitLSS(input: FitLSSInput): LSSParameters & { r2: number } {
   const xs: number[] = [];
   const ys: number[] = [];
   input.runs.forEach((r, i) => {
-    requireFinite(r.percentB, `runs[${i}].percentB`, { min: 0 });
+    requireFinite(r.percentB, `runs[${i}].percentB`, { min: 0, max: 100 });
     requireFinite(r.retention_min, `runs[${i}].retention_min`);
-    if (r.percentB > 100) throw new ChemInputError("invalid-input", `runs[${i}].percentB must be at most 100.`, `runs[${i}].percentB`);
     if (!(r.retention_min > t0))
       throw new ChemInputError("invalid-input", `runs[${i}].retention_min must be later than the dead time.`, `runs[${i}].retention_min`);
     xs.push(r.percentB / 100);
@@ -62,7 +61,7 @@ export interface PredictRetentionInput extends LSSParameters {
 
 export function predictRetention(input: PredictRetentionInput): { k: number; retention_min: number } {
   requireFinite(input.deadTime_min, "deadTime_min", { positive: true });
-  requireFinite(input.percentB, "percentB", { min: 0 });
+  requireFinite(input.percentB, "percentB", { min: 0, max: 100 });
   requireFinite(input.logKw, "logKw");
   requireFinite(input.S, "S");
   const k = 10 ** (input.logKw - (input.S * input.percentB) / 100);
@@ -81,8 +80,8 @@ export function gradientRetention(input: GradientRetentionInput): { retention_mi
   requireFinite(tD, "dwell_min", { min: 0 });
   requireFinite(logKw, "logKw");
   requireFinite(S, "S", { positive: true });
-  requireFinite(gradient.from_percentB, "gradient.from_percentB", { min: 0 });
-  requireFinite(gradient.to_percentB, "gradient.to_percentB", { min: 0 });
+  requireFinite(gradient.from_percentB, "gradient.from_percentB", { min: 0, max: 100 });
+  requireFinite(gradient.to_percentB, "gradient.to_percentB", { min: 0, max: 100 });
   requireFinite(gradient.time_min, "gradient.time_min", { positive: true });
   const phi0 = gradient.from_percentB / 100;
   const phi1 = gradient.to_percentB / 100;

@@ -37,7 +37,7 @@ export function solventUse(input: SolventUseInput): SolventUseResult {
     requireFinite(p.flow_mL_min, `program[${i}].flow_mL_min`, { min: 0 });
     let sum = 0;
     for (const [ch, pct] of Object.entries(p.composition)) {
-      requireFinite(pct, `program[${i}].composition.${ch}`, { min: 0 });
+      requireFinite(pct, `program[${i}].composition.${ch}`, { min: 0, max: 100 });
       sum += pct;
       channels.add(ch);
     }

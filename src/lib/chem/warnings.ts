@@ -25,10 +25,36 @@ export const WARNING_CODES = [
   "contraction-estimated",
   /** No published viscosity table for this mix at this temperature. */
   "no-viscosity-data",
-  /** Temperature outside the range of the activity and pKa data (0–50 °C). */
-  "temperature-out-of-range",
   /** No density for a liquid reagent: only its mass can be given. */
   "no-density-data",
+  /** Another organic modifier or column: peak spacing and order may change (re-check system suitability). */
+  "selectivity-change",
+  /** A mix near its viscosity maximum (methanol–water near 40–50 %): higher back-pressure. */
+  "viscosity-maximum",
+  /** Solvents or a buffered phase that may not mix or may separate. */
+  "miscibility",
+  /** The new solvent cannot reach the eluent strength of the old at this composition. */
+  "strength-unreachable",
+  /** A conversion or a model used beyond the range it was published for. */
+  "relation-extrapolated",
+  /** Plate number (L/dp) changes: resolution will change. */
+  "resolution-change",
+  /** Dwell volume differs, in column volumes: a hold or a delayed injection keeps the gradient's timing. */
+  "dwell-correction",
+  /** Back-pressure rises: check it against the column's and the system's limits. */
+  "pressure-increase",
+  /** A channel without a named reagent: its solvent and waste cannot be named. */
+  "unnamed-channel",
+  /** Material compatibility or stability of a solvent (e.g. THF and PEEK, peroxides). */
+  "solvent-handling",
+  /** The lot's assay differs from the catalogue's product but no density is recorded for it: the volume uses the catalogue's. */
+  "lot-density-assumed",
+  /** No published pH-shift data for this organic solvent or this buffer: only the aqueous pH is given. */
+  "no-organic-data",
+  /** The organic fraction is beyond the range of the pH-shift data: the mixed-solvent pH is not given. */
+  "organic-beyond-data",
+  /** The pH-shift data are for 25 °C; the mix is at another temperature. */
+  "organic-data-temperature",
 ] as const;
 
 export type WarningCode = (typeof WARNING_CODES)[number];
@@ -73,7 +99,11 @@ export function pushWarning(list: ChemWarning[], warning: ChemWarning): void {
   list.push(warning);
 }
 
-export function requireFinite(value: number, field: string, { min, positive }: { min?: number; positive?: boolean } = {}): void {
+export function requireFinite(
+  value: number,
+  field: string,
+  { min, max, positive }: { min?: number; max?: number; positive?: boolean } = {},
+): void {
   if (typeof value !== "number" || !Number.isFinite(value)) {
     throw new ChemInputError("invalid-input", `${field} must be a finite number.`, field);
   }
@@ -82,6 +112,9 @@ export function requireFinite(value: number, field: string, { min, positive }: {
   }
   if (min !== undefined && value < min) {
     throw new ChemInputError("invalid-input", `${field} must be at least ${min}.`, field);
+  }
+  if (max !== undefined && value > max) {
+    throw new ChemInputError("invalid-input", `${field} must be at most ${max}.`, field);
   }
 }
 

@@ -1,10 +1,12 @@
 /** What a batch's bottle label says, from the batch as recorded. Pure: the batch page previews the same content the PDF prints. */
 import { componentShares, preparationPlan, type PlannedComponent } from "../preparation/plan";
+import { formatLabelInstant } from "../format";
 import type { BatchDetail } from "../preparation/types";
 import { hazardSummary } from "./hazards";
 import type { LabelContent } from "./layout";
 
-export function labelContentOf(batch: BatchDetail): LabelContent {
+/** `timeZone`: the facility's; the label shows its wall-clock times and the zone's name. */
+export function labelContentOf(batch: BatchDetail, timeZone: string): LabelContent {
   // Older batches recorded without components take them from their recipe's plan.
   let parts: PlannedComponent[] = batch.components.map((c) => ({
     reagent: c.reagent,
@@ -21,7 +23,6 @@ export function labelContentOf(batch: BatchDetail): LabelContent {
     }
   }
   const hazards = hazardSummary(componentShares({ components: parts, finalVolume_mL: batch.volume_mL }));
-  const when = (iso: string) => iso.slice(0, 16).replace("T", " ");
   const deviation = batch.deviations.length
     ? `${batch.deviations.map((d) => d.message.split(" (tolerance")[0]).join("; ")}. Reason: ${batch.deviationReason ?? "not given"}`
     : null;
@@ -29,8 +30,8 @@ export function labelContentOf(batch: BatchDetail): LabelContent {
     code: batch.code,
     name: batch.recipeName,
     composition: batch.composition + (batch.measuredPH !== null ? ` · measured pH ${batch.measuredPH.toFixed(2)}` : ""),
-    prepared: `${when(batch.preparedAt)} UTC`,
-    expires: `${when(batch.expiresAt)} UTC`,
+    prepared: formatLabelInstant(batch.preparedAt, timeZone),
+    expires: formatLabelInstant(batch.expiresAt, timeZone),
     preparer: batch.preparedBy,
     bottles: batch.bottles,
     storage: batch.storage,

@@ -82,7 +82,9 @@ export function bottleLine(n: number, of: number): string {
 }
 
 function blocksFor(c: LabelContent, bottle: number, compact: boolean): Block[] {
-  const dates = compact ? `Prep ${c.prepared.replace(/ UTC$/, "")} · Exp ${c.expires}` : `Prepared ${c.prepared}  ·  Expires ${c.expires}`;
+  const dates = compact
+    ? `Prep ${c.prepared.replace(/ [^ ]+$/, "")} · Exp ${c.expires}`
+    : `Prepared ${c.prepared}  ·  Expires ${c.expires}`;
   const blocks: Block[] = [
     { id: "name", text: c.channel ? `${c.name} · ch. ${c.channel}` : c.name, bold: true, scale: 1.12, required: true, maxLines: 2 },
     { id: "composition", text: c.composition, bold: false, scale: 1, required: true, maxLines: 3 },

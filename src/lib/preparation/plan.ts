@@ -6,6 +6,7 @@
 import { designBuffer } from "../chem/buffer";
 import { mixMobilePhase } from "../chem/mixing";
 import { mixtureProperties } from "../chem/mixture-properties";
+import type { LotDensities, Purities } from "../chem/lot-assay";
 import { getReagent } from "../chem/reagents";
 import { ChemInputError, type ChemWarning } from "../chem/warnings";
 import type { RecipeSpec } from "../schemas/recipes";
@@ -41,6 +42,10 @@ export interface PlanInput {
   volume_mL: number;
   temperature_C?: number;
   detection_nm?: number | null;
+  /** The assay (mass fraction) of the lots picked, by reagent; the catalogue's typical values otherwise. */
+  purities?: Purities;
+  /** The lots' densities at 20 °C (solutions), by reagent. */
+  densities_g_mL?: LotDensities;
 }
 
 function nameOf(id: string): string {
@@ -52,6 +57,11 @@ function pushUnique(list: ChemWarning[], more: readonly ChemWarning[]) {
 }
 
 const fmtVol = (mL: number) => (mL >= 100 ? `${mL.toFixed(0)} mL` : mL >= 10 ? `${mL.toFixed(1)} mL` : `${mL.toFixed(2)} mL`);
+
+const lotData = (input: PlanInput) => ({
+  ...(input.purities ? { purities: input.purities } : {}),
+  ...(input.densities_g_mL ? { densities_g_mL: input.densities_g_mL } : {}),
+});
 
 /** Throws ChemInputError (with the field) when the chemistry cannot be computed. */
 export function preparationPlan(input: PlanInput): PreparationPlan {
@@ -68,6 +78,7 @@ export function preparationPlan(input: PlanInput): PreparationPlan {
     additives: spec.additives,
     temperature_C,
     ...(detection ? { detectionWavelength_nm: detection } : {}),
+    ...lotData(input),
   });
   pushUnique(warnings, mix.warnings);
   const waterShare = spec.solvents.filter((s) => s.reagent === "water").reduce((a, s) => a + s.percent, 0);
@@ -101,6 +112,7 @@ export function preparationPlan(input: PlanInput): PreparationPlan {
       concentration_mM: b.concentration_mM,
       basis: b.basis,
       ...(detection ? { detectionWavelength_nm: detection } : {}),
+      ...lotData(input),
     });
     pushUnique(warnings, result.warnings);
     buffer = { pH: result.pH, ionicStrength_mol_L: result.ionicStrength_mol_L, bufferCapacity_mM_per_pH: result.bufferCapacity_mM_per_pH };
@@ -184,9 +196,8 @@ export function preparationPlan(input: PlanInput): PreparationPlan {
 
   return {
     components,
-    finalVolume_mL:
-      mix.finalVolume_mL +
-      components.filter((c) => c.role === "buffer" || c.role === "titrant").reduce((a, c) => a + (c.unit === "mL" ? c.target : 0), 0),
+    // The buffer is made up to the water's volume, so its reagents add no volume of their own.
+    finalVolume_mL: mix.finalVolume_mL,
     aqueous_mL,
     warnings,
     properties: {

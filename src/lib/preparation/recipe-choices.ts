@@ -3,7 +3,7 @@
  * handed to the island as props, so the island's first load needs ids and names, not the catalogue.
  */
 import { ADDITIVE_UNITS, type AdditiveUnit } from "../chem/additive-units";
-import { reagents, type PhysicalForm } from "../chem/reagents";
+import { reagents, type PhysicalForm, type Reagent } from "../chem/reagents";
 
 export interface ReagentChoice {
   id: string;
@@ -31,8 +31,17 @@ export function recipeChoices(): RecipeChoices {
 /** A reagent the stock-lot form offers: any reagent of the catalogue, as received. */
 export interface LotReagentChoice extends ReagentChoice {
   form: PhysicalForm;
+  role: Reagent["role"];
+  /** The catalogue's typical assay of the product as sold (mass fraction), the fallback when a lot records none. */
+  purity_w_w?: { value: number };
 }
 
 export function lotReagentChoices(): LotReagentChoice[] {
-  return reagents.map((r) => ({ id: r.id, name: r.name, form: r.form }));
+  return reagents.map((r) => ({
+    id: r.id,
+    name: r.name,
+    form: r.form,
+    role: r.role,
+    ...(r.purity_w_w ? { purity_w_w: { value: r.purity_w_w.value } } : {}),
+  }));
 }

@@ -4,6 +4,7 @@
  */
 import type { RecipeSpec } from "../schemas/recipes";
 import type { Deviation } from "./deviations";
+import type { AssayUsed } from "./lot-assays";
 
 export type RecipeState = "approved" | "pending" | "retired";
 
@@ -65,6 +66,9 @@ export interface FormLot {
   remaining: number;
   unit: "mL" | "g";
   low: boolean;
+  /** % w/w from the certificate; null when not recorded (the catalogue's typical value is used). */
+  assayPercent: number | null;
+  density_g_mL: number | null;
 }
 
 export interface StockLotSummary {
@@ -81,6 +85,10 @@ export interface StockLotSummary {
   quantity: number;
   remaining: number;
   room: string | null;
+  /** Assay from the certificate, % w/w; null when not recorded (the catalogue's typical value applies). */
+  assayPercent: number | null;
+  /** Density at 20 °C from the certificate (solutions), g/mL. */
+  density_g_mL: number | null;
   hasCertificate: boolean;
   certificateName: string | null;
   expired: boolean;
@@ -105,6 +113,8 @@ export interface BatchComponentDetail {
   actual: number | null;
   stockLotId: number | null;
   lotNumber: string | null;
+  /** The assay the target was computed with (null for solvents and batches recorded before assays were kept). */
+  assay: AssayUsed | null;
 }
 
 /** One batch as `GET /api/batches/:id` and its page show it. */

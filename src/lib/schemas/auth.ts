@@ -18,6 +18,8 @@ export const signInSchema = z.object({
     .string({ required_error: "Enter your password", invalid_type_error: "must be text" })
     .min(1, "Enter your password")
     .max(200, "is too long"),
+  /** A shared bench computer: the session ends after the short idle limit, and with the browser. */
+  sharedBench: z.boolean({ invalid_type_error: "must be true or false" }).optional(),
 });
 export type SignInInput = z.infer<typeof signInSchema>;
 

@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { parseLocalDateTime } from "../format";
 
 /** A database id from a form or a query string; "" and null mean "none". */
 export const id = (label = "Choose one") =>
@@ -58,6 +59,21 @@ export const instant = (label = "Enter a date and time") =>
       .min(new Date(Date.UTC(FIRST_YEAR, 0, 1)), `must be in ${FIRST_YEAR} or later`)
       .max(new Date(Date.UTC(LAST_YEAR + 1, 0, 1) - 1), `must be in ${LAST_YEAR} or earlier`),
   );
+
+/**
+ * A moment typed in a form as the facility's wall-clock time ("YYYY-MM-DDTHH:MM", a datetime-local
+ * input), read in `timeZone` by `parseLocalDateTime`: a time the clocks skip is refused with the
+ * reason, a repeated one is its first occurrence, a text with an offset is read as it says.
+ */
+export const localInstant = (label: string, timeZone: string) =>
+  z.preprocess((v, ctx) => {
+    if (v instanceof Date) return v;
+    if (typeof v !== "string" || v.trim() === "") return undefined;
+    const reading = parseLocalDateTime(v, timeZone);
+    if (reading.ok) return reading.instant;
+    ctx.addIssue({ code: z.ZodIssueCode.custom, message: reading.message });
+    return z.NEVER;
+  }, instant(label));
 
 /**
  * A day, YYYY-MM-DD, that exists in the calendar, in FIRST_YEAR…LAST_YEAR. `label` is the message

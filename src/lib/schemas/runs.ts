@@ -1,5 +1,5 @@
 import { z } from "zod";
-import { amount, CHANNELS, id, idempotencyKey, instant, optionalId, wholeNumber } from "./fields";
+import { amount, CHANNELS, id, idempotencyKey, instant, localInstant, optionalId, wholeNumber } from "./fields";
 
 /** The batch on each pump channel; unused channels are left out (or blank). */
 const channelBatches = z
@@ -27,6 +27,9 @@ export const runSchema = z.object({
   idempotencyKey,
 });
 export type RunInput = z.infer<typeof runSchema>;
+
+/** The run form: the same, with the start time typed as a wall-clock time in the facility's zone. */
+export const runFormSchema = (timeZone: string) => runSchema.extend({ startedAt: localInstant("Enter the start time", timeZone) });
 
 export const DRAW_PURPOSES = ["wash", "spill", "transfer", "other"] as const;
 

@@ -24,9 +24,29 @@ export const stockLotInputSchema = z
       z.coerce.number({ invalid_type_error: "Remaining must be a number" }).min(0, "Cannot be negative").optional(),
     ),
     room: z.preprocess(blankToUndefined, z.string().trim().max(40).optional()),
+    /** Assay from the certificate of analysis: % w/w of the formula substance (for a solution, as received). */
+    assayPercent: z.preprocess(
+      blankToUndefined,
+      z.coerce
+        .number({ invalid_type_error: "Assay must be a number (% w/w)" })
+        .gt(0, "Assay: more than 0 %")
+        .max(100, "Assay: at most 100 %")
+        .optional(),
+    ),
+    /** Density at 20 °C from the certificate (solutions), g/mL. */
+    density_g_mL: z.preprocess(
+      blankToUndefined,
+      z.coerce
+        .number({ invalid_type_error: "Density must be a number (g/mL)" })
+        .min(0.5, "Density: 0.5–2.5 g/mL")
+        .max(2.5, "Density: 0.5–2.5 g/mL")
+        .optional(),
+    ),
   })
   .strict()
   .superRefine((lot, ctx) => {
+    if (lot.density_g_mL !== undefined && getReagent(lot.reagent)?.form === "solid")
+      ctx.addIssue({ code: "custom", path: ["density_g_mL"], message: "A solid has no density to record; leave it empty" });
     if (lot.expiresOn < lot.receivedOn)
       ctx.addIssue({ code: "custom", path: ["expiresOn"], message: "The expiry date is before the date received" });
     if (lot.openedOn && lot.openedOn < lot.receivedOn)

@@ -62,3 +62,36 @@ export function resetMail(input: { to: string; name: string; link: string }): Ou
     ),
   };
 }
+
+/**
+ * One mail per account lock, to the owner and to each administrator: new browsers are refused
+ * until `until`; browsers the owner signed in on before still work.
+ */
+export function accountLockedMail(input: {
+  to: string;
+  name: string;
+  accountEmail: string;
+  forOwner: boolean;
+  failures: number;
+  until: string;
+  link: string;
+}): OutgoingMail {
+  const who = input.forOwner ? "your Decant account" : `the Decant account ${input.accountEmail}`;
+  const lines = [
+    `Hello ${input.name},`,
+    "",
+    `There were ${input.failures} wrong passwords for ${who} within the hour, so Decant refuses sign-ins to it from new browsers until ${input.until}.`,
+    input.forOwner
+      ? "A browser you have signed in on before still lets you in. If the wrong passwords were not yours, choose a new password and consider turning on two-factor sign-in on My account."
+      : "Browsers the owner has signed in on before still work. If this looks like an attack, check the addresses in the audit log and ask the owner to turn on two-factor sign-in.",
+  ];
+  return {
+    to: input.to,
+    subject: input.forOwner ? "Sign-in to your Decant account is paused for new browsers" : `Sign-in paused for ${input.accountEmail}`,
+    text: [...lines, "", input.link].join("\n"),
+    html: html(lines.filter(Boolean).map(escapeHtml), input.link, input.forOwner ? "Open Decant" : "Open the people page").replace(
+      escapeHtml(FOOTER_TEXT),
+      "You get this message once for each pause, not for every attempt.",
+    ),
+  };
+}

@@ -1,6 +1,8 @@
 // Scheduled work of an app instance: every timer of the app is here. Each job takes a database
 // lock (job_locks), so several instances behind a proxy never send the same mail twice.
+import { pruneSignInRecords } from "./auth/prune";
 import { runExpiryDigest } from "./services/expiry-digest";
+import { runReorderMail } from "./services/planning/reorder-mail";
 import { runWasteAlertCheck } from "./services/waste/alerts";
 
 const MINUTE = 60_000;
@@ -21,4 +23,7 @@ export function startSchedules() {
   started = true;
   repeat("waste alert check", MINUTE, 15 * MINUTE, () => runWasteAlertCheck());
   repeat("expiry digest", 90_000, 30 * MINUTE, () => runExpiryDigest());
+  // The weekly list of what to order: checked every 30 minutes, sent once on Monday from 06:00 UTC.
+  repeat("reorder mail", 2 * MINUTE, 30 * MINUTE, () => runReorderMail());
+  repeat("sign-in records prune", 60 * MINUTE, 60 * MINUTE, () => pruneSignInRecords());
 }

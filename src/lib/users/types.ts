@@ -13,6 +13,8 @@ export interface UserRow {
   invited: boolean;
   lastSignInAt: string | null;
   createdAt: string;
+  /** Signs in with a second factor (only known in the list; false elsewhere). */
+  twoFactor?: boolean;
 }
 
 export interface ClientOption {

@@ -3,11 +3,15 @@
  * the server gathers them. Volumes in the CSV are mL with up to 4 decimals (the ledger's precision).
  */
 import { PDFDocument, rgb, type PDFFont, type PDFPage } from "pdf-lib";
+import { formatLabelInstant } from "../format";
 import { embedLabelFonts, sanitizer } from "../labels/label-pdf";
 
 export interface ReportData {
   facility: string;
+  /** ISO 8601 with the facility's offset. */
   generatedAt: string;
+  /** The facility's zone; the period's days are its local days. */
+  timeZone: string;
   period: { from: string; to: string };
   total_mL: number;
   streams: { stream: string; name: string; volume_mL: number }[];
@@ -107,7 +111,7 @@ export async function reportPdf(data: ReportData): Promise<Uint8Array> {
   write("Solvent waste report", MARGIN, 18, fonts.bold);
   y -= 18;
   write(
-    `${data.facility} · period ${data.period.from} to ${data.period.to} · generated ${data.generatedAt.slice(0, 16).replace("T", " ")} UTC`,
+    `${data.facility} · period ${data.period.from} to ${data.period.to} · generated ${formatLabelInstant(data.generatedAt, data.timeZone)}`,
     MARGIN,
     9,
     fonts.regular,

@@ -1,5 +1,6 @@
 import { QueryTypes } from "sequelize";
 import { describe, expect, it } from "vitest";
+import { localDay, nextDay, startOfLocalDay } from "../../../src/lib/format";
 import { HttpError } from "../../../src/lib/server/http";
 import { LedgerEntry } from "../../../src/lib/server/models/ledger";
 import { reverseEntries } from "../../../src/lib/server/services/ledger";
@@ -224,7 +225,7 @@ describe("corrections and invoiced periods", () => {
       scoutRun({ injections: 1, blanks: 0, purge_mL: 0, startedAt: new Date(Date.now() - 5 * 24 * HOUR).toISOString() }),
       tech,
     );
-    const day = new Date(Date.now() - 5 * 24 * HOUR).toISOString().slice(0, 10);
+    const day = localDay(new Date(Date.now() - 5 * 24 * HOUR), "Europe/Berlin");
     // PMG-ROOT-26 belongs to client 1; lock the run's day as if that period were already charged back.
     await db.sequelize.query("INSERT INTO period_locks (client_id, period_start, period_end, created_at) VALUES (1, ?, ?, NOW())", {
       replacements: [day, day],
@@ -234,9 +235,9 @@ describe("corrections and invoiced periods", () => {
       `run:${run.id}`,
     ]);
     expect(corrections.length).toBe(dates.length);
-    const nextDay = new Date(`${day}T00:00:00.000Z`);
-    nextDay.setUTCDate(nextDay.getUTCDate() + 1);
-    for (const d of dates) expect(new Date(d.occurred_at).toISOString()).toBe(nextDay.toISOString());
+    // The next local day's midnight in the demo's Europe/Berlin.
+    const next = startOfLocalDay(nextDay(day), "Europe/Berlin");
+    for (const d of dates) expect(new Date(d.occurred_at).toISOString()).toBe(next.toISOString());
   });
 });
 

@@ -195,6 +195,70 @@ describe("amounts", () => {
   });
 });
 
+describe("the lot's assay (purities)", () => {
+  const koh = (purities?: Record<string, number>) =>
+    designBuffer({
+      targetPH: 7.0,
+      volume_mL: 1000,
+      reagents: ["potassium-dihydrogen-phosphate", "potassium-hydroxide"],
+      concentration_mM: 25,
+      basis: "first",
+      ...(purities ? { purities } : {}),
+    });
+  const mass = (r: ReturnType<typeof koh>, id: string) => r.components.find((c) => c.reagent === id)?.mass_g ?? Number.NaN;
+
+  it("weighs 1/0.85 of the pure mass of KOH for an 85 % lot (the review's case: pellets are about 85 % KOH)", () => {
+    const pure = koh({ "potassium-hydroxide": 1 });
+    const lot = koh({ "potassium-hydroxide": 0.85 });
+    expect(mass(lot, "potassium-hydroxide") / mass(pure, "potassium-hydroxide")).toBeCloseTo(1 / 0.85, 12);
+    // The amount of KOH, and so the pH, is unchanged: only what is weighed follows the assay.
+    expect(lot.components[1]?.amount_mol).toBeCloseTo(pure.components[1]?.amount_mol ?? 0, 15);
+    expect(lot.pH).toBeCloseTo(pure.pH, 12);
+    // The other reagent keeps its own (typical) assay.
+    expect(mass(lot, "potassium-dihydrogen-phosphate")).toBeCloseTo(mass(pure, "potassium-dihydrogen-phosphate"), 12);
+  });
+
+  it("uses the catalogue's typical assay when the lot has none (KOH 85 %, common practice)", () => {
+    expect(mass(koh(), "potassium-hydroxide")).toBeCloseTo(mass(koh({ "potassium-hydroxide": 0.85 }), "potassium-hydroxide"), 12);
+  });
+
+  it("measures less of an 88 % phosphoric acid than of the 85 % product, and warns that the 85 % density was used", () => {
+    const acid = (purities?: Record<string, number>, densities_g_mL?: Record<string, number>) =>
+      designBuffer({
+        targetPH: 2.5,
+        volume_mL: 1000,
+        reagents: ["potassium-dihydrogen-phosphate", "phosphoric-acid"],
+        concentration_mM: 20,
+        basis: "first",
+        ...(purities ? { purities } : {}),
+        ...(densities_g_mL ? { densities_g_mL } : {}),
+      });
+    const v = (r: ReturnType<typeof acid>) => r.components[1]?.volume_mL ?? Number.NaN;
+    const typical = acid();
+    const lot = acid({ "phosphoric-acid": 0.88 });
+    expect(v(lot) / v(typical)).toBeCloseTo(0.85 / 0.88, 12);
+    expect(lot.warnings.map((w) => w.code)).toContain("lot-density-assumed");
+    expect(typical.warnings.map((w) => w.code)).not.toContain("lot-density-assumed");
+    // With the lot's density (illustrative 1.71 g/mL at 20 °C) the mass of product is exactly n·M/assay.
+    const dense = acid({ "phosphoric-acid": 0.88 }, { "phosphoric-acid": 1.71 });
+    const n = dense.components[1]?.amount_mol ?? 0;
+    const rho25 = (1.71 * 1.685) / 1.69; // carried from 20 to 25 °C with the catalogue's slope
+    expect(v(dense) * rho25).toBeCloseTo((n * 97.994) / 0.88, 3);
+  });
+
+  it.each([[{ "potassium-hydroxide": 0 }], [{ "potassium-hydroxide": 1.01 }], [{ "potassium-hydroxide": -0.5 }]])(
+    "refuses the assay %j, naming the field",
+    (purities) => {
+      expect(() => koh(purities)).toThrow(ChemInputError);
+      try {
+        koh(purities);
+      } catch (e) {
+        expect((e as ChemInputError).field).toBe("purities.potassium-hydroxide");
+      }
+    },
+  );
+});
+
 describe("warnings and errors", () => {
   const codes = (input: DesignBufferInput) => designBuffer(input).warnings.map((w) => w.code);
 

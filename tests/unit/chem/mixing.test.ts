@@ -213,7 +213,7 @@ describe("2-propanol–water contraction (CRC density table)", () => {
 });
 
 describe("additives (per litre of the final mix)", () => {
-  it("0.1 % v/v formic acid is 1.22 g/L = 26.5 mmol/L at 20 °C (check-values §4 additive check, D, density 1.220)", () => {
+  it("0.1 % v/v formic acid is 1.22 g/L = 26.5 mmol/L of the final mix at 20 °C (check-values §4 additive check, D, density 1.220)", () => {
     const r = mixMobilePhase({
       total_mL: 1000,
       temperature_C: 20,
@@ -221,9 +221,49 @@ describe("additives (per litre of the final mix)", () => {
       additives: [{ reagent: "formic-acid", amount: 0.1, unit: "%v/v" }],
     });
     const fa = r.components.find((c) => c.reagent === "formic-acid");
-    expect(fa?.volume_mL).toBeCloseTo(1, 9);
-    expect((fa?.amount_mol ?? 0) * 1000).toBeCloseTo(26.5, 1);
-    expect(r.finalVolume_mL).toBeCloseTo(1001, 6);
+    // The acid's own millilitre is part of the final volume: 1000 mL of water + 1.001 mL of acid = 1001.001 mL, 0.1 % of it acid.
+    expect(r.finalVolume_mL).toBeCloseTo(1000 / 0.999, 9);
+    expect((fa?.volume_mL ?? 0) / r.finalVolume_mL).toBeCloseTo(0.001, 12);
+    expect(((fa?.amount_mol ?? 0) * 1000) / (r.finalVolume_mL / 1000)).toBeCloseTo(26.5, 1);
+  });
+
+  it("every additive ends at its nominal concentration in the final volume, whatever the mix of units (exact arithmetic)", () => {
+    // Before, amounts were worked out per litre of solvents and the additives then added their own volume, so each
+    // concentration came out low by the additives' volume share (here about 1.1 %).
+    const r = mixMobilePhase({
+      total_mL: 1000,
+      solvents: [
+        { reagent: "water", percent: 70 },
+        { reagent: "acetonitrile", percent: 30 },
+      ],
+      additives: [
+        { reagent: "acetic-acid", amount: 1, unit: "%v/v" },
+        { reagent: "trifluoroacetic-acid", amount: 0.1, unit: "mL/L" },
+        { reagent: "formic-acid", amount: 20, unit: "mM" },
+        { reagent: "phosphoric-acid", amount: 1, unit: "g/L" },
+        { reagent: "ammonium-formate", amount: 10, unit: "mM" },
+      ],
+    });
+    const L = r.finalVolume_mL / 1000;
+    const c = (id: string) => r.components.find((x) => x.reagent === id);
+    expect((c("acetic-acid")?.volume_mL ?? 0) / r.finalVolume_mL).toBeCloseTo(0.01, 12);
+    expect((c("trifluoroacetic-acid")?.volume_mL ?? 0) / L).toBeCloseTo(0.1, 12);
+    expect((c("formic-acid")?.amount_mol ?? 0) / L).toBeCloseTo(0.02, 12);
+    expect(((c("phosphoric-acid")?.amount_mol ?? 0) * (getReagent("phosphoric-acid")?.molarMass_g_mol ?? 0)) / L).toBeCloseTo(1, 12);
+    expect((c("ammonium-formate")?.amount_mol ?? 0) / L).toBeCloseTo(0.01, 12);
+    // The final volume is the contracted solvents plus every liquid's own volume (the salt adds none).
+    const liquids = ["acetic-acid", "trifluoroacetic-acid", "formic-acid", "phosphoric-acid"].reduce(
+      (a, id) => a + (c(id)?.volume_mL ?? 0),
+      0,
+    );
+    const solventsOnly = mixMobilePhase({
+      total_mL: 1000,
+      solvents: [
+        { reagent: "water", percent: 70 },
+        { reagent: "acetonitrile", percent: 30 },
+      ],
+    }).finalVolume_mL;
+    expect(r.finalVolume_mL).toBeCloseTo(solventsOnly + liquids, 9);
   });
 
   it.each([
@@ -260,8 +300,49 @@ describe("additives (per litre of the final mix)", () => {
       additives: [{ reagent: "phosphoric-acid", amount: 1, unit: "mL/L" }],
     });
     const c = r.components.find((x) => x.reagent === "phosphoric-acid");
-    // 1 mL × 1.685 g/mL × 0.85 / 97.994 g/mol = 14.6 mmol (hand calculation)
-    expect((c?.amount_mol ?? 0) * 1000).toBeCloseTo((1.685 * 0.85 * 1000) / 97.994, 2);
+    // 1 mL × 1.685 g/mL × 0.85 / 97.994 g/mol = 14.6 mmol per litre of the final mix (hand calculation)
+    expect(((c?.amount_mol ?? 0) * 1000) / (r.finalVolume_mL / 1000)).toBeCloseTo((1.685 * 0.85 * 1000) / 97.994, 2);
+  });
+
+  it("weighs the substance through the lot's assay: 1 g/L H3PO4 from an 88 % lot takes 85/88 of the 85 % product", () => {
+    const mix = (purities?: Record<string, number>, densities_g_mL?: Record<string, number>) =>
+      mixMobilePhase({
+        total_mL: 1000,
+        solvents: [{ reagent: "water", percent: 100 }],
+        additives: [{ reagent: "phosphoric-acid", amount: 1, unit: "g/L" }],
+        ...(purities ? { purities } : {}),
+        ...(densities_g_mL ? { densities_g_mL } : {}),
+      });
+    const typical = mix();
+    const lot = mix({ "phosphoric-acid": 0.88 });
+    const v = (r: ReturnType<typeof mix>) => r.components.find((x) => x.reagent === "phosphoric-acid")?.volume_mL ?? 0;
+    // Same density (none recorded for the lot): the volume scales with 0.85/0.88, and the form is told why it is approximate.
+    expect(v(lot) / v(typical)).toBeCloseTo(0.85 / 0.88, 4);
+    expect(lot.warnings.map((w) => w.code)).toContain("lot-density-assumed");
+    // With the certificate's density (88 % H3PO4 is denser, about 1.71 g/mL at 20 °C, illustrative) the volume uses it.
+    const withDensity = mix({ "phosphoric-acid": 0.88 }, { "phosphoric-acid": 1.71 });
+    expect(withDensity.warnings.map((w) => w.code)).not.toContain("lot-density-assumed");
+    // The certificate's 20 °C density is carried to 25 °C with the catalogue's slope (1.685/1.69).
+    const lotDensity25 = (1.71 * 1.685) / 1.69;
+    expect(v(withDensity) * lotDensity25 * 0.88).toBeCloseTo(withDensity.finalVolume_mL / 1000, 9);
+  });
+
+  it.each([
+    [{ "phosphoric-acid": 0 }, "purities.phosphoric-acid"],
+    [{ "phosphoric-acid": 1.2 }, "purities.phosphoric-acid"],
+    [{ "phosphoric-acid": Number.NaN }, "purities.phosphoric-acid"],
+  ])("refuses an assay of %j, naming the field", (purities, field) => {
+    try {
+      mixMobilePhase({
+        total_mL: 1000,
+        solvents: [{ reagent: "water", percent: 100 }],
+        additives: [{ reagent: "phosphoric-acid", amount: 1, unit: "g/L" }],
+        purities,
+      });
+      throw new Error("accepted");
+    } catch (e) {
+      expect((e as ChemInputError).field).toBe(field);
+    }
   });
 
   it("rejects a volume unit for a solid", () => {

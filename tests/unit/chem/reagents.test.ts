@@ -86,18 +86,21 @@ describe("catalogue", () => {
 });
 
 describe.each([
-  // [id, 20 °C, 25 °C, source]
-  ["methanol", 0.7915, 0.7866], // Merck Index methanol monograph, d20 and d25 (check-values §4, C)
-  ["tetrahydrofuran", 0.8892, 0.8833], // Merck Index (20 °C); Aminabhavi & Patil 1998 in the Montgomery handbook (25 °C) (check-values §4, C)
-  ["water", 0.998207, 0.997047], // Tanaka et al. 2001 formula (check-values §4, D)
+  // [id, 20 °C, 25 °C, tolerance at the temperature that is not the anchor]. The catalogue holds the 25 °C value and
+  // carries it with Perry's DIPPR 105 correlation, so 25 °C is exact and 20 °C tests the correlation's slope.
+  ["methanol", 0.7915, 0.7866, 0.0003], // Merck Index methanol monograph, d20 and d25 (check-values §4, C)
+  // Merck Index (20 °C); Aminabhavi & Patil 1998 in the Montgomery handbook (25 °C) (check-values §4, C): two sources,
+  // so their difference is less sure than the correlation's slope; 0.07 % apart.
+  ["tetrahydrofuran", 0.8892, 0.8833, 0.0008],
+  ["water", 0.998207, 0.997047, 0.00001], // Tanaka et al. 2001 formula (check-values §4, D)
   // ThermoML record of J. Chem. Thermodyn. doi:10.1016/j.jct.2006.01.015, pure acetonitrile 782.1 and 776.8 kg/m³
   // at 293.15 and 298.15 K (a solvent data page gives 0.782 at 20 °C)
-  ["acetonitrile", 0.7821, 0.7768],
-])("density of %s", (id, d20, d25) => {
+  ["acetonitrile", 0.7821, 0.7768, 0.0001],
+])("density of %s", (id, d20, d25, tol) => {
   it(`is ${d20} g/mL at 20 °C and ${d25} g/mL at 25 °C`, () => {
     const r = getReagent(id);
     if (r === undefined) throw new Error(id);
-    expect(reagentDensity(r, 20)).toBeCloseTo(d20, 4);
+    expect(Math.abs((reagentDensity(r, 20) ?? 0) - d20)).toBeLessThanOrEqual(tol);
     expect(reagentDensity(r, 25)).toBeCloseTo(d25, 4);
   });
 });

@@ -23,8 +23,8 @@ const CONTENT: LabelContent = {
   name: "25 mM potassium phosphate pH 2.5 / methanol 60:40",
   composition:
     "Water 60 % + methanol 40 % · 25 mM potassium dihydrogen phosphate with phosphoric acid 85 %, pH 2.50 at 25 °C (aqueous part) · measured pH 2.53",
-  prepared: "2026-12-03 08:30 UTC",
-  expires: "2026-12-10 08:30 UTC",
+  prepared: "2026-12-03 08:30 CET",
+  expires: "2026-12-10 08:30 CET",
   preparer: "Rowan Ellery",
   bottles: 3,
   storage: "2–8 °C, capped, in the flammables refrigerator",

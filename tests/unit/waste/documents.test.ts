@@ -54,7 +54,8 @@ describe("containerHazards", () => {
 
 const data: ReportData = {
   facility: "Test core",
-  generatedAt: "2026-12-01T10:00:00.000Z",
+  generatedAt: "2026-12-01T11:00:00+01:00",
+  timeZone: "Europe/Berlin",
   period: { from: "2026-11-01", to: "2026-11-30" },
   total_mL: 1500.5,
   streams: [{ stream: "non-halogenated-organic", name: "Non-halogenated organic", volume_mL: 1500.5 }],

@@ -69,9 +69,12 @@ export class SequelizeSessionAdapter implements Adapter {
   }
 }
 
+/**
+ * Lucia names the cookie and makes session ids; sessions.ts decides when a session ends (idle and
+ * absolute limits from the settings), so the cookie itself may outlive any session.
+ */
 export const lucia = new Lucia(new SequelizeSessionAdapter(), {
-  // Sessions last 12 hours and are extended while in use (lucia renews them past half-life).
-  sessionExpiresIn: new TimeSpan(12, "h"),
+  sessionExpiresIn: new TimeSpan(365, "d"),
   sessionCookie: {
     name: "decant_session",
     expires: true,

@@ -4,6 +4,7 @@ import { resetMail } from "../account-mail";
 import { recordAudit } from "../audit";
 import { lucia } from "../auth/lucia";
 import { hashPassword, verifyPassword } from "../auth/password";
+import { createSession } from "../auth/sessions";
 import { consumeToken, findUsableToken, issueToken, tokensIssuedSince } from "../auth/tokens";
 import { getSequelize } from "../db";
 import { HttpError } from "../http";
@@ -24,7 +25,11 @@ export const LINK_NOT_USABLE = "This link has expired or has already been used. 
  * Checks the current password, stores the new one and ends every session of the user (other
  * browsers included); returns a fresh session for the browser that asked.
  */
-export async function changePassword(userId: number, input: ChangePasswordInput, ctx: { ip: string | null }) {
+export async function changePassword(
+  userId: number,
+  input: ChangePasswordInput,
+  ctx: { ip: string | null; userAgent?: string | null; sharedBench?: boolean },
+) {
   const user = await User.findByPk(userId);
   if (!user || !user.active || !user.passwordHash) throw new HttpError(401, "Sign in first.");
   if (!(await verifyPassword(user.passwordHash, input.currentPassword))) {
@@ -35,7 +40,12 @@ export async function changePassword(userId: number, input: ChangePasswordInput,
   await user.update({ passwordHash: await hashPassword(input.newPassword) });
   await lucia.invalidateUserSessions(user.id);
   await recordAudit({ actorId: user.id, action: "password-changed", entity: "user", entityId: user.id, ip: ctx.ip });
-  return lucia.createSession(user.id, {});
+  return createSession(user.id, {
+    stage: "signed-in",
+    sharedBench: ctx.sharedBench ?? false,
+    ip: ctx.ip,
+    userAgent: ctx.userAgent ?? null,
+  });
 }
 
 /**

@@ -3,6 +3,7 @@
  * components and bottles (`/batches/:id`), the lookup by the code on a bottle, and the batches
  * about to expire (home page).
  */
+import type { AssayUsed } from "../../preparation/lot-assays";
 import { getReagent } from "../../chem";
 import type { Deviation } from "../../preparation/deviations";
 import { describeSpec } from "../../preparation/plan";
@@ -120,8 +121,10 @@ export async function getBatch(id: number, now = new Date()): Promise<BatchDetai
     actual_amount: number | null;
     stock_lot_id: number | null;
     lot_number: string | null;
+    assay_percent: number | null;
+    assay_source: AssayUsed["source"] | null;
   }>(
-    `SELECT c.reagent_id, c.role, c.unit, c.target_amount, c.actual_amount, c.stock_lot_id, l.lot_number
+    `SELECT c.reagent_id, c.role, c.unit, c.target_amount, c.actual_amount, c.stock_lot_id, l.lot_number, c.assay_percent, c.assay_source
        FROM batch_components c LEFT JOIN stock_lots l ON l.id = c.stock_lot_id WHERE c.batch_id = ? ORDER BY c.id`,
     { replacements: [id] },
   );
@@ -172,6 +175,7 @@ export async function getBatch(id: number, now = new Date()): Promise<BatchDetai
       actual: c.actual_amount,
       stockLotId: c.stock_lot_id,
       lotNumber: c.lot_number,
+      assay: c.assay_source === null || c.assay_percent === null ? null : { percent: c.assay_percent, source: c.assay_source },
     })),
     bottleList: bottles.map((b) => ({ number: b.number, status: b.status, discarded_mL: b.discarded_ml })),
   };

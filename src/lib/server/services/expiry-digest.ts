@@ -1,17 +1,18 @@
 // The daily e-mail to technicians listing the batches that expire within 24 hours.
-import { formatDateTime } from "../../format";
+import { formatInstant, localDay, wallClock } from "../../format";
 import { withJobLock } from "../job-lock";
 import { escapeHtml, publicOrigin, sendMail, type OutgoingMail } from "../mail";
 import { Setting } from "../models/audit";
 import { select } from "../query";
+import { getFacilitySettings } from "./facility-settings";
 
 const LAST_SENT_KEY = "digest.expiry.lastSentOn";
-/** The digest goes out on the first check of the day at or after this hour (UTC). */
-export const DIGEST_HOUR_UTC = 6;
+/** The digest goes out on the first check of the day at or after this hour, in the facility's zone. */
+export const DIGEST_HOUR_LOCAL = 6;
 
 export interface ExpiryDigestResult {
   ran: boolean;
-  /** Day (YYYY-MM-DD, UTC) the digest counts for, when it was sent. */
+  /** Local day (YYYY-MM-DD, the facility's zone) the digest counts for, when it was sent. */
   sentFor: string | null;
   batches: string[];
   recipients: string[];
@@ -33,9 +34,10 @@ export async function runExpiryDigest(
 ): Promise<ExpiryDigestResult> {
   const now = options.now ?? new Date();
   const send = options.send ?? sendMail;
-  const day = now.toISOString().slice(0, 10);
+  const facility = await getFacilitySettings();
+  const day = localDay(now, facility.timeZone);
   const nothing: ExpiryDigestResult = { ran: false, sentFor: null, batches: [], recipients: [] };
-  if (now.getUTCHours() < DIGEST_HOUR_UTC) return nothing;
+  if (wallClock(now, facility.timeZone).hour < DIGEST_HOUR_LOCAL) return nothing;
   const outcome = await withJobLock("expiry-digest", 5 * 60_000, async () => {
     const last = await Setting.findByPk(LAST_SENT_KEY);
     if (last?.value === day) return nothing;
@@ -49,7 +51,7 @@ export async function runExpiryDigest(
     const technicians = await select<{ email: string }>("SELECT email FROM users WHERE role = 'technician' AND active = 1 ORDER BY email");
     if (batches.length > 0) {
       const lines = batches.map(
-        (b) => `${b.code} · ${b.name} · expires ${formatDateTime(new Date(b.expires_at))} UTC · ${b.remaining_ml} mL left`,
+        (b) => `${b.code} · ${b.name} · expires ${formatInstant(new Date(b.expires_at), facility)} · ${b.remaining_ml} mL left`,
       );
       const link = `${publicOrigin()}/home`;
       const subject = `Decant: ${batches.length} batch${batches.length === 1 ? "" : "es"} expire${batches.length === 1 ? "s" : ""} within 24 hours`;

@@ -3,6 +3,7 @@ import { labelContentOf } from "../../labels/batch-label";
 import { renderLabels } from "../../labels/label-pdf";
 import { HttpError } from "../http";
 import { getBatch } from "./batches";
+import { getFacilitySettings } from "./facility-settings";
 import { getPreparationSettings } from "./preparation-settings";
 
 export async function batchLabels(
@@ -10,7 +11,7 @@ export async function batchLabels(
   options: { copies?: number | undefined; stock?: string | undefined; bottle?: number | undefined },
 ) {
   const batch = await getBatch(batchId);
-  const settings = await getPreparationSettings();
+  const [settings, facility] = await Promise.all([getPreparationSettings(), getFacilitySettings()]);
   const stockId = options.stock ?? settings.defaultLabelStockId;
   const stock = settings.labelStocks.find((s) => s.id === stockId);
   if (!stock) throw new HttpError(400, `stock: no label stock "${stockId}"; one of ${settings.labelStocks.map((s) => s.id).join(", ")}`);
@@ -18,7 +19,7 @@ export async function batchLabels(
     throw new HttpError(400, `bottle: batch ${batch.code} has ${batch.bottles} bottle(s)`);
   const copies = options.copies ?? (options.bottle !== undefined ? 1 : batch.bottles);
   const rendered = await renderLabels({
-    content: labelContentOf(batch),
+    content: labelContentOf(batch, facility.timeZone),
     stock,
     copies,
     bottle: options.bottle,

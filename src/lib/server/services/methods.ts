@@ -10,6 +10,7 @@ import type { SignedInUser } from "../guard";
 import { HttpError } from "../http";
 import { Method } from "../models/ledger";
 import { jsonColumn, select, selectOne } from "../query";
+import { ensureFirstVersion, recordEditedVersion } from "./planning/method-history";
 import { inTransaction } from "./sql";
 
 interface MethodRow {
@@ -93,8 +94,10 @@ export async function updateMethod(id: number, input: MethodInput, actor: Signed
     const method = await Method.findByPk(id, { transaction, lock: transaction.LOCK.UPDATE });
     if (!method) throw new HttpError(404, `id: no method ${id}`);
     const before = { name: method.name, program: method.program, reEquilibrationMin: method.reEquilibrationMin };
+    await ensureFirstVersion(id, transaction);
     method.set(toColumns(input));
     await method.save({ transaction }).catch((e: unknown) => duplicateName(e, input.name));
+    if (JSON.stringify(before.program) !== JSON.stringify(method.program)) await recordEditedVersion(id, actor.id, transaction);
     await recordAudit(
       { actorId: actor.id, action: "method.update", entity: "method", entityId: id, before, after: toColumns(input) },
       transaction,

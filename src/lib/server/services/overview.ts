@@ -1,5 +1,7 @@
 /** The home page's figures: each role's first few, recent volume per project and the live waste containers. */
 import { select } from "../query";
+import { localDay } from "../../format";
+import { getFacilitySettings } from "./facility-settings";
 import { usageByProject } from "./usage";
 import { listContainers } from "./waste/containers";
 
@@ -92,7 +94,9 @@ export async function benchFigures(now = new Date()) {
 
 /** A manager's first look: this month's use and what it costs so far (not on a statement yet), and overdue invoices. */
 export async function managerFigures(now = new Date()) {
-  const today = now.toISOString().slice(0, 10);
+  // The facility's month: ledger_daily and usage periods count its local days.
+  const { timeZone } = await getFacilitySettings();
+  const today = localDay(now, timeZone);
   const monthStart = `${today.slice(0, 8)}01`;
   const [volume] = await select<{ v: number | null }>("SELECT SUM(volume_ml) AS v FROM ledger_daily WHERE day >= :from AND day <= :to", {
     replacements: { from: monthStart, to: today },

@@ -11,6 +11,7 @@ import type { NewLedgerEntry } from "../../ledger/types";
 import { batchCodeBase, nextBatchCode } from "../../preparation/batch-code";
 import { findDeviations, type Deviation } from "../../preparation/deviations";
 import { batchExpiry, lotExpired } from "../../preparation/expiry";
+import { assayUsed, lotChemistry } from "../../preparation/lot-assays";
 import { preparationPlan, type PlannedComponent } from "../../preparation/plan";
 import type { RecordedBatch } from "../../preparation/types";
 import type { BatchCreateInput } from "../../schemas/preparation";
@@ -69,6 +70,25 @@ async function checkBatch(input: BatchCreateInput, now: Date, transaction: Trans
   if (!version.approved)
     throw new HttpError(409, `recipeVersionId: ${version.code} v${version.version} is not approved yet; a manager approves it first`);
 
+  // The lots come first: their assays set the amounts to weigh.
+  const lots = await getStockLots(
+    input.components.map((c) => c.stockLotId),
+    now,
+    transaction,
+  );
+  const picked = input.components.map((c) => {
+    const lot = lots.get(c.stockLotId);
+    return lot && lot.reagent === c.reagent ? lot : undefined;
+  });
+  picked.forEach((lot, i) => {
+    const other = picked.findIndex(
+      (l) => l !== undefined && lot !== undefined && l.reagent === lot.reagent && l.assayPercent !== lot.assayPercent,
+    );
+    if (lot && other >= 0 && other < i) {
+      const message = `Use one lot of ${lot.reagentName} for the batch, or lots with the same assay: its assay sets the amounts`;
+      throw new HttpError(400, `components.${i}.stockLotId: ${message}`, { fields: { [`components.${i}.stockLotId`]: message } });
+    }
+  });
   let plan;
   try {
     plan = preparationPlan({
@@ -76,18 +96,13 @@ async function checkBatch(input: BatchCreateInput, now: Date, transaction: Trans
       volume_mL: input.volume_mL,
       temperature_C: input.temperature_C,
       detection_nm: version.detection_nm,
+      ...lotChemistry(picked),
     });
   } catch (error) {
     if (error instanceof ChemInputError) throw new HttpError(400, `${error.field ?? "recipe"}: ${error.message}`);
     throw error;
   }
   const pairs = pairComponents(plan.components, input.components);
-
-  const lots = await getStockLots(
-    pairs.map((p) => p.given.stockLotId),
-    now,
-    transaction,
-  );
   for (const { planned, given, index } of pairs) {
     const field = `components.${index}.stockLotId`;
     const lot = lots.get(given.stockLotId);
@@ -156,7 +171,7 @@ async function checkBatch(input: BatchCreateInput, now: Date, transaction: Trans
     storage: version.storage,
     kind: plan.kind,
   };
-  return { pairs, deviations, reason, room, expiry, snapshot };
+  return { pairs, lots, deviations, reason, room, expiry, snapshot };
 }
 
 export async function recordBatch(
@@ -166,7 +181,7 @@ export async function recordBatch(
   now = new Date(),
 ): Promise<RecordedBatch> {
   const { value: batchId, replayed } = await withIdempotencyKey("batch", input.idempotencyKey, async (transaction) => {
-    const { pairs, deviations, reason, room, expiry, snapshot } = await checkBatch(input, now, transaction);
+    const { pairs, lots, deviations, reason, room, expiry, snapshot } = await checkBatch(input, now, transaction);
     const batchId = await insertBatch({ ...input, room: room ?? undefined }, snapshot, expiry, deviations, reason, actor, now, transaction);
     await ensureCatalogueRows(
       pairs.map((p) => p.planned.reagent),
@@ -175,8 +190,10 @@ export async function recordBatch(
     const ledger: NewLedgerEntry[] = [];
     for (const { planned, given } of pairs) {
       const actual = given.actualAmount ?? planned.target;
+      const assay = assayUsed(planned.reagent, planned.role, lots.get(given.stockLotId));
       await execute(
-        "INSERT INTO batch_components (batch_id, reagent_id, stock_lot_id, role, unit, target_amount, actual_amount) VALUES (?, ?, ?, ?, ?, ?, ?)",
+        `INSERT INTO batch_components (batch_id, reagent_id, stock_lot_id, role, unit, target_amount, actual_amount, assay_percent, assay_source)
+         VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?)`,
         {
           replacements: [
             batchId,
@@ -186,6 +203,8 @@ export async function recordBatch(
             planned.unit,
             planned.target.toFixed(5),
             given.actualAmount == null ? null : given.actualAmount.toFixed(5),
+            assay ? assay.percent.toFixed(3) : null,
+            assay?.source ?? null,
           ],
           transaction,
         },

@@ -28,6 +28,8 @@ interface LotRow {
   quantity: number;
   remaining: number;
   room: string | null;
+  assay_percent: number | null;
+  density_g_ml: number | null;
   certificate_path: string | null;
   certificate_name: string | null;
   reorder_level: number | null;
@@ -57,6 +59,8 @@ function summarise(row: LotRow, now: Date): StockLotSummary {
     quantity,
     remaining,
     room: row.room,
+    assayPercent: row.assay_percent,
+    density_g_mL: row.density_g_ml,
     hasCertificate: row.certificate_path !== null,
     certificateName: row.certificate_name,
     expired,
@@ -66,7 +70,7 @@ function summarise(row: LotRow, now: Date): StockLotSummary {
 }
 
 const SELECT = `SELECT l.id, l.reagent_id, l.lot_number, l.supplier, l.grade, l.received_on, l.opened_on, l.expires_on, l.quantity, l.remaining, l.room,
-                       l.certificate_path, l.certificate_name, r.reorder_level, r.unit
+                       l.assay_percent, l.density_g_ml, l.certificate_path, l.certificate_name, r.reorder_level, r.unit
                   FROM stock_lots l LEFT JOIN reagents r ON r.id = l.reagent_id`;
 
 export async function listStockLots(
@@ -116,8 +120,8 @@ export async function createStockLot(
       await ensureCatalogueRows([input.reagent], transaction);
       ({ insertId: id } = await execute(
         `INSERT INTO stock_lots (reagent_id, lot_number, supplier, grade, received_on, opened_on, expires_on, quantity, remaining, room,
-                                 certificate_path, certificate_name, certificate_type, certificate_size, created_by, created_at, updated_at)
-         VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, NOW(3), NOW(3))`,
+                                 assay_percent, density_g_ml, certificate_path, certificate_name, certificate_type, certificate_size, created_by, created_at, updated_at)
+         VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, NOW(3), NOW(3))`,
         {
           transaction,
           replacements: [
@@ -131,6 +135,8 @@ export async function createStockLot(
             input.quantity,
             input.remaining ?? input.quantity,
             input.room ?? null,
+            input.assayPercent ?? null,
+            input.density_g_mL ?? null,
             stored?.key ?? null,
             certificate ? certificate.name.slice(0, 255) : null,
             stored?.mime ?? null,

@@ -11,29 +11,41 @@
 import { costLines, toMicro, type CostLine, type PriceList, type Rate } from "../../billing/rates";
 import type { GroupedBy, GroupedUsageAnswer, GroupedUsageRow } from "../../ledger/types";
 import type { UsageQuery } from "../../schemas/usage";
+import { startOfLocalDay } from "../../format";
+import { periodBounds } from "../../ledger/period";
 import { select } from "../query";
-import { loadRates, periodBounds } from "./usage";
+import { getFacilitySettings } from "./facility-settings";
+import { loadRates } from "./usage";
 
 export const NONE = "none";
+
+/** A stored UTC instant as the facility's wall clock: the offset in force then (facility_utc_offsets, one PK read). */
+const localTime = (column: string) =>
+  `(${column} + INTERVAL COALESCE((SELECT o.offset_minutes FROM facility_utc_offsets o WHERE o.starts_at <= ${column} ORDER BY o.starts_at DESC LIMIT 1), 0) MINUTE)`;
 
 const GROUP_KEY: Record<GroupedBy | "project", { key: string; label: string }> = {
   project: { key: "l.project_id", label: "p.code" },
   client: { key: "p.client_id", label: "c.name" },
   instrument: { key: "r.instrument_id", label: "i.name" },
   reagent: { key: "l.reagent_id", label: "rg.name" },
-  month: { key: "DATE_FORMAT(l.occurred_at, '%Y-%m')", label: "DATE_FORMAT(l.occurred_at, '%Y-%m')" },
+  month: { key: `DATE_FORMAT(${localTime("l.occurred_at")}, '%Y-%m')`, label: `DATE_FORMAT(${localTime("l.occurred_at")}, '%Y-%m')` },
 };
 
 const round = (v: number, digits: number) => Math.round(v * 10 ** digits) / 10 ** digits;
 const dayOf = (v: string | Date) => (typeof v === "string" ? v.slice(0, 10) : v.toISOString().slice(0, 10));
 
-/** Days on which a rate starts split the period, so each (group, project, reagent, segment) sum has one rate in force. */
-function segmentSql(rates: readonly Rate[], from: string, to: string): { sql: string; replacements: Record<string, string> } {
+/** Days on which a rate starts (local midnight) split the period, so each (group, project, reagent, segment) sum has one rate in force. */
+function segmentSql(
+  rates: readonly Rate[],
+  from: string,
+  to: string,
+  timeZone: string,
+): { sql: string; replacements: Record<string, Date> } {
   const cuts = [...new Set(rates.map((r) => r.effectiveFrom))].filter((d) => d > from && d <= to).sort();
-  const replacements: Record<string, string> = {};
+  const replacements: Record<string, Date> = {};
   if (cuts.length === 0) return { sql: "", replacements };
   const whens = cuts.map((cut, i) => {
-    replacements[`segCut${i}`] = cut;
+    replacements[`segCut${i}`] = startOfLocalDay(cut, timeZone);
     return `WHEN l.occurred_at < :segCut${i} THEN ${i}`;
   });
   return { sql: `, CASE ${whens.join(" ")} ELSE ${cuts.length} END`, replacements };
@@ -43,7 +55,7 @@ function segmentSql(rates: readonly Rate[], from: string, to: string): { sql: st
 export const groupedSumsSql = (groupBy: GroupedBy | "project", segment: string) => {
   const g = GROUP_KEY[groupBy];
   return `SELECT ${g.key} AS group_key, MAX(${g.label}) AS group_label, l.project_id, l.reagent_id, rc.code AS recipe_code, MAX(rc.name) AS recipe_name,
-          MIN(DATE(l.occurred_at)) AS at, SUM(l.volume_ml) AS volume, SUM(l.mass_g) AS mass
+          MIN(DATE(${localTime("l.occurred_at")})) AS at, SUM(l.volume_ml) AS volume, SUM(l.mass_g) AS mass
      FROM ledger_entries l
      JOIN projects p ON p.id = l.project_id
      JOIN clients c ON c.id = p.client_id
@@ -70,9 +82,15 @@ interface SumRow {
   mass: number | null;
 }
 
-async function sums(groupBy: GroupedBy | "project", query: UsageQuery, clientId: number | null, rates: readonly Rate[]): Promise<SumRow[]> {
-  const [start, end] = periodBounds(query.from, query.to);
-  const segment = segmentSql(rates, query.from, query.to);
+async function sums(
+  groupBy: GroupedBy | "project",
+  query: UsageQuery,
+  clientId: number | null,
+  rates: readonly Rate[],
+  timeZone: string,
+): Promise<SumRow[]> {
+  const [start, end] = periodBounds(query.from, query.to, timeZone);
+  const segment = segmentSql(rates, query.from, query.to, timeZone);
   return select<SumRow>(groupedSumsSql(groupBy, segment.sql), { replacements: { ...segment.replacements, start, end, clientId } });
 }
 
@@ -90,17 +108,18 @@ export async function usageGrouped(
   scope: { clientId: number | null },
 ): Promise<GroupedUsageAnswer> {
   const groupBy = query.groupBy;
-  const [start, end] = periodBounds(query.from, query.to);
+  const { timeZone } = await getFacilitySettings();
+  const [start, end] = periodBounds(query.from, query.to, timeZone);
   const runKey: Record<GroupedBy, string | null> = {
     client: "p.client_id",
     instrument: "r.instrument_id",
-    month: "DATE_FORMAT(r.started_at, '%Y-%m')",
+    month: `DATE_FORMAT(${localTime("r.started_at")}, '%Y-%m')`,
     reagent: null,
   };
   const runSql = runKey[groupBy];
   const rates = await loadRates();
   const [rows, projects, runs] = await Promise.all([
-    sums(groupBy, query, scope.clientId, rates),
+    sums(groupBy, query, scope.clientId, rates, timeZone),
     select<{ id: number; kind: PriceList; currency: string }>(
       "SELECT p.id, c.kind, c.currency FROM projects p JOIN clients c ON c.id = p.client_id WHERE (:clientId IS NULL OR p.client_id = :clientId)",
       { replacements: { clientId: scope.clientId } },
@@ -184,7 +203,8 @@ export async function mobilePhasesByProject(
   query: UsageQuery,
   scope: { clientId: number | null },
 ): Promise<{ byProject: Map<string, Record<string, number>>; mobilePhases: Record<string, string> }> {
-  const rows = await sums("project", query, scope.clientId, []);
+  const { timeZone } = await getFacilitySettings();
+  const rows = await sums("project", query, scope.clientId, [], timeZone);
   const totals = new Map<string, Map<string, bigint>>();
   const mobilePhases: Record<string, string> = {};
   for (const s of rows) {

@@ -6,17 +6,11 @@
 import { costLines, toMicro, type CostLine, type PriceList, type Rate } from "../../billing/rates";
 import type { UsageAnswer, UsageRow } from "../../ledger/types";
 import type { UsageQuery } from "../../schemas/usage";
+import { periodBounds } from "../../ledger/period";
 import { select } from "../query";
+import { getFacilitySettings } from "./facility-settings";
 
 const round = (v: number, digits: number) => Math.round(v * 10 ** digits) / 10 ** digits;
-
-/** Half-open UTC bounds of a period whose `from` and `to` days are both included. */
-export function periodBounds(from: string, to: string): [Date, Date] {
-  const start = new Date(`${from}T00:00:00.000Z`);
-  const end = new Date(`${to}T00:00:00.000Z`);
-  end.setUTCDate(end.getUTCDate() + 1);
-  return [start, end];
-}
 
 /** All rates (a small table), in the pure module's shape. */
 export async function loadRates(): Promise<Rate[]> {
@@ -77,7 +71,9 @@ export const usageSumsSql = (segmentSql: string) =>
  * the cost is exactly what costing each entry on its own day would give, from a few hundred rows.
  */
 export async function usageByProject(query: UsageQuery, scope: { clientId: number | null }): Promise<UsageAnswer> {
-  const [start, end] = periodBounds(query.from, query.to);
+  // ledger_daily holds the facility's local days; the runs are counted over the same local days.
+  const { timeZone } = await getFacilitySettings();
+  const [start, end] = periodBounds(query.from, query.to, timeZone);
   const replacements = { start, end, clientId: scope.clientId };
   // The rates decide the segments, so they come first; the other reads run alongside.
   const ratesAndSums = loadRates().then(async (rates) => {

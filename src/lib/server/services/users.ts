@@ -8,6 +8,7 @@ import { recordAudit } from "../audit";
 import { lucia } from "../auth/lucia";
 import { issueToken } from "../auth/tokens";
 import { getSequelize } from "../db";
+import { withTwoFactor } from "../auth/two-factor";
 import { HttpError } from "../http";
 import { sendMail } from "../mail";
 import { User } from "../models/auth";
@@ -48,7 +49,8 @@ async function clientNames(): Promise<Map<number, string>> {
 /** Every account, by name. Password hashes never leave this module. */
 export async function listUsers(): Promise<UserRow[]> {
   const [users, names] = await Promise.all([User.findAll({ order: [["name", "ASC"]] }), clientNames()]);
-  return users.map((u) => toRow(u, names));
+  const twoFactor = await withTwoFactor(users.map((u) => u.id));
+  return users.map((u) => ({ ...toRow(u, names), twoFactor: twoFactor.has(u.id) }));
 }
 
 async function requireClient(clientId: number | null | undefined): Promise<number> {

@@ -8,7 +8,8 @@ import { changePassword } from "../../../lib/server/services/account";
 export const POST = endpoint(async ({ locals, request, cookies, url, clientAddress }) => {
   const user = requirePermission(locals, "update:own-account");
   const input = await readJson(request, changePasswordSchema);
-  const session = await changePassword(user.id, input, { ip: clientAddress });
-  setSessionCookieFor(cookies, session.id, url, request);
+  const sharedBench = locals.session?.sharedBench ?? false;
+  const session = await changePassword(user.id, input, { ip: clientAddress, userAgent: request.headers.get("user-agent"), sharedBench });
+  setSessionCookieFor(cookies, session.id, url, request, { sharedBench });
   return new Response(null, { status: 204 });
 });

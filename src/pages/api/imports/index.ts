@@ -3,6 +3,7 @@ import { importQuery } from "../../../lib/schemas/imports";
 import { endpoint, requirePermission } from "../../../lib/server/guard";
 import { HttpError, json, queryOf, readBodyBytes, validate } from "../../../lib/server/http";
 import { checkRunLog, commitRunLog, listImports } from "../../../lib/server/services/imports";
+import { takeToken } from "../../../lib/server/rate-limit";
 import { detectType } from "../../../lib/server/storage";
 
 export const GET = endpoint(async ({ locals }) => {
@@ -45,6 +46,7 @@ function decodeRunLog(bytes: Uint8Array): string {
 
 export const POST = endpoint(async ({ locals, request, url, clientAddress }) => {
   const user = requirePermission(locals, "create:import");
+  await takeToken(user.id, "import");
   const { mode, fileName } = validate(queryOf(url), importQuery);
   const type = (request.headers.get("content-type") ?? "").toLowerCase();
   if (!/^(text\/(csv|plain)|application\/(vnd\.ms-excel|octet-stream))/.test(type))

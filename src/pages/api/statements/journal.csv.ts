@@ -1,11 +1,13 @@
 import { journalQuery } from "../../../lib/schemas/billing";
 import { endpoint, requirePermission } from "../../../lib/server/guard";
 import { queryOf, validate } from "../../../lib/server/http";
+import { takeToken } from "../../../lib/server/rate-limit";
 import { chargebackJournal } from "../../../lib/server/services/billing/documents";
 
 /** The chargeback journal (cost centre, project code, amount) of the issued internal statements in `from`–`to`. */
 export const GET = endpoint(async ({ locals, url }) => {
-  requirePermission(locals, "manage:statement");
+  const user = requirePermission(locals, "manage:statement");
+  await takeToken(user.id, "export");
   const { from, to } = validate(queryOf(url), journalQuery);
   const { text, fileName, statements } = await chargebackJournal(from, to);
   return new Response(text, {

@@ -1,13 +1,16 @@
 import { wasteReportQuery } from "../../../lib/schemas/waste";
 import { endpoint, requirePermission } from "../../../lib/server/guard";
 import { json, queryOf, validate } from "../../../lib/server/http";
+import { takeToken } from "../../../lib/server/rate-limit";
 import { wasteReportData } from "../../../lib/server/services/waste/documents";
 import { reportCsv, reportPdf } from "../../../lib/waste/report";
 
 /** The waste report of a period as JSON, CSV or PDF. */
 export const GET = endpoint(async ({ locals, url }) => {
-  requirePermission(locals, "read:waste");
+  const user = requirePermission(locals, "read:waste");
   const { from, to, format } = validate(queryOf(url), wasteReportQuery);
+  // The files are exports; the JSON is what the waste page itself shows.
+  if (format === "csv" || format === "pdf") await takeToken(user.id, "export");
   const data = await wasteReportData({ from, to });
   const name = `decant-waste-${from}-to-${to}`;
   if (format === "csv") {

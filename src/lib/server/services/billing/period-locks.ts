@@ -4,10 +4,13 @@
  */
 import { Op, type Transaction } from "sequelize";
 import { nextDay } from "../../../billing/statement";
+import { localDay, startOfLocalDay } from "../../../format";
 import { PeriodLock } from "../../models/billing";
 import { Project } from "../../models/organisation";
+import { getFacilitySettings } from "../facility-settings";
 
-const dayOf = (date: Date | string) => (typeof date === "string" ? date.slice(0, 10) : date.toISOString().slice(0, 10));
+/** A day as given, an instant as its local day in the facility's zone (periods are local days). */
+const dayOf = (date: Date | string, timeZone: string) => (typeof date === "string" ? date.slice(0, 10) : localDay(date, timeZone));
 
 /** The client's lock covering that day, the one that ends last when several do. */
 const lockCovering = (clientId: number, day: string, transaction?: Transaction) =>
@@ -19,7 +22,8 @@ const lockCovering = (clientId: number, day: string, transaction?: Transaction) 
 
 /** True when the client's statement covering that day has been issued (or invoiced). */
 export async function isPeriodLocked(clientId: number, date: Date | string, transaction?: Transaction): Promise<boolean> {
-  return (await lockCovering(clientId, dayOf(date), transaction)) !== null;
+  const { timeZone } = await getFacilitySettings(transaction);
+  return (await lockCovering(clientId, dayOf(date, timeZone), transaction)) !== null;
 }
 
 /**
@@ -29,10 +33,11 @@ export async function isPeriodLocked(clientId: number, date: Date | string, tran
  */
 export async function openDateFor(clientId: number, date: Date, transaction?: Transaction): Promise<Date> {
   let at = date;
+  const { timeZone } = await getFacilitySettings(transaction);
   for (let guard = 0; guard < 1000; guard++) {
-    const lock = await lockCovering(clientId, dayOf(at), transaction);
+    const lock = await lockCovering(clientId, dayOf(at, timeZone), transaction);
     if (!lock) return at;
-    at = new Date(`${nextDay(String(lock.periodEnd))}T00:00:00.000Z`);
+    at = startOfLocalDay(nextDay(String(lock.periodEnd)), timeZone);
   }
   throw new Error("openDateFor: period locks form a loop");
 }

@@ -4,10 +4,12 @@
  * force on each day. Drafts, the period overview and issuing all compute through here.
  */
 import type { Transaction } from "sequelize";
-import { buildStatement, nextDay, type CountRow, type StatementComputation, type UsageRow } from "../../../billing/statement";
+import { periodBounds } from "../../../ledger/period";
+import { buildStatement, type CountRow, type StatementComputation, type UsageRow } from "../../../billing/statement";
 import { HttpError } from "../../http";
 import { Client } from "../../models/organisation";
 import { select } from "../../query";
+import { getFacilitySettings } from "../facility-settings";
 import { loadRates } from "./rates";
 
 interface UsageSumRow {
@@ -29,13 +31,19 @@ interface CountSumRow {
   count: number;
 }
 
+// Days are the facility's local days: the offset in force at each instant (facility_utc_offsets).
+const LOCAL_OCCURRED =
+  "(le.occurred_at + INTERVAL COALESCE((SELECT o.offset_minutes FROM facility_utc_offsets o WHERE o.starts_at <= le.occurred_at ORDER BY o.starts_at DESC LIMIT 1), 0) MINUTE)";
+const LOCAL_STARTED =
+  "(ru.started_at + INTERVAL COALESCE((SELECT o.offset_minutes FROM facility_utc_offsets o WHERE o.starts_at <= ru.started_at ORDER BY o.starts_at DESC LIMIT 1), 0) MINUTE)";
+
 const USAGE_SUMS = `
   SELECT u.project_code, u.project_name, u.reagent_id, u.reagent_name, u.grade, u.day,
          SUM(u.volume_ml) AS volume_ml, SUM(u.mass_g) AS mass_g
     FROM (SELECT p.code AS project_code, p.name AS project_name, le.reagent_id, r.name AS reagent_name,
                  (SELECT sl.grade FROM batch_components bc JOIN stock_lots sl ON sl.id = bc.stock_lot_id
                    WHERE bc.batch_id = le.batch_id AND bc.reagent_id = le.reagent_id ORDER BY bc.id LIMIT 1) AS grade,
-                 DATE_FORMAT(le.occurred_at, '%Y-%m-%d') AS day, le.volume_ml, le.mass_g
+                 DATE_FORMAT(${LOCAL_OCCURRED}, '%Y-%m-%d') AS day, le.volume_ml, le.mass_g
             FROM ledger_entries le
             JOIN projects p ON p.id = le.project_id
             JOIN reagents r ON r.id = le.reagent_id
@@ -44,7 +52,7 @@ const USAGE_SUMS = `
    GROUP BY u.project_code, u.project_name, u.reagent_id, u.reagent_name, u.grade, u.day`;
 
 const INJECTION_SUMS = `
-  SELECT p.code AS project_code, p.name AS project_name, DATE_FORMAT(ru.started_at, '%Y-%m-%d') AS day, SUM(ru.injections) AS count
+  SELECT p.code AS project_code, p.name AS project_name, DATE_FORMAT(${LOCAL_STARTED}, '%Y-%m-%d') AS day, SUM(ru.injections) AS count
     FROM runs ru JOIN projects p ON p.id = ru.project_id
    WHERE p.client_id = :clientId AND ru.started_at >= :start AND ru.started_at < :end
    GROUP BY p.code, p.name, day`;
@@ -52,11 +60,11 @@ const INJECTION_SUMS = `
 // A batch prepared for a project carries one preparation fee, on the day it was made.
 const PREPARATION_COUNTS = `
   SELECT b.project_code, b.project_name, b.day, COUNT(*) AS count FROM (
-    SELECT p.code AS project_code, p.name AS project_name, le.batch_id, DATE_FORMAT(MIN(le.occurred_at), '%Y-%m-%d') AS day
+    SELECT p.code AS project_code, p.name AS project_name, le.batch_id, DATE_FORMAT(MIN(${LOCAL_OCCURRED}), '%Y-%m-%d') AS day
       FROM ledger_entries le JOIN projects p ON p.id = le.project_id
      WHERE p.client_id = :clientId AND le.kind = 'preparation' AND le.batch_id IS NOT NULL
      GROUP BY p.code, p.name, le.batch_id) b
-   WHERE b.day >= :start AND b.day < :end
+   WHERE b.day >= :startDay AND b.day <= :endDay
    GROUP BY b.project_code, b.project_name, b.day`;
 
 const counts = (rows: CountSumRow[]): CountRow[] =>
@@ -72,7 +80,9 @@ export async function computeStatement(
   const client = await Client.findByPk(clientId, { transaction });
   if (!client) throw new HttpError(404, `clientId: no client ${clientId}`);
   // Summed by the database per day: rates change at most daily.
-  const options = { replacements: { clientId, start: periodStart, end: nextDay(periodEnd) }, transaction };
+  const { timeZone } = await getFacilitySettings(transaction);
+  const [start, end] = periodBounds(periodStart, periodEnd, timeZone);
+  const options = { replacements: { clientId, start, end, startDay: periodStart, endDay: periodEnd }, transaction };
   const usage: UsageRow[] = (await select<UsageSumRow>(USAGE_SUMS, options)).map((u) => ({
     projectCode: u.project_code,
     projectName: u.project_name,

@@ -10,6 +10,8 @@ import { getContainer, listContainers } from "./containers";
 import { flammablesByRoom } from "./flammables";
 import { containerHistory } from "./readings";
 import { wasteReport } from "./totals";
+import { isoWithOffset } from "../../../format";
+import { getFacilitySettings } from "../facility-settings";
 
 async function facilityName(): Promise<string> {
   const row = await Setting.findByPk("facility.name");
@@ -18,15 +20,17 @@ async function facilityName(): Promise<string> {
 
 /** Everything the CSV and PDF report of a period show. */
 export async function wasteReportData(period: Period, now = new Date()): Promise<ReportData> {
-  const [report, containers, flammables, facility] = await Promise.all([
+  const [report, containers, flammables, facility, { timeZone }] = await Promise.all([
     wasteReport(period),
     listContainers({ now }),
     flammablesByRoom(now),
     facilityName(),
+    getFacilitySettings(),
   ]);
   return {
     facility,
-    generatedAt: now.toISOString(),
+    generatedAt: isoWithOffset(now, timeZone),
+    timeZone,
     period,
     total_mL: report.total_mL,
     streams: report.streams,

@@ -1,9 +1,11 @@
 // The period totals the safety officer reviews (/waste, /api/waste/summary) and the waste on hand now.
-import { periodBounds, type Period } from "../../../waste/period";
+import { periodBounds } from "../../../ledger/period";
+import type { Period } from "../../../waste/period";
 import { onHandFrom, summaryFrom, UNASSIGNED_STREAM, wasteReportFrom, type StreamSum } from "../../../waste/totals";
 import type { WasteOnHand, WasteReport, WasteSummary } from "../../../waste/types";
 import { WasteStream } from "../../models/waste";
 import { select } from "../../query";
+import { getFacilitySettings } from "../facility-settings";
 import { listContainers } from "./containers";
 
 // What reaches waste: runs, discards and draws, and the corrections that reverse one of them.
@@ -20,7 +22,9 @@ const STREAM_OF = `COALESCE(l.waste_stream_id, rev.waste_stream_id, '${UNASSIGNE
  * (column → SQL expression), `joins` the tables they come from.
  */
 async function streamSums<Key extends object = object>(period: Period, by: Record<string, string> = {}, joins = "") {
-  const { start, end } = periodBounds(period);
+  // The facility's local days (a month is its local month).
+  const { timeZone } = await getFacilitySettings();
+  const [start, end] = periodBounds(period.from, period.to, timeZone);
   const columns = Object.entries(by).map(([name, sql]) => `${sql} AS ${name}, `);
   const groupBy = [...Object.values(by), STREAM_OF].join(", ");
   return select<Key & StreamSum>(
@@ -56,7 +60,10 @@ export async function wasteReport(period: Period): Promise<WasteReport> {
       { code: "p.code", name: "p.name" },
       "LEFT JOIN projects p ON p.id = l.project_id",
     ),
-    streamSums<{ month: string }>(period, { month: "DATE_FORMAT(l.occurred_at, '%Y-%m')" }),
+    streamSums<{ month: string }>(period, {
+      month:
+        "DATE_FORMAT(l.occurred_at + INTERVAL COALESCE((SELECT o.offset_minutes FROM facility_utc_offsets o WHERE o.starts_at <= l.occurred_at ORDER BY o.starts_at DESC LIMIT 1), 0) MINUTE, '%Y-%m')",
+    }),
   ]);
   const streamNames = new Map(streams.map((s) => [s.id, s.name]));
   return wasteReportFrom({ period, summary, streamNames, byRoom, byProject, byMonth });

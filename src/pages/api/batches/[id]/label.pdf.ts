@@ -2,11 +2,13 @@ import { labelQuery } from "../../../../lib/schemas/labels";
 import { idParam } from "../../../../lib/schemas/fields";
 import { endpoint, requirePermission } from "../../../../lib/server/guard";
 import { queryOf, validate } from "../../../../lib/server/http";
+import { takeToken } from "../../../../lib/server/rate-limit";
 import { batchLabels } from "../../../../lib/server/services/labels";
 
 /** Fixed contract: `application/pdf` with `copies` labels (default: one per bottle). */
 export const GET = endpoint(async ({ locals, params, url }) => {
-  requirePermission(locals, "read:batch");
+  const user = requirePermission(locals, "read:batch");
+  await takeToken(user.id, "label-pdf");
   const { id } = validate(params, idParam);
   const query = validate(queryOf(url), labelQuery);
   const { bytes, fileName, labels } = await batchLabels(id, query);
