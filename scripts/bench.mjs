@@ -11,7 +11,7 @@ import { join } from "node:path";
 import { appServerCommand } from "./lib/app-server.mjs";
 import { bin, ensureNodeModules, fail, log, portAnswers, portIsFree, ProcessGroup, ROOT, run, waitFor } from "./lib/util.mjs";
 
-const PARTS = ["usage", "http", "labels", "chem", "import", "pages", "lists", "startup"];
+const PARTS = ["usage", "http", "labels", "chem", "import", "pages", "lists", "startup", "demo"];
 const asked = process.argv.slice(2);
 for (const a of asked) if (!PARTS.includes(a)) fail(`Unknown benchmark part "${a}"; choose from ${PARTS.join(", ")}.`);
 const wants = (part) => asked.length === 0 || asked.includes(part);
@@ -110,11 +110,14 @@ for (const signal of ["SIGINT", "SIGTERM"]) {
 }
 
 let benchEnv = {};
+/** The bench database's environment, once started (the demo part needs the database but no app). */
+let databaseEnv = null;
 try {
   if (needsApp) {
     if (!(await portIsFree(APP_PORT))) throw new Error(`Port ${APP_PORT} for the bench app is taken; set DECANT_BENCH_APP_PORT.`);
     const { server, env } = await startDatabase("bench");
     database = server;
+    databaseEnv = env;
     // A fresh bench database every run: the figures always describe the same data.
     for (const name of server
       .sql("SELECT schema_name FROM information_schema.schemata WHERE schema_name LIKE 'decant%'")
@@ -187,6 +190,10 @@ try {
   await part("import", async () => rows.push(...(await runModule("import.bench.ts", benchEnv)).ROWS));
   await part("pages", async () => rows.push(...(await runModule("pages.bench.ts", benchEnv)).ROWS));
   await part("lists", async () => rows.push(...(await runModule("lists.bench.ts", benchEnv)).ROWS));
+  await part("demo", async () => {
+    if (!databaseEnv) ({ server: database, env: databaseEnv } = await startDatabase("bench"));
+    rows.push(...(await runModule("demo-year.bench.ts", databaseEnv)).ROWS);
+  });
 } catch (error) {
   process.stderr.write(`decant: ${error instanceof Error ? error.message : error}\n`);
   rows.push({

@@ -7,6 +7,6 @@ ensureNodeModules();
 const { startDatabase } = await import("./lib/stack.mjs");
 const { bin, run } = await import("./lib/util.mjs");
 const { server, env } = await startDatabase("dev");
-const code = await run(bin("tsx"), ["src/db/cli.ts", command === "reset" ? "reset" : command], { env: { ...process.env, ...env } });
+const code = await run(bin("tsx"), ["src/db/cli.ts", command, "--demo-year"], { env: { ...process.env, ...env } });
 await server.stop();
 process.exit(code);

@@ -35,7 +35,7 @@ process.on("SIGTERM", () => shutdown(0));
 group.onCrash = () => shutdown(1);
 
 try {
-  await migrate(env, { seed: true });
+  await migrate(env, { seed: true, year: profileName === "dev" });
   await startFakes(group, env);
   const appEnv = { ...process.env, ...env, HOST: host, PORT: String(port), APP_ORIGIN: process.env.APP_ORIGIN ?? `http://${host}:${port}` };
   if (dev) {

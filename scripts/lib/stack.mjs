@@ -80,9 +80,10 @@ export async function startDatabase(profileName) {
   return { server, env, profile };
 }
 
-/** Runs the umzug migrations (and, with seed, the demo seeders once). */
-export async function migrate(env, { seed }) {
-  const code = await run(bin("tsx"), [join(ROOT, "src/db/cli.ts"), seed ? "setup" : "migrate"], { env: { ...process.env, ...env } });
+/** Runs the umzug migrations (and, with seed, the demo seeders once; with year, the demo year too). */
+export async function migrate(env, { seed, year = false }) {
+  const args = [join(ROOT, "src/db/cli.ts"), seed ? "setup" : "migrate", ...(year ? ["--demo-year"] : [])];
+  const code = await run(bin("tsx"), args, { env: { ...process.env, ...env } });
   if (code !== 0) throw new Error("Database migration failed; see the output above.");
 }
 

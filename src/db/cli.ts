@@ -4,6 +4,8 @@ import { EnvError, parseEnv } from "../lib/server/env";
 import { migrator, seeder } from "./umzug";
 
 const command = process.argv[2] ?? "setup";
+// The development profile passes --demo-year: its demo data gets a year of history (DEV_SEEDERS).
+const year = process.argv.includes("--demo-year");
 
 async function main() {
   const sequelize = createSequelize(parseEnv(process.env));
@@ -19,7 +21,7 @@ async function main() {
       console.log(`decant: schema up to date (${done.length} migration${done.length === 1 ? "" : "s"} applied)`);
     }
     if (["seed", "setup", "reset"].includes(command)) {
-      const done = await seeder(sequelize).up();
+      const done = await seeder(sequelize, { year }).up();
       console.log(
         done.length
           ? `decant: demo data loaded (${done.map((s) => s.name).join(", ")})`

@@ -28,6 +28,7 @@ import * as demoSupply from "./seeders/2026.12.04T05.10.00.demo-supply";
 import * as demoLotAssays from "./seeders/2026.12.04T04.10.00.demo-lot-assays";
 import * as demoFacilityZone from "./seeders/2026.12.04T08.00.00.demo-facility-zone";
 import * as demoInvoiceDetails from "./seeders/2026.12.04T07.10.00.demo-invoice-details";
+import * as demoYear from "./dev-seeders/2026.12.04T10.00.00.demo-year";
 
 interface MigrationModule {
   up: RunnableMigration<QueryInterface>["up"];
@@ -70,6 +71,11 @@ export const SEEDERS: Record<string, MigrationModule> = {
   "2026.12.04T07.10.00.demo-invoice-details.ts": demoInvoiceDetails,
 };
 
+// The development profile's demo year, on top of SEEDERS (which the tests read); never in the test profile.
+export const DEV_SEEDERS: Record<string, MigrationModule> = {
+  "2026.12.04T10.00.00.demo-year.ts": demoYear,
+};
+
 function umzugFor(sequelize: Sequelize, modules: Record<string, MigrationModule>, tableName: string) {
   return new Umzug<QueryInterface>({
     migrations: Object.entries(modules)
@@ -83,4 +89,6 @@ function umzugFor(sequelize: Sequelize, modules: Record<string, MigrationModule>
 
 export const migrator = (sequelize: Sequelize) => umzugFor(sequelize, MIGRATIONS, "schema_migrations");
 // Seeders are tracked like migrations, so the demo data is loaded once and a restart keeps user changes.
-export const seeder = (sequelize: Sequelize) => umzugFor(sequelize, SEEDERS, "schema_seeders");
+// `{ year: true }` (the development profile) adds the demo year.
+export const seeder = (sequelize: Sequelize, options: { year?: boolean } = {}) =>
+  umzugFor(sequelize, options.year ? { ...SEEDERS, ...DEV_SEEDERS } : SEEDERS, "schema_seeders");

@@ -1,5 +1,5 @@
 import { expect, test, type Locator, type Page } from "@playwright/test";
-import { formatVolume } from "../../src/lib/format";
+import { formatVolumeIn, volumeUnitFor } from "../../src/lib/ledger/volume-unit";
 import { signIn } from "./support";
 
 /**
@@ -43,8 +43,10 @@ test("a technician logs a run in the browser and sees the batch's remaining volu
   await page.screenshot({ path: `${process.env.DECANT_TEST_DATA_DIR ?? ".data/test"}/playwright-output/ledger-run.png`, fullPage: true });
 
   await recorded.getByRole("link", { name: "See the ledger entries" }).click();
-  await expect(page.getByRole("cell", { name: "water" })).toBeVisible();
-  await expect(page.getByRole("cell", { name: "47.2168 mL" })).toBeVisible();
+  // Reagents by name, volumes to 0.01 mL, the waste stream by name.
+  await expect(page.getByRole("cell", { name: "Water", exact: true })).toBeVisible();
+  await expect(page.getByRole("cell", { name: "47.22 mL" })).toBeVisible();
+  await expect(page.getByRole("cell", { name: /Non-halogenated organic/ }).first()).toBeVisible();
 });
 
 const day = (daysAgo: number) => new Date(Date.now() - daysAgo * 86_400_000).toISOString().slice(0, 10);
@@ -62,8 +64,10 @@ test("a run a technician logs shows in the project's usage, up by exactly the ru
     const api = (await (await manager.request.get(`/api/usage?from=${day(30)}&to=${day(0)}&groupBy=project`)).json()) as {
       rows: { projectCode: string; volumes_mL: Record<string, number> }[];
     };
+    const sum = (r?: { volumes_mL: Record<string, number> }) => Object.values(r?.volumes_mL ?? {}).reduce((a, b) => a + b, 0);
     const row = api.rows.find((r) => r.projectCode === "PMG-ROOT-26");
-    return { shown: await total.innerText(), mL: Object.values(row?.volumes_mL ?? {}).reduce((a, b) => a + b, 0) };
+    // The totals column has one unit for all its rows.
+    return { shown: await total.innerText(), mL: sum(row), unit: volumeUnitFor(api.rows.map(sum)) };
   };
   const before = await usageOf();
 
@@ -74,8 +78,8 @@ test("a run a technician logs shows in the project's usage, up by exactly the ru
   const after = await usageOf();
   expect(after.mL - before.mL).toBeCloseTo(47.264 + 34.736, 3);
   // The page shows the same totals as the API, before and after.
-  expect(before.shown).toBe(formatVolume(before.mL));
-  expect(after.shown).toBe(formatVolume(after.mL));
+  expect(before.shown).toBe(formatVolumeIn(before.mL, before.unit));
+  expect(after.shown).toBe(formatVolumeIn(after.mL, after.unit));
   await expect(manager.getByRole("img", { name: /per project$/ })).toHaveAccessibleDescription(/PMG-ROOT-26: /);
 });
 

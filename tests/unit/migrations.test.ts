@@ -1,10 +1,11 @@
 import { readdirSync } from "node:fs";
 import { describe, expect, it } from "vitest";
-import { MIGRATIONS, SEEDERS } from "../../src/db/umzug";
+import { DEV_SEEDERS, MIGRATIONS, SEEDERS } from "../../src/db/umzug";
 
 describe.each([
   ["migrations", MIGRATIONS],
   ["seeders", SEEDERS],
+  ["dev-seeders", DEV_SEEDERS],
 ])("src/db/%s", (folder, registered) => {
   const files = readdirSync(`src/db/${folder}`).filter((f) => f.endsWith(".ts"));
 

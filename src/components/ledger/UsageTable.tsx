@@ -12,8 +12,8 @@ import type { GroupedUsageRow, UsageRow } from "../../lib/ledger/types";
 import { USAGE_GROUPINGS, type UsageGrouping } from "../../lib/ledger/usage-groupings";
 import { formatMoney } from "../../lib/billing/money";
 import { csvField } from "../../lib/imports/csv";
-import { formatVolume } from "../../lib/format";
 import { usageChartSeries } from "../../lib/ledger/usage-chart";
+import { formatVolumeIn, volumeUnitFor } from "../../lib/ledger/volume-unit";
 import { LoadBoundary } from "../common/LoadBoundary";
 import { IslandForm } from "../forms/island-form";
 import { errorMessage } from "../forms/post-json";
@@ -78,6 +78,7 @@ const today = () => new Date().toISOString().slice(0, 10);
 interface Loaded {
   rows: Row[];
   phases: Record<string, string>;
+  reagentNames: Record<string, string>;
   groupBy: UsageGrouping;
 }
 
@@ -86,11 +87,12 @@ async function fetchUsage(from: string, to: string, groupBy: UsageGrouping): Pro
   const body = (await r.json().catch(() => ({}))) as {
     rows?: (UsageRow | GroupedUsageRow)[];
     mobilePhases?: Record<string, string>;
+    reagentNames?: Record<string, string>;
     error?: string;
   };
   if (!r.ok) throw new Error(body.error ?? `The usage could not be loaded (${r.status}).`);
   const rows = (body.rows ?? []).map((row) => (groupBy === "project" ? fromProject(row as UsageRow) : fromGroup(row as GroupedUsageRow)));
-  return { rows, phases: body.mobilePhases ?? {}, groupBy };
+  return { rows, phases: body.mobilePhases ?? {}, reagentNames: body.reagentNames ?? {}, groupBy };
 }
 
 // Sorting and filtering through TanStack Table; the cells themselves are rendered below.
@@ -159,6 +161,17 @@ function UsageView({
   const phases = useMemo(() => [...new Set(rows.flatMap((r) => Object.keys(r.mobilePhases_mL)))].sort(), [rows]);
   const shown = state.kind === "ready" ? state.groupBy : groupBy;
   const phaseName = (code: string) => (state.kind === "ready" ? state.phases[code] : undefined) ?? code;
+  const reagentName = (id: string) => (state.kind === "ready" ? state.reagentNames[id] : undefined) ?? id;
+  // One unit per column: the reagent and mobile-phase lists and the totals each pick mL or L once.
+  const units = useMemo(
+    () => ({
+      // Each reagent is a column of its own (as in the CSV): formic acid stays in mL beside acetonitrile in L.
+      reagents: new Map(reagents.map((id) => [id, volumeUnitFor(rows.map((r) => r.volumes_mL[id] ?? 0))])),
+      phases: volumeUnitFor(rows.flatMap((r) => Object.values(r.mobilePhases_mL))),
+      total: volumeUnitFor(rows.map(total)),
+    }),
+    [rows, reagents],
+  );
   const chartSeries = useMemo(() => usageChartSeries(rows.map((r) => ({ label: r.label, volume_mL: total(r), costs: r.costs }))), [rows]);
   const groupNoun = GROUP_LABEL[shown].toLowerCase();
 
@@ -311,15 +324,16 @@ function UsageView({
                       {Object.entries(r.volumes_mL)
                         .filter(([, v]) => v !== 0)
                         .map(([id, v]) => (
-                          <div key={id}>
-                            {id}: <span className="num whitespace-nowrap">{formatVolume(v)}</span>
+                          <div key={id} title={id}>
+                            {reagentName(id)}:{" "}
+                            <span className="num whitespace-nowrap">{formatVolumeIn(v, units.reagents.get(id) ?? "mL")}</span>
                           </div>
                         ))}
                       {Object.entries(r.masses_g)
                         .filter(([, g]) => g !== 0)
                         .map(([id, g]) => (
-                          <div key={id}>
-                            {id}: <span className="num whitespace-nowrap">{g.toFixed(3)} g</span>
+                          <div key={id} title={id}>
+                            {reagentName(id)}: <span className="num whitespace-nowrap">{g.toFixed(2)} g</span>
                           </div>
                         ))}
                     </td>
@@ -328,12 +342,13 @@ function UsageView({
                         .filter(([, v]) => v !== 0)
                         .map(([code, v]) => (
                           <div key={code} title={phaseName(code)}>
-                            {code === "none" ? "not from a batch" : code}: <span className="num whitespace-nowrap">{formatVolume(v)}</span>
+                            {code === "none" ? "not from a batch" : <code>{code}</code>}:{" "}
+                            <span className="num whitespace-nowrap">{formatVolumeIn(v, units.phases)}</span>
                           </div>
                         ))}
                     </td>
                     <td className="num whitespace-nowrap" data-testid="usage-total">
-                      {formatVolume(total(r))}
+                      {formatVolumeIn(total(r), units.total)}
                     </td>
                     <td className="num">
                       {r.costs.map((c) => (

@@ -38,10 +38,12 @@ export interface LedgerLine {
   batchId: number | null;
   batchCode: string | null;
   reagentId: string;
+  reagentName: string;
   volume_mL: number;
   mass_g: number | null;
   channel: string | null;
   wasteStreamId: string | null;
+  wasteStreamName: string | null;
   wasteContainerCode: string | null;
   sourceKind: LedgerSource;
   sourceId: string | null;
@@ -62,7 +64,8 @@ export interface RunSummary {
   injections: number;
   blanks: number;
   purge_mL: number;
-  channelBatches: Record<string, { id: number; code: string | null }>;
+  /** The batch each channel drew from, with its recipe ("MP-FA-W · 0.1 % formic acid in water") when known. */
+  channelBatches: Record<string, { id: number; code: string | null; recipeName: string | null }>;
   channelVolumes_mL: Record<string, number>;
   total_mL: number;
   /** Net volume in the ledger (0 once fully reversed). */

@@ -124,10 +124,12 @@ interface LedgerRow {
   batch_id: number | null;
   batch_code: string | null;
   reagent_id: string;
+  reagent_name: string;
   volume_ml: number;
   mass_g: number | null;
   channel: string | null;
   waste_stream_id: string | null;
+  waste_stream_name: string | null;
   container_code: string | null;
   source_kind: LedgerSource;
   source_id: string | null;
@@ -138,12 +140,14 @@ interface LedgerRow {
 }
 
 const SELECT_LINES = `
-  SELECT l.id, l.occurred_at, l.kind, p.code AS project_code, l.batch_id, b.code AS batch_code, l.reagent_id, l.volume_ml, l.mass_g,
-         l.channel, l.waste_stream_id, c.code AS container_code, l.source_kind, l.source_id, u.name AS author, l.reverses_id,
+  SELECT l.id, l.occurred_at, l.kind, p.code AS project_code, l.batch_id, b.code AS batch_code, l.reagent_id, g.name AS reagent_name,
+         l.volume_ml, l.mass_g, l.channel, l.waste_stream_id, ws.name AS waste_stream_name, c.code AS container_code, l.source_kind, l.source_id, u.name AS author, l.reverses_id,
          r.id AS reversed_by, l.reason
     FROM ledger_entries l
     LEFT JOIN projects p ON p.id = l.project_id
     LEFT JOIN batches b ON b.id = l.batch_id
+    JOIN reagents g ON g.id = l.reagent_id
+    LEFT JOIN waste_streams ws ON ws.id = l.waste_stream_id
     LEFT JOIN waste_containers c ON c.id = l.waste_container_id
     LEFT JOIN users u ON u.id = l.author_id
     LEFT JOIN ledger_entries r ON r.reverses_id = l.id`;
@@ -156,10 +160,12 @@ const toLine = (r: LedgerRow): LedgerLine => ({
   batchId: r.batch_id,
   batchCode: r.batch_code,
   reagentId: r.reagent_id,
+  reagentName: r.reagent_name,
   volume_mL: r.volume_ml,
   mass_g: r.mass_g,
   channel: r.channel,
   wasteStreamId: r.waste_stream_id,
+  wasteStreamName: r.waste_stream_name,
   wasteContainerCode: r.container_code,
   sourceKind: r.source_kind,
   sourceId: r.source_id,

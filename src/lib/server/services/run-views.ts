@@ -33,12 +33,14 @@ async function summarise(rows: RunRow[]): Promise<RunSummary[]> {
     volumes: jsonColumn<Record<string, number>>(r.channel_volumes),
   }));
   const batchIds = [...new Set(parsed.flatMap((p) => Object.values(p.batches)))];
-  const codes = new Map<number, string>();
+  const codes = new Map<number, { code: string; recipe: string }>();
   if (batchIds.length) {
-    for (const b of await select<{ id: number; code: string }>("SELECT id, code FROM batches WHERE id IN (:ids)", {
-      replacements: { ids: batchIds },
-    }))
-      codes.set(b.id, b.code);
+    for (const b of await select<{ id: number; code: string; recipe: string }>(
+      `SELECT b.id, b.code, CONCAT(rc.code, ' · ', rc.name) AS recipe FROM batches b
+         JOIN recipe_versions v ON v.id = b.recipe_version_id JOIN recipes rc ON rc.id = v.recipe_id WHERE b.id IN (:ids)`,
+      { replacements: { ids: batchIds } },
+    ))
+      codes.set(b.id, { code: b.code, recipe: b.recipe });
   }
   return parsed.map(({ row: r, batches, volumes }) => ({
     id: r.id,
@@ -51,7 +53,9 @@ async function summarise(rows: RunRow[]): Promise<RunSummary[]> {
     injections: r.injections,
     blanks: r.blanks,
     purge_mL: r.purge_ml,
-    channelBatches: Object.fromEntries(Object.entries(batches).map(([ch, id]) => [ch, { id, code: codes.get(id) ?? null }])),
+    channelBatches: Object.fromEntries(
+      Object.entries(batches).map(([ch, id]) => [ch, { id, code: codes.get(id)?.code ?? null, recipeName: codes.get(id)?.recipe ?? null }]),
+    ),
     channelVolumes_mL: volumes,
     total_mL: round4(Object.values(volumes).reduce((a, b) => a + b, 0)),
     ledger_mL: round4(r.ledger_ml ?? 0),

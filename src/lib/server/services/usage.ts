@@ -168,3 +168,8 @@ export async function usageByProject(query: UsageQuery, scope: { clientId: numbe
     rows: [...rows.values()].sort((a, b) => a.projectCode.localeCompare(b.projectCode)),
   };
 }
+
+/** Reagent id → name, so screens show "Formic acid" where the ledger keeps `formic-acid`. */
+export async function reagentNames(): Promise<Record<string, string>> {
+  return Object.fromEntries((await select<{ id: string; name: string }>("SELECT id, name FROM reagents")).map((r) => [r.id, r.name]));
+}

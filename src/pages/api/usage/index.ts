@@ -1,12 +1,13 @@
 import { usageQuery, type UsageQuery } from "../../../lib/schemas/usage";
 import { endpoint, requirePermission, seesAllClients } from "../../../lib/server/guard";
 import { json, queryOf, validate } from "../../../lib/server/http";
-import { usageByProject } from "../../../lib/server/services/usage";
+import { reagentNames, usageByProject } from "../../../lib/server/services/usage";
 import { mobilePhasesByProject, usageGrouped } from "../../../lib/server/services/usage-groups";
 
 /**
  * The fixed contract (groupBy=project): `{ rows: [{ projectCode, volumes_mL, cost: { amount, currency } }] }`.
  * groupBy=client|instrument|reagent|month answers `{ rows: [{ key, label, volumes_mL, mobilePhases_mL, cost, costs, … }] }`.
+ * Both also carry `reagentNames` (id → name) for the screens.
  */
 async function answer(query: UsageQuery, scope: { clientId: number | null }) {
   if (query.groupBy !== "project") return usageGrouped({ ...query, groupBy: query.groupBy }, scope);
@@ -23,8 +24,8 @@ async function answer(query: UsageQuery, scope: { clientId: number | null }) {
 export const GET = endpoint(async ({ locals, url }) => {
   const user = requirePermission(locals, "read:usage", { own: true });
   const query = validate(queryOf(url), usageQuery);
-  if (seesAllClients(user, "read:usage")) return json(await answer(query, { clientId: null }));
+  if (seesAllClients(user, "read:usage")) return json({ ...(await answer(query, { clientId: null })), reagentNames: await reagentNames() });
   // A client contact sees their own organisation's projects, and none without an organisation.
   if (user.clientId == null) return json({ from: query.from, to: query.to, groupBy: query.groupBy, rows: [] });
-  return json(await answer(query, { clientId: user.clientId }));
+  return json({ ...(await answer(query, { clientId: user.clientId })), reagentNames: await reagentNames() });
 });
