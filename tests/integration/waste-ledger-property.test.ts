@@ -8,6 +8,8 @@ import fc from "fast-check";
 import { QueryTypes, type Sequelize } from "sequelize";
 import { beforeAll, describe, expect, it } from "vitest";
 import type { LedgerKind, NewLedgerEntry } from "../../src/lib/ledger/types";
+import { periodBounds } from "../../src/lib/ledger/period";
+import { getFacilitySettings } from "../../src/lib/server/services/facility-settings";
 import { appendEntries } from "../../src/lib/server/services/ledger";
 import { wasteSummary } from "../../src/lib/server/services/waste/totals";
 import { useServiceDatabase } from "../support/service-database";
@@ -15,8 +17,10 @@ import { useServiceDatabase } from "../support/service-database";
 const handle = useServiceDatabase();
 let db: Sequelize;
 let streams: string[] = [];
+let timeZone = "UTC";
 beforeAll(async () => {
   db = handle.sequelize;
+  ({ timeZone } = await getFacilitySettings());
   streams = (await db.query<{ id: string }>("SELECT id FROM waste_streams ORDER BY id", { type: QueryTypes.SELECT })).map((r) => r.id);
 });
 
@@ -149,8 +153,10 @@ describe("the waste summary over random ledgers", () => {
             const toDay = Math.min(364, fromDay + length);
             const from = new Date(yearStart + fromDay * DAY).toISOString().slice(0, 10);
             const to = new Date(yearStart + toDay * DAY).toISOString().slice(0, 10);
-            const start = yearStart + fromDay * DAY;
-            const end = yearStart + (toDay + 1) * DAY;
+            // A period is the facility's local days (lib/ledger/period.ts), whatever zone the demo has.
+            const [startAt, endAt] = periodBounds(from, to, timeZone);
+            const start = startAt.getTime();
+            const end = endAt.getTime();
             const expected = new Map<string, number>(streams.map((s) => [s, 0]));
             for (const m of model) if (m.at >= start && m.at < end) expected.set(m.stream, (expected.get(m.stream) ?? 0) + m.volume_dL);
 

@@ -1,5 +1,6 @@
 import { DataTypes, type QueryInterface } from "sequelize";
 import type { MigrationParams } from "umzug";
+import { dropColumns } from "../drop-columns";
 
 // What a batch's expiry was computed from (the rule, its shelf life, a lot that cut it short), so the
 // label, the batch page, the due list and the digest word the expiry from the computation itself.
@@ -9,5 +10,5 @@ export async function up({ context: qi }: MigrationParams<QueryInterface>) {
 }
 
 export async function down({ context: qi }: MigrationParams<QueryInterface>) {
-  await qi.removeColumn("batches", "expiry_basis");
+  await dropColumns(qi, "batches", ["expiry_basis"]);
 }

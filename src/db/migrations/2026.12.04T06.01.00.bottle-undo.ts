@@ -1,5 +1,6 @@
 import { DataTypes, type QueryInterface } from "sequelize";
 import type { MigrationParams } from "umzug";
+import { dropColumns } from "../drop-columns";
 
 // A bottle remembers the state it left and when, so marking it empty or discarding it can be undone
 // for a short while (services/undo.ts); the discard's ledger entries are reversed, never deleted.
@@ -12,6 +13,5 @@ export async function up({ context: qi }: MigrationParams<QueryInterface>) {
 }
 
 export async function down({ context: qi }: MigrationParams<QueryInterface>) {
-  await qi.removeColumn("batch_bottles", "changed_at");
-  await qi.removeColumn("batch_bottles", "previous_status");
+  await dropColumns(qi, "batch_bottles", ["changed_at", "previous_status"]);
 }

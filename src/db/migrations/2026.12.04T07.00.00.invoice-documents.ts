@@ -1,5 +1,6 @@
 import { DataTypes, type QueryInterface } from "sequelize";
 import type { MigrationParams } from "umzug";
+import { dropColumns } from "../drop-columns";
 
 // What an invoice a finance office accepts needs: the client's billing address, tax id, purchase
 // order and tax treatment; Decant's own gap-free invoice numbers (one counter row per series,
@@ -29,8 +30,7 @@ export async function up({ context: qi }: MigrationParams<QueryInterface>) {
 
 export async function down({ context: qi }: MigrationParams<QueryInterface>) {
   await qi.removeIndex("invoices", "invoices_number");
-  for (const column of ["details", "issued_on", "tax_minor", "subtotal_minor"]) await qi.removeColumn("invoices", column);
+  await dropColumns(qi, "invoices", ["details", "issued_on", "tax_minor", "subtotal_minor"]);
   await qi.dropTable("invoice_sequences");
-  for (const column of ["tax_label", "tax_rate_percent", "tax_treatment", "purchase_order", "tax_id", "billing_address"])
-    await qi.removeColumn("clients", column);
+  await dropColumns(qi, "clients", ["tax_label", "tax_rate_percent", "tax_treatment", "purchase_order", "tax_id", "billing_address"]);
 }
