@@ -43,7 +43,7 @@ export default function BottleActions({
   return (
     <div>
       <HydratedControls>
-        <table className="table">
+        <table className="table table-cards">
           <thead>
             <tr>
               <th>Bottle</th>
@@ -56,10 +56,10 @@ export default function BottleActions({
               const open = b.status === "ready" || b.status === "in_use";
               return (
                 <tr key={b.number}>
-                  <td>
+                  <td data-label="Bottle">
                     {b.number} of {list.length}
                   </td>
-                  <td>
+                  <td data-label="State">
                     <span className={`tag ${b.status === "in_use" ? "" : b.status === "ready" ? "tag-amber" : "tag-muted"}`}>
                       {LABEL[b.status]}
                     </span>
@@ -68,7 +68,7 @@ export default function BottleActions({
                     )}
                   </td>
                   {canUpdate && (
-                    <td>
+                    <td data-label="Change">
                       {open ? (
                         <div className="flex flex-wrap items-center gap-2">
                           {b.status === "ready" && !expired && (
