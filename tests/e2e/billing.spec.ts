@@ -38,8 +38,9 @@ test("the manager invoices an external client and sees it paid", async ({ page }
   await expect(page.getByText(`Send an invoice for ${total} to accounts@quillfeather.test?`)).toBeVisible();
   await page.getByRole("button", { name: "Send invoice" }).click();
 
-  // Sent: issued, the invoice open at the payments service.
-  await expect(page.getByTestId("statement-status")).toHaveText("issued");
+  // Sent: issued, the invoice open at the payments service (several provider round trips: on a
+  // busy machine this takes longer than a click's usual wait).
+  await expect(page.getByTestId("statement-status")).toHaveText("issued", { timeout: 30_000 });
   await expect(page.getByTestId("invoice-status")).toHaveText("open: awaiting payment");
   const panel = page.getByTestId("invoice-panel");
   await expect(panel).toContainText(total);

@@ -1,6 +1,7 @@
 import { useState } from "react";
 import type { InvoiceStatus } from "../../lib/billing/types";
 import { errorMessage, postJson } from "../forms/post-json";
+import { HydratedControls } from "../forms/island-form";
 
 interface Props {
   invoiceId: number;
@@ -26,30 +27,34 @@ export default function InvoiceActions({ invoiceId, number, status }: Props) {
   }
   if (status !== "open" && status !== "uncollectible") return null;
   return (
-    <span className="inline-flex flex-wrap items-center gap-2">
-      <button
-        type="button"
-        className="btn btn-quiet"
-        disabled={busy !== null}
-        onClick={() => act("void", `Void invoice ${number ?? ""}? The client can no longer pay it; anything owed goes on the next period.`)}
-      >
-        {busy === "void" ? "Voiding…" : "Void"}
-      </button>
-      {status === "open" && (
+    <HydratedControls>
+      <span className="inline-flex flex-wrap items-center gap-2">
         <button
           type="button"
           className="btn btn-quiet"
           disabled={busy !== null}
-          onClick={() => act("uncollectible", `Mark invoice ${number ?? ""} uncollectible? It stays payable.`)}
+          onClick={() =>
+            act("void", `Void invoice ${number ?? ""}? The client can no longer pay it; anything owed goes on the next period.`)
+          }
         >
-          {busy === "uncollectible" ? "Saving…" : "Write off"}
+          {busy === "void" ? "Voiding…" : "Void"}
         </button>
-      )}
-      {problem && (
-        <span className="field-error" role="alert">
-          {problem}
-        </span>
-      )}
-    </span>
+        {status === "open" && (
+          <button
+            type="button"
+            className="btn btn-quiet"
+            disabled={busy !== null}
+            onClick={() => act("uncollectible", `Mark invoice ${number ?? ""} uncollectible? It stays payable.`)}
+          >
+            {busy === "uncollectible" ? "Saving…" : "Write off"}
+          </button>
+        )}
+        {problem && (
+          <span className="field-error" role="alert">
+            {problem}
+          </span>
+        )}
+      </span>
+    </HydratedControls>
   );
 }

@@ -1,5 +1,6 @@
 import { useState } from "react";
 import { errorMessage, postJson } from "../forms/post-json";
+import { HydratedControls } from "../forms/island-form";
 
 interface Props {
   clientId: number;
@@ -24,15 +25,17 @@ export default function OpenStatementButton({ clientId, clientName, periodStart,
     }
   }
   return (
-    <span className="inline-flex flex-col gap-1">
-      <button type="button" className="btn btn-quiet" onClick={open} disabled={busy} aria-label={`Open the draft for ${clientName}`}>
-        {busy ? "Opening…" : "Open draft"}
-      </button>
-      {problem && (
-        <span className="field-error" role="alert">
-          {problem}
-        </span>
-      )}
-    </span>
+    <HydratedControls>
+      <span className="inline-flex flex-col gap-1">
+        <button type="button" className="btn btn-quiet" onClick={open} disabled={busy} aria-label={`Open the draft for ${clientName}`}>
+          {busy ? "Opening…" : "Open draft"}
+        </button>
+        {problem && (
+          <span className="field-error" role="alert">
+            {problem}
+          </span>
+        )}
+      </span>
+    </HydratedControls>
   );
 }

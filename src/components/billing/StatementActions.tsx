@@ -1,5 +1,6 @@
 import { useState } from "react";
 import { errorMessage, postJson } from "../forms/post-json";
+import { HydratedControls } from "../forms/island-form";
 
 interface Props {
   statementId: number;
@@ -33,40 +34,42 @@ export default function StatementActions({ statementId, kind, total_minor, total
 
   if (blocker) return <p className="notice">{blocker}</p>;
   return (
-    <div className="card flex flex-col gap-3 p-4">
-      {!confirming ? (
-        <div className="flex flex-wrap items-center gap-3">
-          <button type="button" className="btn" onClick={() => setConfirming(true)}>
-            {label}
-          </button>
-          <span className="text-sm text-[var(--color-muted)]">Issuing freezes these lines and closes the period for this client.</span>
-        </div>
-      ) : (
-        <div className="flex flex-wrap items-center gap-3" role="group" aria-label="Confirm">
-          <span className="text-sm">
-            {kind === "external" ? (
-              <>
-                Send an invoice for <strong>{totalText}</strong> to {billingEmail ?? "the client"}?
-              </>
-            ) : (
-              <>
-                Issue the statement for <strong>{totalText}</strong>?
-              </>
-            )}
-          </span>
-          <button type="button" className="btn" onClick={go} disabled={busy}>
-            {busy ? "Working…" : kind === "external" ? "Send invoice" : "Issue"}
-          </button>
-          <button type="button" className="btn btn-quiet" onClick={() => setConfirming(false)} disabled={busy}>
-            Back to review
-          </button>
-        </div>
-      )}
-      {problem && (
-        <p className="notice notice-danger" role="alert">
-          {problem}
-        </p>
-      )}
-    </div>
+    <HydratedControls>
+      <div className="card flex flex-col gap-3 p-4">
+        {!confirming ? (
+          <div className="flex flex-wrap items-center gap-3">
+            <button type="button" className="btn" onClick={() => setConfirming(true)}>
+              {label}
+            </button>
+            <span className="text-sm text-[var(--color-muted)]">Issuing freezes these lines and closes the period for this client.</span>
+          </div>
+        ) : (
+          <div className="flex flex-wrap items-center gap-3" role="group" aria-label="Confirm">
+            <span className="text-sm">
+              {kind === "external" ? (
+                <>
+                  Send an invoice for <strong>{totalText}</strong> to {billingEmail ?? "the client"}?
+                </>
+              ) : (
+                <>
+                  Issue the statement for <strong>{totalText}</strong>?
+                </>
+              )}
+            </span>
+            <button type="button" className="btn" onClick={go} disabled={busy}>
+              {busy ? "Working…" : kind === "external" ? "Send invoice" : "Issue"}
+            </button>
+            <button type="button" className="btn btn-quiet" onClick={() => setConfirming(false)} disabled={busy}>
+              Back to review
+            </button>
+          </div>
+        )}
+        {problem && (
+          <p className="notice notice-danger" role="alert">
+            {problem}
+          </p>
+        )}
+      </div>
+    </HydratedControls>
   );
 }

@@ -1,5 +1,6 @@
 import { useState } from "react";
 import { errorMessage, postJson } from "../forms/post-json";
+import { HydratedControls } from "../forms/island-form";
 
 export default function ApproveButton({ recipeId, version }: { recipeId: number; version: number }) {
   const [error, setError] = useState<string | null>(null);
@@ -16,15 +17,17 @@ export default function ApproveButton({ recipeId, version }: { recipeId: number;
     }
   }
   return (
-    <div>
-      <button type="button" className="btn" onClick={approve} disabled={busy}>
-        Approve version {version}
-      </button>
-      {error && (
-        <p className="field-error mt-2" role="alert">
-          {error}
-        </p>
-      )}
-    </div>
+    <HydratedControls>
+      <div>
+        <button type="button" className="btn" onClick={approve} disabled={busy}>
+          Approve version {version}
+        </button>
+        {error && (
+          <p className="field-error mt-2" role="alert">
+            {error}
+          </p>
+        )}
+      </div>
+    </HydratedControls>
   );
 }

@@ -1,6 +1,7 @@
 import { useState } from "react";
 import type { PickupView } from "../../lib/waste/types";
 import { errorMessage, postJson } from "../forms/post-json";
+import { HydratedControls } from "../forms/island-form";
 
 /** Requests a pickup for one or more containers, after a confirmation step with an optional note. */
 export default function PickupButton({
@@ -48,30 +49,32 @@ export default function PickupButton({
     }
   };
   return (
-    <div className="flex flex-col gap-2" role="group" aria-label={`Request a pickup for ${codes.join(", ")}`}>
-      <div className="field">
-        <label htmlFor={`pickup-note-${containerIds.join("-")}`}>Note for the collector (optional)</label>
-        <input
-          id={`pickup-note-${containerIds.join("-")}`}
-          className="input text-sm"
-          value={note}
-          maxLength={255}
-          onChange={(e) => setNote(e.target.value)}
-        />
+    <HydratedControls>
+      <div className="flex flex-col gap-2" role="group" aria-label={`Request a pickup for ${codes.join(", ")}`}>
+        <div className="field">
+          <label htmlFor={`pickup-note-${containerIds.join("-")}`}>Note for the collector (optional)</label>
+          <input
+            id={`pickup-note-${containerIds.join("-")}`}
+            className="input text-sm"
+            value={note}
+            maxLength={255}
+            onChange={(e) => setNote(e.target.value)}
+          />
+        </div>
+        {problem && (
+          <p className="field-error" role="alert">
+            {problem}
+          </p>
+        )}
+        <div className="flex gap-2">
+          <button type="button" className="btn text-sm" disabled={busy} onClick={submit}>
+            {busy ? "Requesting…" : `Confirm pickup of ${codes.join(", ")}`}
+          </button>
+          <button type="button" className="btn btn-quiet text-sm" onClick={() => setOpen(false)}>
+            Cancel
+          </button>
+        </div>
       </div>
-      {problem && (
-        <p className="field-error" role="alert">
-          {problem}
-        </p>
-      )}
-      <div className="flex gap-2">
-        <button type="button" className="btn text-sm" disabled={busy} onClick={submit}>
-          {busy ? "Requesting…" : `Confirm pickup of ${codes.join(", ")}`}
-        </button>
-        <button type="button" className="btn btn-quiet text-sm" onClick={() => setOpen(false)}>
-          Cancel
-        </button>
-      </div>
-    </div>
+    </HydratedControls>
   );
 }

@@ -1,6 +1,7 @@
 import { useState } from "react";
 import type { ContainerStatus } from "../../lib/waste/types";
 import { errorMessage, postJson } from "../forms/post-json";
+import { HydratedControls } from "../forms/island-form";
 
 /** Marks a container full (it then takes no more runs) or back in use. */
 export default function StatusButtons({
@@ -25,15 +26,17 @@ export default function StatusButtons({
     }
   };
   return (
-    <div className="flex flex-col gap-1">
-      <button type="button" className="btn btn-quiet text-sm" disabled={busy} onClick={change}>
-        {next === "full" ? "Mark full (takes no more waste)" : "Put back in use"}
-      </button>
-      {problem && (
-        <p className="field-error" role="alert">
-          {problem}
-        </p>
-      )}
-    </div>
+    <HydratedControls>
+      <div className="flex flex-col gap-1">
+        <button type="button" className="btn btn-quiet text-sm" disabled={busy} onClick={change}>
+          {next === "full" ? "Mark full (takes no more waste)" : "Put back in use"}
+        </button>
+        {problem && (
+          <p className="field-error" role="alert">
+            {problem}
+          </p>
+        )}
+      </div>
+    </HydratedControls>
   );
 }

@@ -66,7 +66,12 @@ export async function down({ context: qi }: MigrationParams<QueryInterface>) {
   await qi.dropTable("sign_in_locks");
   await qi.dropTable("recovery_codes");
   await qi.dropTable("two_factor_keys");
-  for (const column of ["code_failures", "last_seen_at", "shared_bench", "stage"]) await qi.removeColumn("sessions", column);
-  await qi.removeIndex("sign_in_attempts", "sign_in_attempts_device_created_at");
-  for (const column of ["step", "device", "user_agent"]) await qi.removeColumn("sign_in_attempts", column);
+  // Plain ALTERs: removeColumn reads the foreign keys with an untyped raw SELECT, which the mariadb
+  // dialect cannot hand back with this driver.
+  await qi.sequelize.query(
+    "ALTER TABLE sessions DROP COLUMN code_failures, DROP COLUMN last_seen_at, DROP COLUMN shared_bench, DROP COLUMN stage",
+  );
+  await qi.sequelize.query(
+    "ALTER TABLE sign_in_attempts DROP INDEX sign_in_attempts_device_created_at, DROP COLUMN step, DROP COLUMN device, DROP COLUMN user_agent",
+  );
 }

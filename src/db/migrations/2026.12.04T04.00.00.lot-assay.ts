@@ -12,9 +12,9 @@ export async function up({ context: qi }: MigrationParams<QueryInterface>) {
   await qi.addColumn("batch_components", "assay_source", { type: DataTypes.ENUM("lot", "typical", "none"), allowNull: true });
 }
 
+// Plain ALTERs: removeColumn first reads the foreign keys with an untyped raw SELECT, which the
+// mariadb dialect cannot hand back with this driver (its result's meta cannot be deleted).
 export async function down({ context: qi }: MigrationParams<QueryInterface>) {
-  await qi.removeColumn("batch_components", "assay_source");
-  await qi.removeColumn("batch_components", "assay_percent");
-  await qi.removeColumn("stock_lots", "density_g_ml");
-  await qi.removeColumn("stock_lots", "assay_percent");
+  await qi.sequelize.query("ALTER TABLE batch_components DROP COLUMN assay_source, DROP COLUMN assay_percent");
+  await qi.sequelize.query("ALTER TABLE stock_lots DROP COLUMN density_g_ml, DROP COLUMN assay_percent");
 }
