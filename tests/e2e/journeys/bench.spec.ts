@@ -55,10 +55,11 @@ test("a technician looks up a batch, prepares one, prints its labels, logs a run
   await page.getByLabel("Recipe", { exact: true }).selectOption({ label: "MP-FA-W · 0.1 % formic acid in water (v1, ch. A)" });
   await page.getByLabel("Bottles", { exact: true }).fill("1");
   await page.getByLabel("Bottle size (mL)").fill("1000");
-  for (const [label, lot] of [
+  const lots: [string, string][] = [
     ["Lot of Water", "UPW-SYSTEM"],
     ["Lot of Formic acid", "FA-2290"],
-  ]) {
+  ];
+  for (const [label, lot] of lots) {
     const select = page.getByLabel(label);
     await select.selectOption((await select.locator("option", { hasText: lot }).first().getAttribute("value"))!);
   }
