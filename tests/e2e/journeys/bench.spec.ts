@@ -44,6 +44,9 @@ test("a technician looks up a batch, prepares one, prints its labels, logs a run
   // Look up: a typed code opens the batch and its bottles.
   await openSection(page, "Batches");
   await expectFitsTheScreen(page);
+  await page.screenshot({
+    path: `${process.env.DECANT_TEST_DATA_DIR ?? ".data/test"}/playwright-output/batches-${test.info().project.name}.png`,
+  });
   await page.getByLabel("Batch code").fill("B26-1103");
   await expectTouchTarget(page, "Open");
   await page.getByRole("button", { name: "Open", exact: true }).click();
@@ -111,6 +114,9 @@ test("the safety officer reads the waste overview and records a container's leve
   await openSection(page, "Waste");
   await expect(page.getByRole("heading", { name: "Solvent waste" })).toBeVisible();
   await expectFitsTheScreen(page);
+  await page.screenshot({
+    path: `${process.env.DECANT_TEST_DATA_DIR ?? ".data/test"}/playwright-output/waste-${test.info().project.name}.png`,
+  });
   // The near-full state is said in words, not only in colour.
   await expect(page.getByTestId("container-WC-0103").locator(".tag").first()).toContainText(/near full|over capacity/);
 
