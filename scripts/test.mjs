@@ -10,8 +10,9 @@ const APP_PORT = Number(process.env.DECANT_TEST_APP_PORT || 4331);
 const ISOLATED = ["tests/integration/faults.test.ts"];
 // `npm test -- unit`, `-- integration` or `-- e2e` runs one part; `-- tests/integration/x.test.ts` one Vitest file.
 const args = process.argv.slice(2);
-const files = args.filter((a) => a.includes("/"));
-const only = files.length ? ["files"] : args;
+const e2eFiles = args.filter((a) => a.startsWith("tests/e2e/"));
+const files = args.filter((a) => a.includes("/") && !e2eFiles.includes(a));
+const only = files.length || e2eFiles.length ? ["files"] : args;
 const wants = (name) => only.length === 0 || only.includes(name);
 
 ensureNodeModules();
@@ -142,9 +143,9 @@ try {
     }
   }
 
-  if (wants("e2e")) {
+  if (wants("e2e") || e2eFiles.length) {
     const playwrightReport = join(reports, "playwright.json");
-    const code = await run(bin("playwright"), ["test", "--reporter=list,json"], {
+    const code = await run(bin("playwright"), ["test", "--reporter=list,json", ...e2eFiles.map((f) => f.slice("tests/e2e/".length))], {
       env: { ...testEnv, PLAYWRIGHT_JSON_OUTPUT_NAME: playwrightReport },
     });
     const report = readJson(playwrightReport);

@@ -65,6 +65,9 @@ export function ensureTestTools() {
   const needed = [
     { path: "/usr/bin/chromium", packages: ["chromium", "fonts-dejavu-core"] },
     { path: "/usr/bin/pdftotext", packages: ["poppler-utils"] },
+    // Another decoder than Decant's own reads the printed labels; ffmpeg makes the camera's fake video.
+    { path: "/usr/bin/zbarimg", packages: ["zbar-tools"] },
+    { path: "/usr/bin/ffmpeg", packages: ["ffmpeg"] },
   ].filter((tool) => !existsSync(tool.path));
   if (needed.length === 0) return "/usr/bin/chromium";
   const packages = needed.flatMap((tool) => tool.packages);

@@ -93,7 +93,7 @@ export default function BottleActions({
   return (
     <div>
       <HydratedControls>
-        <table className="table">
+        <table className="table table-cards">
           <thead>
             <tr>
               <th>Bottle</th>
@@ -107,10 +107,10 @@ export default function BottleActions({
               const volume = leftIn(b.number);
               return (
                 <tr key={b.number}>
-                  <td>
+                  <td data-label="Bottle">
                     {b.number} of {list.length}
                   </td>
-                  <td>
+                  <td data-label="State">
                     <span className={`tag ${b.status === "in_use" ? "" : b.status === "ready" ? "tag-amber" : "tag-muted"}`}>
                       {LABEL[b.status]}
                     </span>
@@ -119,7 +119,7 @@ export default function BottleActions({
                     )}
                   </td>
                   {canUpdate && (
-                    <td>
+                    <td data-label="Change">
                       {open ? (
                         <div className="flex flex-wrap items-center gap-2">
                           {b.status === "ready" && !expired && (

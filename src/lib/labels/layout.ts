@@ -76,6 +76,8 @@ interface Block {
 
 const LINE_GAP = 1.18;
 const QUIET_ZONE_MODULES = 10;
+/** One dot of a 203 dpi thermal printer, in points. */
+const DOT_203 = 72 / 203;
 
 export function bottleLine(n: number, of: number): string {
   return `Bottle ${n} of ${of}`;
@@ -148,20 +150,26 @@ export function layoutLabel(content: LabelContent, bottle: number, size: { width
   const columns = count ? Math.ceil(count / perColumn) : 0;
   const pictoColumnW = columns * (2 * half + 2);
   const textW = innerW - (count ? pictoColumnW + padding * 0.6 : 0);
+  // Barcode: as wide as the text column allows, module width at least 0.5 pt. Where that would
+  // make a module narrower than two dots of a 203 dpi printer (the 2 × 1 in label), the bars take
+  // the label's whole width, modules snapped to whole dots, and the pictograms move below them.
+  const symbol = code128(content.code);
+  const totalModules = symbol.modules.length + 2 * QUIET_ZONE_MODULES;
+  const barHeight = Math.max(small < 100 ? 11 : 12, Math.min(innerH * 0.22, 40));
+  const fullWidth = count > 0 && textW / totalModules < 2 * DOT_203;
+  const moduleWidth = fullWidth ? Math.max(2, Math.floor(innerW / totalModules / DOT_203)) * DOT_203 : Math.min(1.5, textW / totalModules);
+  const barX = fullWidth
+    ? Math.round((padding + QUIET_ZONE_MODULES * moduleWidth) / DOT_203) * DOT_203
+    : padding + QUIET_ZONE_MODULES * moduleWidth;
+  const pictoTop = height - padding - (fullWidth ? barHeight + 2 : 0);
+  const pictoHalf = fullWidth ? Math.max(6, Math.min(half, (pictoTop - padding) / perColumn / 2 - 1)) : half;
   const pictograms = content.pictograms.map((code, i) => {
     const col = Math.floor(i / perColumn);
     const row = i % perColumn;
-    const cx = width - padding - half - col * (2 * half + 2);
-    const cy = height - padding - half - row * (2 * half + 2);
-    return { code, cx, cy, half };
+    const cx = width - padding - pictoHalf - col * (2 * pictoHalf + 2);
+    const cy = pictoTop - pictoHalf - row * (2 * pictoHalf + 2);
+    return { code, cx, cy, half: pictoHalf };
   });
-
-  // Barcode: as wide as the text column allows, module width at least 0.5 pt.
-  const symbol = code128(content.code);
-  const totalModules = symbol.modules.length + 2 * QUIET_ZONE_MODULES;
-  const moduleWidth = Math.min(1.5, textW / totalModules);
-  const barHeight = Math.max(small < 100 ? 11 : 12, Math.min(innerH * 0.22, 40));
-  const barX = padding + QUIET_ZONE_MODULES * moduleWidth;
   const barY = height - padding - barHeight;
   const barcode = {
     x: barX,

@@ -9,12 +9,13 @@ export const STATIC_SECURITY_HEADERS: Readonly<Record<string, string>> = {
   "x-content-type-options": "nosniff",
   "referrer-policy": "strict-origin-when-cross-origin",
   "cross-origin-opener-policy": "same-origin",
-  "permissions-policy": "camera=(), microphone=(), geolocation=(), payment=()",
+  "permissions-policy": "camera=(self), microphone=(), geolocation=(), payment=()",
 };
 
 /**
  * The policy. Scripts: Decant's own files and the inline elements Astro rendered for this answer
- * (they carry the nonce); no eval, no inline event handlers. Styles: own files and nonced
+ * (they carry the nonce); no eval, no inline event handlers; WebAssembly compiled from Decant's own
+ * files (`'wasm-unsafe-eval'`: the camera scanner's Code 128 reader). Styles: own files and nonced
  * elements; `style` attributes stay allowed (`style-src-attr`) because server-rendered bars and
  * chart keys set a width or a colour inline, which cannot run code. Frames: Decant's own pages
  * (the PDF label preview); `frameAncestors` is `'none'` except for PDFs, which Decant's pages frame.
@@ -23,7 +24,7 @@ export function contentSecurityPolicy(options: { nonce: string | null; frameAnce
   const nonce = options.nonce ? ` 'nonce-${options.nonce}'` : "";
   return [
     "default-src 'self'",
-    `script-src 'self'${nonce}`,
+    `script-src 'self' 'wasm-unsafe-eval'${nonce}`,
     `style-src 'self'${nonce}`,
     "style-src-attr 'unsafe-inline'",
     "img-src 'self' data: blob:",
