@@ -130,11 +130,13 @@ describe("a batch uses the assay of the lot picked", () => {
       bottleSize_mL: 1000,
       temperature_C: 22,
       measuredPH: 7.0,
+      // Actuals near the targets (25 mM KH2PO4 is about 3.4 g); what this test reads is the targets.
       components: [
-        { reagent: "water", stockLotId: water },
-        { reagent: "potassium-dihydrogen-phosphate", stockLotId: phosphate.id },
-        { reagent: "potassium-hydroxide", stockLotId: kohLot },
+        { reagent: "water", stockLotId: water, actualAmount: 1000 },
+        { reagent: "potassium-dihydrogen-phosphate", stockLotId: phosphate.id, actualAmount: 3.4 },
+        { reagent: "potassium-hydroxide", stockLotId: kohLot, actualAmount: 0.7 },
       ],
+      deviationReason: "amounts not weighed: a test of the computed targets",
     });
     expect(r.status).toBe(201);
     return (

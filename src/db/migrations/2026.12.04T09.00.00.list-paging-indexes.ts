@@ -18,5 +18,10 @@ export async function up({ context: qi }: MigrationParams<QueryInterface>) {
 }
 
 export async function down({ context: qi }: MigrationParams<QueryInterface>) {
-  for (const [table, , name] of INDEXES) await qi.removeIndex(table, name);
+  // InnoDB may have let (actor_id, created_at) serve the actor foreign key in place of the index
+  // it made for it; give the key a one-column index back in the same ALTER that drops ours.
+  for (const [table, fields, name] of INDEXES) {
+    const keep = fields[0] === "actor_id" ? `ADD INDEX \`${table}_${fields[0]}\` (\`${fields[0]}\`), ` : "";
+    await qi.sequelize.query(`ALTER TABLE \`${table}\` ${keep}DROP INDEX \`${name}\``);
+  }
 }
