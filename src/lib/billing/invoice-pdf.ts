@@ -8,6 +8,7 @@ import { embedLabelFonts, sanitizer } from "../labels/label-pdf";
 import type { InvoiceDetails } from "./invoice";
 import { formatMoney } from "./money";
 import type { InvoiceStatus } from "./types";
+import { INK, textDrawer } from "./pdf-text";
 
 export interface InvoicePdfInput {
   details: InvoiceDetails;
@@ -16,7 +17,6 @@ export interface InvoicePdfInput {
 
 const A4 = { width: 595.28, height: 841.89 };
 const MARGIN = 48;
-const INK = rgb(0.11, 0.15, 0.2);
 const MUTED = rgb(0.37, 0.42, 0.47);
 const RULE = rgb(0.86, 0.85, 0.81);
 const TEAL = rgb(0.08, 0.37, 0.4);
@@ -37,18 +37,7 @@ export async function renderInvoicePdf({ details, status }: InvoicePdfInput): Pr
   const pages: PDFPage[] = [];
   let page!: PDFPage;
   let y = 0;
-  const text = (s: string, x: number, yy: number, size: number, font: PDFFont = regular, color = INK) =>
-    page.drawText(clean(s), { x, y: yy, size, font, color });
-  const right = (s: string, xRight: number, yy: number, size: number, font: PDFFont = regular, color = INK) => {
-    const t = clean(s);
-    page.drawText(t, { x: xRight - font.widthOfTextAtSize(t, size), y: yy, size, font, color });
-  };
-  const fit = (s: string, width: number, size: number, font: PDFFont = regular) => {
-    let t = clean(s);
-    if (font.widthOfTextAtSize(t, size) <= width) return t;
-    while (t.length > 1 && font.widthOfTextAtSize(`${t}…`, size) > width) t = t.slice(0, -1);
-    return `${t}…`;
-  };
+  const { onPage, text, right, fit } = textDrawer(clean, regular);
   const taxed = details.tax.percent !== null;
   const COL = { item: MARGIN, net: taxed ? 400 : 470, tax: 470, amount: A4.width - MARGIN };
   const tableHeader = () => {
@@ -63,6 +52,7 @@ export async function renderInvoicePdf({ details, status }: InvoicePdfInput): Pr
   const newPage = () => {
     page = doc.addPage([A4.width, A4.height]);
     pages.push(page);
+    onPage(page);
     y = A4.height - MARGIN;
   };
   const ensure = (height: number) => {

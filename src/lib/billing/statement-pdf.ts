@@ -8,6 +8,7 @@ import { embedLabelFonts, sanitizer } from "../labels/label-pdf";
 import { formatMoney } from "./money";
 import { projectTotals, quantityLabel as quantityText, type StatementLine } from "./statement";
 import type { InvoiceView, StatementView } from "./types";
+import { INK, textDrawer } from "./pdf-text";
 
 /** What the statement PDF shows: the statement as the screens see it, plus the facility's name. */
 export type StatementPdfInput = Pick<
@@ -31,7 +32,6 @@ export type StatementPdfInput = Pick<
 
 const A4 = { width: 595.28, height: 841.89 };
 const MARGIN = 48;
-const INK = rgb(0.11, 0.15, 0.2);
 const MUTED = rgb(0.37, 0.42, 0.47);
 const RULE = rgb(0.86, 0.85, 0.81);
 const TEAL = rgb(0.08, 0.37, 0.4);
@@ -57,18 +57,7 @@ export async function renderStatementPdf(input: StatementPdfInput): Promise<Uint
   let page!: PDFPage;
   let y = 0;
 
-  const text = (s: string, x: number, yy: number, size: number, font: PDFFont = regular, color = INK) =>
-    page.drawText(clean(s), { x, y: yy, size, font, color });
-  const right = (s: string, xRight: number, yy: number, size: number, font: PDFFont = regular, color = INK) => {
-    const t = clean(s);
-    page.drawText(t, { x: xRight - font.widthOfTextAtSize(t, size), y: yy, size, font, color });
-  };
-  const fit = (s: string, width: number, size: number, font: PDFFont = regular) => {
-    let t = clean(s);
-    if (font.widthOfTextAtSize(t, size) <= width) return t;
-    while (t.length > 1 && font.widthOfTextAtSize(`${t}…`, size) > width) t = t.slice(0, -1);
-    return `${t}…`;
-  };
+  const { onPage, text, right, fit } = textDrawer(clean, regular);
 
   const COL = { item: MARGIN, quantity: 360, price: 460, amount: A4.width - MARGIN };
   const tableHeader = () => {
@@ -84,6 +73,7 @@ export async function renderStatementPdf(input: StatementPdfInput): Promise<Uint
   const newPage = (first: boolean) => {
     page = doc.addPage([A4.width, A4.height]);
     pages.push(page);
+    onPage(page);
     y = A4.height - MARGIN;
     if (first) {
       page.drawRectangle({ x: 0, y: A4.height - 6, width: A4.width, height: 6, color: TEAL });
