@@ -8,7 +8,7 @@ import { embedLabelFonts, sanitizer } from "../labels/label-pdf";
 import type { InvoiceDetails } from "./invoice";
 import { formatMoney } from "./money";
 import type { InvoiceStatus } from "./types";
-import { INK, textDrawer } from "./pdf-text";
+import { textDrawer } from "./pdf-text";
 
 export interface InvoicePdfInput {
   details: InvoiceDetails;
