@@ -1,5 +1,5 @@
 import { execFileSync } from "node:child_process";
-import { mkdtempSync, writeFileSync } from "node:fs";
+import { mkdtempSync, rmSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { chromium, expect, test, type Browser } from "@playwright/test";
@@ -10,6 +10,7 @@ import { signIn } from "./support";
  * (pdftoppm, ffmpeg) from the label Decant renders for B26-1103; pressing "Scan" must open that batch.
  */
 const dir = mkdtempSync(join(tmpdir(), "decant-camera-"));
+test.afterAll(() => rmSync(dir, { recursive: true, force: true }));
 const baseURL = process.env.E2E_BASE_URL ?? "http://127.0.0.1:4331";
 
 async function cameraBrowser(video: string): Promise<Browser> {

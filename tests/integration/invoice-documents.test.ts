@@ -2,10 +2,6 @@
 // the PDF (read back with pdftotext) carries every element an invoice needs, its lines, tax and
 // total equal the provider's invoice to the cent, and Decant's numbers stay gap-free when twenty
 // invoice runs race, some of them failing half-way.
-import { execFileSync } from "node:child_process";
-import { mkdtempSync, writeFileSync } from "node:fs";
-import { tmpdir } from "node:os";
-import { join } from "node:path";
 import { QueryTypes } from "sequelize";
 import type Stripe from "stripe";
 import { describe, expect, it } from "vitest";
@@ -21,6 +17,7 @@ import { invoicePdf } from "../../src/lib/server/services/billing/documents";
 import { invoiceStatement } from "../../src/lib/server/services/billing/statement-invoice";
 import { openStatement } from "../../src/lib/server/services/billing/statements";
 import { useServiceDatabase } from "../support/service-database";
+import { pdfText } from "../support/pdf-text";
 
 const db = useServiceDatabase();
 const manager = { id: 2, email: "manager@demo.test", name: "Priya Castellan", role: "manager", clientId: null } as SignedInUser;
@@ -30,11 +27,7 @@ const payments = () => createPaymentsClient(getEnv());
 const now = new Date();
 const monthsAgo = (n: number) => monthBounds(new Date(Date.UTC(now.getUTCFullYear(), now.getUTCMonth() - n, 1)).toISOString().slice(0, 7));
 
-function pdftotext(bytes: Uint8Array): string {
-  const file = join(mkdtempSync(join(tmpdir(), "decant-invoice-")), "invoice.pdf");
-  writeFileSync(file, bytes);
-  return execFileSync("pdftotext", ["-layout", file, "-"], { encoding: "utf8" });
-}
+const pdftotext = (bytes: Uint8Array) => pdfText(bytes);
 
 async function detailsOf(invoiceId: number): Promise<InvoiceDetails> {
   return jsonColumn<InvoiceDetails>((await Invoice.findByPk(invoiceId))!.details);

@@ -1,13 +1,10 @@
 // The preparation journey through the running test app's API: recipes and their versions, stock
 // lots with certificates, recording a batch (lots, deviations, idempotency) and its labels.
-import { execFileSync } from "node:child_process";
-import { mkdtempSync, writeFileSync } from "node:fs";
-import { tmpdir } from "node:os";
-import { join } from "node:path";
 import { PDFDocument } from "pdf-lib";
 import { beforeAll, describe, expect, it } from "vitest";
 import { preparationPlan } from "../../src/lib/preparation/plan";
 import { client, type Client } from "../support/http";
+import { pdfText } from "../support/pdf-text";
 
 const unique = Math.random().toString(36).slice(2, 7).toUpperCase();
 let tech: Client;
@@ -279,9 +276,7 @@ describe("recording a batch", () => {
     expect(label.headers.get("content-type")).toBe("application/pdf");
     const bytes = new Uint8Array(await label.arrayBuffer());
     expect((await PDFDocument.load(bytes)).getPageCount()).toBe(4);
-    const dir = mkdtempSync(join(tmpdir(), "decant-it-"));
-    writeFileSync(join(dir, "l.pdf"), bytes);
-    const text = execFileSync("pdftotext", [join(dir, "l.pdf"), "-"], { encoding: "utf8" });
+    const text = pdfText(bytes, { layout: false });
     expect(text.match(new RegExp(batch.code, "g"))!.length).toBe(4);
     expect(text).toContain("Bottle 3 of 3");
     expect(text).toContain("Rowan Ellery");

@@ -1,6 +1,3 @@
-import { execFileSync } from "node:child_process";
-import { mkdtempSync, writeFileSync } from "node:fs";
-import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { PDFDocument } from "pdf-lib";
 import { describe, expect, it } from "vitest";
@@ -11,6 +8,7 @@ import { measureLabel, renderLabels } from "../../../src/lib/labels/label-pdf";
 import { DEFAULT_LABEL_STOCKS, labelsPerPage } from "../../../src/lib/labels/stocks";
 import { decodeCode128 } from "./code128-reference";
 import { scanLabels } from "./scan-labels";
+import { pdfText } from "../../support/pdf-text";
 
 // A demanding label: long name and composition, four pictograms, a deviation.
 const hazards = hazardSummary([
@@ -35,12 +33,7 @@ const CONTENT: LabelContent = {
   channel: "A",
 };
 
-function pdftotext(bytes: Uint8Array): string {
-  const dir = mkdtempSync(join(tmpdir(), "decant-label-"));
-  const file = join(dir, "labels.pdf");
-  writeFileSync(file, bytes);
-  return execFileSync("pdftotext", ["-layout", file, "-"], { encoding: "utf8" });
-}
+const pdftotext = (bytes: Uint8Array) => pdfText(bytes);
 
 describe("hazard summary", () => {
   it("takes the pictograms of components at 1 % or more and drops the exclamation mark beside the skull", () => {
