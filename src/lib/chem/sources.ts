@@ -25,7 +25,7 @@ export const SOURCES = {
     citation: "Goldberg, Kishore, Lennen, J. Phys. Chem. Ref. Data 31, 231 (2002)",
     confidence: "M",
     unchecked:
-      "the paper's tables were not reachable; the pKa, ΔH° and ΔCp° used agree with two public transcriptions, and pKa and ΔH° with NIST 46 where it has them (phosphate, carbonate, borate, citrate)",
+      "the paper's tables were not reachable; the pKa, ΔH° and ΔCp° used agree with two public copies of those tables, and pKa and ΔH° with NIST 46 where it has them (phosphate, carbonate, borate, citrate)",
   },
   Harris: { citation: "Harris, Quantitative Chemical Analysis, App. G (NIST SRD 46 data)", confidence: "C" },
   HPA46: {
@@ -190,7 +190,7 @@ export const SOURCES = {
   },
   EHS00: {
     citation:
-      "Koller, Fischer, Hungerbuehler, Ind. Eng. Chem. Res. 39, 960 (2000), EHS method indices (safety, health, environment) as used by HPLC-EAT; values seen as transcribed in a public HPLC-EAT calculator's solvent table (not in the paper)",
+      "Koller, Fischer, Hungerbuehler, Ind. Eng. Chem. Res. 39, 960 (2000), EHS method indices (safety, health, environment) as used by HPLC-EAT; values seen as copied into a public HPLC-EAT calculator's solvent table (not in the paper)",
     confidence: "C",
   },
   SC04: {

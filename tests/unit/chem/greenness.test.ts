@@ -1,5 +1,5 @@
 // Method greenness: solvent, waste by stream and the HPLC-EAT score (Gaber et al., Green Chem. 13,
-// 2021, 2011; the formula from memory, M). The EHS indices are as transcribed in a public HPLC-EAT
+// 2021, 2011; the formula from memory, M). The EHS indices are as copied into a public HPLC-EAT
 // calculator (EHS00, C there, paper not seen). No worked example of the paper could be read: the
 // score rows are the formula evaluated by hand (D) with the catalogue's 20 °C densities.
 import fc from "fast-check";
